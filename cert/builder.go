@@ -1,0 +1,244 @@
+package cert
+
+import (
+	"errors"
+	"fmt"
+	"slices"
+	"strconv"
+)
+
+// ErrSelfLoop is returned (wrapped) when an edge joins a vertex to itself.
+var ErrSelfLoop = errors.New("self-loop")
+
+// Builder collects vertices and edges and builds a Graph.
+// Labels that are canonical decimal integers below 1<<24 are interned
+// without hashing, which keeps large numbered inputs fast.
+type Builder struct {
+	labels []string
+	index  map[string]int32
+	num    []int32 // num[k] = 1 + vertex of label strconv.Itoa(k), 0 if absent
+	pairs  []uint64
+}
+
+// NewBuilder returns an empty builder.
+func NewBuilder() *Builder { return &Builder{index: make(map[string]int32)} }
+
+const numFast = 1 << 24
+
+// smallNumber returns the value of a canonical decimal label below numFast.
+func smallNumber(b []byte) (int, bool) {
+	if len(b) == 0 || len(b) > 8 || (b[0] == '0' && len(b) > 1) {
+		return 0, false
+	}
+	n := 0
+	for _, c := range b {
+		if c < '0' || c > '9' {
+			return 0, false
+		}
+		n = n*10 + int(c-'0')
+	}
+	return n, n < numFast
+}
+
+// Vertex returns the vertex with the given label, adding it if new.
+func (b *Builder) Vertex(label string) int32 { return b.VertexBytes([]byte(label)) }
+
+// VertexBytes is Vertex for a byte slice; the bytes are copied when a vertex is added.
+func (b *Builder) VertexBytes(label []byte) int32 {
+	if k, ok := smallNumber(label); ok {
+		if k < len(b.num) && b.num[k] != 0 {
+			return b.num[k] - 1
+		}
+		if k >= len(b.num) {
+			b.num = slices.Grow(b.num, k+1-len(b.num))[:max(k+1, 2*len(b.num))]
+		}
+		v := int32(len(b.labels))
+		b.labels = append(b.labels, strconv.Itoa(k))
+		b.num[k] = v + 1
+		return v
+	}
+	if v, ok := b.index[string(label)]; ok {
+		return v
+	}
+	v := int32(len(b.labels))
+	s := string(label)
+	b.labels = append(b.labels, s)
+	b.index[s] = v
+	return v
+}
+
+// N returns the number of vertices added so far.
+func (b *Builder) N() int { return len(b.labels) }
+
+// AddEdge adds the edge {u, v} between vertices returned by Vertex.
+// A repeated edge is accepted here and merged (and counted) by Build.
+func (b *Builder) AddEdge(u, v int32) error {
+	if u == v {
+		return fmt.Errorf("cert: %w at vertex %q", ErrSelfLoop, b.labels[u])
+	}
+	if u < 0 || v < 0 || int(u) >= len(b.labels) || int(v) >= len(b.labels) {
+		return fmt.Errorf("cert: edge {%d, %d} names an unknown vertex", u, v)
+	}
+	if u > v {
+		u, v = v, u
+	}
+	b.pairs = append(b.pairs, uint64(u)<<32|uint64(v))
+	return nil
+}
+
+// BuildReport tells what Build merged.
+type BuildReport struct {
+	Duplicates int         // number of repeated edges merged away
+	Examples   [][2]string // up to 10 of them, as label pairs
+}
+
+// Build sorts vertices into canonical label order, merges repeated edges and
+// returns the graph. The builder must not be used afterwards.
+func (b *Builder) Build() (*Graph, BuildReport) {
+	n := len(b.labels)
+	order := make([]int32, n)
+	for i := range order {
+		order[i] = int32(i)
+	}
+	slices.SortFunc(order, func(x, y int32) int { return CompareLabels(b.labels[x], b.labels[y]) })
+	rank := make([]int32, n)
+	labels := make([]string, n)
+	for r, v := range order {
+		rank[v] = int32(r)
+		labels[r] = b.labels[v]
+	}
+	pairs := b.pairs
+	b.pairs, b.labels, b.index, b.num = nil, nil, nil, nil
+	for i, p := range pairs {
+		u, v := rank[p>>32], rank[p&0xffffffff]
+		if u > v {
+			u, v = v, u
+		}
+		pairs[i] = uint64(u)<<32 | uint64(v)
+	}
+	radixSort64(pairs, n)
+	var rep BuildReport
+	edges := make([]Edge, 0, len(pairs))
+	for i, p := range pairs {
+		if i > 0 && pairs[i-1] == p {
+			rep.Duplicates++
+			if len(rep.Examples) < 10 {
+				rep.Examples = append(rep.Examples, [2]string{labels[p>>32], labels[p&0xffffffff]})
+			}
+			continue
+		}
+		edges = append(edges, Edge{int32(p >> 32), int32(p & 0xffffffff)})
+	}
+	return newGraph(labels, edges), rep
+}
+
+// newGraph wraps sorted, duplicate-free edges over canonically ordered labels.
+func newGraph(labels []string, edges []Edge) *Graph {
+	start := make([]int32, len(labels)+1)
+	for _, e := range edges {
+		start[e.U+1]++
+	}
+	for i := 0; i < len(labels); i++ {
+		start[i+1] += start[i]
+	}
+	return &Graph{labels: labels, edges: edges, start: start}
+}
+
+// radixSort64 sorts keys whose two 32-bit halves are below n.
+func radixSort64(a []uint64, n int) {
+	if len(a) < 256 {
+		slices.Sort(a)
+		return
+	}
+	bits := 1
+	for (1 << bits) < n {
+		bits++
+	}
+	// Pack both halves into 2*bits bits, sort by 11-bit digits, unpack.
+	mask := uint64(1)<<bits - 1
+	for i, x := range a {
+		a[i] = (x>>32)<<bits | x&mask
+	}
+	tmp := make([]uint64, len(a))
+	src, dst := a, tmp
+	var count [1 << 11]int
+	for shift := 0; shift < 2*bits; shift += 11 {
+		clear(count[:])
+		for _, x := range src {
+			count[(x>>shift)&0x7ff]++
+		}
+		sum := 0
+		for i := range count {
+			c := count[i]
+			count[i] = sum
+			sum += c
+		}
+		for _, x := range src {
+			d := (x >> shift) & 0x7ff
+			dst[count[d]] = x
+			count[d]++
+		}
+		src, dst = dst, src
+	}
+	for i, x := range src {
+		a[i] = (x>>bits)<<32 | x&mask
+	}
+}
+
+// CompareLabels orders labels canonically: canonical decimal integers first,
+// by value; then all other labels bytewise.
+func CompareLabels(a, b string) int {
+	na, nb := isDecimal(a), isDecimal(b)
+	switch {
+	case na && nb:
+		if len(a) != len(b) {
+			if len(a) < len(b) {
+				return -1
+			}
+			return 1
+		}
+	case na:
+		return -1
+	case nb:
+		return 1
+	}
+	switch {
+	case a < b:
+		return -1
+	case a > b:
+		return 1
+	}
+	return 0
+}
+
+// isDecimal reports whether s is a canonical non-negative decimal integer.
+func isDecimal(s string) bool {
+	if s == "" || (s[0] == '0' && len(s) > 1) {
+		return false
+	}
+	for i := 0; i < len(s); i++ {
+		if s[i] < '0' || s[i] > '9' {
+			return false
+		}
+	}
+	return true
+}
+
+// NewNumbered builds a graph on vertices labelled base..base+n-1 from index pairs
+// in 0..n-1. It is a convenience for generators and tests.
+func NewNumbered(n, base int, edges [][2]int) (*Graph, error) {
+	b := NewBuilder()
+	for i := 0; i < n; i++ {
+		b.Vertex(strconv.Itoa(base + i))
+	}
+	for _, e := range edges {
+		if e[0] < 0 || e[1] < 0 || e[0] >= n || e[1] >= n {
+			return nil, fmt.Errorf("cert: edge {%d, %d} out of range 0..%d", e[0], e[1], n-1)
+		}
+		if err := b.AddEdge(int32(e[0]), int32(e[1])); err != nil {
+			return nil, err
+		}
+	}
+	g, _ := b.Build()
+	return g, nil
+}

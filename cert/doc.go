@@ -1,0 +1,14 @@
+// Package cert holds quire's graphs and layouts and checks layouts directly.
+//
+// A Graph is simple and undirected with labelled vertices, numbered in
+// canonical label order so that its identity (Graph.ID) depends only on the
+// labels and the edge set. Readers accept edge lists, the DIMACS graph format
+// (DIMACS Clique and Coloring Problems Graph Format, 1993) and graph6/sparse6
+// (B. McKay, formats.txt).
+//
+// A Layout puts the vertices on a spine and every edge on a page. A stack page
+// holds no two crossing edges (never a < c < b < d in spine positions), a
+// queue page no two nested edges (never a < c < d < b). The checker trusts
+// nothing in the layout: it matches vertices and edges against the graph and
+// scans every page in O(m log m) time, reporting each problem with a witness.
+package cert

@@ -1,0 +1,187 @@
+package cert
+
+import (
+	"crypto/sha256"
+	"encoding/binary"
+	"encoding/hex"
+	"fmt"
+	"slices"
+	"sync"
+)
+
+// Edge is an undirected edge between two vertex indices with U < V.
+type Edge struct{ U, V int32 }
+
+// Graph is a simple undirected graph with labelled vertices.
+//
+// Vertices are numbered 0..N()-1 in canonical label order (see LessLabel), so
+// two graphs with the same labels and edges have the same numbering whatever
+// the input format or edge order. Edges() is sorted by (U, V) with U < V.
+// A Graph is immutable once built and safe for concurrent readers.
+type Graph struct {
+	labels []string
+	edges  []Edge
+	start  []int32 // edges with U == u are edges[start[u]:start[u+1]]
+
+	indexOnce sync.Once
+	index     map[string]int32
+
+	adjOnce sync.Once
+	adjOff  []int32
+	adj     []int32
+	adjEdge []int32
+}
+
+// N returns the number of vertices.
+func (g *Graph) N() int { return len(g.labels) }
+
+// M returns the number of edges.
+func (g *Graph) M() int { return len(g.edges) }
+
+// Label returns the label of vertex v.
+func (g *Graph) Label(v int32) string { return g.labels[v] }
+
+// Labels returns the vertex labels in vertex order. The slice must not be modified.
+func (g *Graph) Labels() []string { return g.labels }
+
+// Edges returns the edges sorted by (U, V). The slice must not be modified.
+func (g *Graph) Edges() []Edge { return g.edges }
+
+// Index returns the vertex with the given label.
+func (g *Graph) Index(label string) (int32, bool) {
+	g.indexOnce.Do(func() {
+		g.index = make(map[string]int32, len(g.labels))
+		for i, l := range g.labels {
+			g.index[l] = int32(i)
+		}
+	})
+	v, ok := g.index[label]
+	return v, ok
+}
+
+// EdgeIndex returns the index in Edges() of the edge {u, v}, or -1.
+func (g *Graph) EdgeIndex(u, v int32) int {
+	if u > v {
+		u, v = v, u
+	}
+	if u < 0 || int(v) >= len(g.labels) || u == v {
+		return -1
+	}
+	lo, hi := int(g.start[u]), int(g.start[u+1])
+	for lo < hi {
+		mid := int(uint(lo+hi) >> 1)
+		if g.edges[mid].V < v {
+			lo = mid + 1
+		} else {
+			hi = mid
+		}
+	}
+	if lo < int(g.start[u+1]) && g.edges[lo].V == v {
+		return lo
+	}
+	return -1
+}
+
+// HasEdge reports whether {u, v} is an edge.
+func (g *Graph) HasEdge(u, v int32) bool { return g.EdgeIndex(u, v) >= 0 }
+
+func (g *Graph) buildAdj() {
+	g.adjOnce.Do(func() {
+		n := len(g.labels)
+		off := make([]int32, n+1)
+		for _, e := range g.edges {
+			off[e.U+1]++
+			off[e.V+1]++
+		}
+		for i := 0; i < n; i++ {
+			off[i+1] += off[i]
+		}
+		adj := make([]int32, 2*len(g.edges))
+		eid := make([]int32, 2*len(g.edges))
+		fill := slices.Clone(off[:n])
+		for i, e := range g.edges {
+			adj[fill[e.U]], eid[fill[e.U]] = e.V, int32(i)
+			fill[e.U]++
+			adj[fill[e.V]], eid[fill[e.V]] = e.U, int32(i)
+			fill[e.V]++
+		}
+		g.adjOff, g.adj, g.adjEdge = off, adj, eid
+	})
+}
+
+// Neighbors returns the neighbours of v in increasing order. The slice must not be modified.
+func (g *Graph) Neighbors(v int32) []int32 {
+	g.buildAdj()
+	return g.adj[g.adjOff[v]:g.adjOff[v+1]]
+}
+
+// IncidentEdges returns the indices (into Edges) of the edges at v, aligned with Neighbors(v).
+func (g *Graph) IncidentEdges(v int32) []int32 {
+	g.buildAdj()
+	return g.adjEdge[g.adjOff[v]:g.adjOff[v+1]]
+}
+
+// Degree returns the degree of v.
+func (g *Graph) Degree(v int32) int {
+	g.buildAdj()
+	return int(g.adjOff[v+1] - g.adjOff[v])
+}
+
+// identityTag versions the canonical serialisation hashed by ID.
+const identityTag = "quire-graph-identity-v1\x00"
+
+// ID returns the canonical identity of the graph: the lowercase hex SHA-256 of
+// identityTag, the vertex count, every label (length-prefixed, in canonical
+// order) and every edge (as a pair of vertex indices, in sorted order), all
+// integers as unsigned 64-bit big-endian. It depends on the labels and the
+// edge set only, not on the input format or the order of the input.
+func (g *Graph) ID() string {
+	h := sha256.New()
+	var buf [16]byte
+	h.Write([]byte(identityTag))
+	binary.BigEndian.PutUint64(buf[:8], uint64(len(g.labels)))
+	h.Write(buf[:8])
+	for _, l := range g.labels {
+		binary.BigEndian.PutUint64(buf[:8], uint64(len(l)))
+		h.Write(buf[:8])
+		h.Write([]byte(l))
+	}
+	binary.BigEndian.PutUint64(buf[:8], uint64(len(g.edges)))
+	h.Write(buf[:8])
+	for _, e := range g.edges {
+		binary.BigEndian.PutUint64(buf[:8], uint64(e.U))
+		binary.BigEndian.PutUint64(buf[8:], uint64(e.V))
+		h.Write(buf[:])
+	}
+	return hex.EncodeToString(h.Sum(nil))
+}
+
+// Induced returns the subgraph induced by the given vertices (in any order),
+// keeping their labels, and the map from new vertex index to old.
+func (g *Graph) Induced(vertices []int32) (*Graph, []int32) {
+	b := NewBuilder()
+	for _, v := range vertices {
+		b.Vertex(g.labels[v])
+	}
+	in := make(map[int32]int32, len(vertices))
+	for i, v := range vertices {
+		in[v] = int32(i)
+	}
+	for _, e := range g.edges {
+		nu, ok1 := in[e.U]
+		nv, ok2 := in[e.V]
+		if ok1 && ok2 {
+			_ = b.AddEdge(nu, nv)
+		}
+	}
+	h, _ := b.Build()
+	old := make([]int32, h.N())
+	for i := range old {
+		v, _ := g.Index(h.labels[i])
+		old[i] = v
+	}
+	return h, old
+}
+
+// String returns a short description such as "graph n=5 m=7".
+func (g *Graph) String() string { return fmt.Sprintf("graph n=%d m=%d", g.N(), g.M()) }

@@ -1,0 +1,62 @@
+package main
+
+import (
+	"github.com/spf13/cobra"
+)
+
+// version is the quire version, recorded in every artifact quire writes.
+var version = "0.1.0-dev"
+
+// commands holds the constructors registered by the subcommand files.
+var commands []func() *cobra.Command
+
+// register adds a subcommand constructor; each subcommand file calls it from init.
+func register(c func() *cobra.Command) { commands = append(commands, c) }
+
+// childHandlers are hidden entry points for quire's own child processes
+// (for example a solver run that must be killable); see childMain.
+var childHandlers = map[string]func(ctx contextT, args []string) int{}
+
+func newRootCmd() *cobra.Command {
+	root := &cobra.Command{
+		Use:   "quire",
+		Short: "Evidence for page-number claims about graphs",
+		Long: `quire turns claims about the page number (book thickness) and queue number of
+graphs into evidence that anyone can re-check: it validates layouts directly,
+encodes "G has a k-page layout" as DIMACS CNF, decides it with independent
+solvers, checks clausal proofs with its own checker, and bundles the evidence.
+
+` + exitTable,
+		Version:       version,
+		SilenceUsage:  true,
+		SilenceErrors: true,
+	}
+	root.SetFlagErrorFunc(func(c *cobra.Command, err error) error { return usageErr(err) })
+	for _, c := range commands {
+		cmd := c()
+		addExitHelp(cmd)
+		root.AddCommand(cmd)
+	}
+	return root
+}
+
+// addExitHelp appends the exit-code table to a command's help and makes its
+// argument and flag errors exit with status 2.
+func addExitHelp(cmd *cobra.Command) {
+	if cmd.Long == "" {
+		cmd.Long = cmd.Short
+	}
+	cmd.Long += "\n\n" + exitTable
+	if args := cmd.Args; args != nil {
+		cmd.Args = func(c *cobra.Command, a []string) error {
+			if err := args(c, a); err != nil {
+				return usageErr(err)
+			}
+			return nil
+		}
+	}
+	cmd.SetFlagErrorFunc(func(c *cobra.Command, err error) error { return usageErr(err) })
+	for _, sub := range cmd.Commands() {
+		addExitHelp(sub)
+	}
+}

@@ -1,6 +1,8 @@
 package main
 
 import (
+	"fmt"
+
 	"github.com/spf13/cobra"
 )
 
@@ -30,6 +32,13 @@ solvers, checks clausal proofs with its own checker, and bundles the evidence.
 		Version:       version,
 		SilenceUsage:  true,
 		SilenceErrors: true,
+		Args:          cobra.ArbitraryArgs,
+		RunE: func(cmd *cobra.Command, args []string) error {
+			if len(args) > 0 {
+				return usageErr(fmt.Errorf("unknown command %q (see quire --help)", args[0]))
+			}
+			return cmd.Help()
+		},
 	}
 	root.SetFlagErrorFunc(func(c *cobra.Command, err error) error { return usageErr(err) })
 	for _, c := range commands {

@@ -50,7 +50,8 @@ func (b *Builder) VertexBytes(label []byte) int32 {
 			return b.num[k] - 1
 		}
 		if k >= len(b.num) {
-			b.num = slices.Grow(b.num, k+1-len(b.num))[:max(k+1, 2*len(b.num))]
+			size := max(k+1, 2*len(b.num))
+			b.num = slices.Grow(b.num, size-len(b.num))[:size]
 		}
 		v := int32(len(b.labels))
 		b.labels = append(b.labels, strconv.Itoa(k))

@@ -118,6 +118,7 @@ type RawLayout struct {
 	Labels    []string
 	Spine     []int32
 	Edges     []RawEdge
+	Graph     string // graph identity named in the file, if any
 }
 
 // RawEdge is one edge record of a raw layout: two label indices and a page.

@@ -1,0 +1,161 @@
+package cert
+
+import (
+	"bytes"
+	"math/rand/v2"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+)
+
+func TestLayoutJSONRoundTrip(t *testing.T) {
+	r := rand.New(rand.NewPCG(7, 8))
+	for trial := 0; trial < 300; trial++ {
+		g := randomGraph(r, 1+r.IntN(15), r.Float64())
+		l := randomLayout(r, g, Kind(1+r.IntN(3)), 1+r.IntN(4))
+		var buf bytes.Buffer
+		if err := WriteLayoutJSON(&buf, g, l); err != nil {
+			t.Fatal(err)
+		}
+		raw, err := ReadLayoutJSON(bytes.NewReader(buf.Bytes()), "layout.json")
+		if err != nil {
+			t.Fatalf("reading what was written: %v\n%s", err, buf.String())
+		}
+		if raw.Graph != g.ID() {
+			t.Fatalf("graph identity not kept")
+		}
+		back, rep := Resolve(g, raw)
+		if !rep.OK() {
+			t.Fatalf("round trip lost something: %v", rep.Err())
+		}
+		var again bytes.Buffer
+		if err := WriteLayoutJSON(&again, g, back); err != nil {
+			t.Fatal(err)
+		}
+		if !bytes.Equal(buf.Bytes(), again.Bytes()) {
+			t.Fatalf("writing is not stable:\n%s\n%s", buf.String(), again.String())
+		}
+		if Validate(g, back).OK() != Validate(g, l).OK() {
+			t.Fatal("verdict changed through the file")
+		}
+	}
+}
+
+func TestCheckRawLayoutFindings(t *testing.T) {
+	b := NewBuilder()
+	for _, e := range [][2]string{{"a", "b"}, {"b", "c"}, {"c", "d"}, {"a", "c"}} {
+		_ = b.AddEdge(b.Vertex(e[0]), b.Vertex(e[1]))
+	}
+	g, _ := b.Build()
+	cases := []struct {
+		name, json string
+		want       []ProblemKind
+	}{
+		{"valid", `{"kind":"stack","pages":1,"spine":["a","b","c","d"],"edges":[["a","b",1],["b","c",1],["c","d",1],["a","c",1]]}`, nil},
+		{"missing edge", `{"kind":"stack","pages":1,"spine":["a","b","c","d"],"edges":[["a","b",1],["b","c",1],["c","d",1]]}`, []ProblemKind{MissingEdge}},
+		{"extra edge", `{"kind":"stack","pages":1,"spine":["a","b","c","d"],"edges":[["a","b",1],["b","c",1],["c","d",1],["a","c",1],["b","d",1]]}`, []ProblemKind{ExtraEdge}},
+		{"duplicate edge", `{"kind":"stack","pages":1,"spine":["a","b","c","d"],"edges":[["a","b",1],["b","c",1],["c","d",1],["a","c",1],["c","a",1]]}`, []ProblemKind{DuplicateEdge}},
+		{"duplicate vertex", `{"kind":"stack","pages":1,"spine":["a","b","c","d","a"],"edges":[["a","b",1],["b","c",1],["c","d",1],["a","c",1]]}`, []ProblemKind{DuplicateVertex}},
+		{"missing and unknown vertex", `{"kind":"stack","pages":1,"spine":["a","b","c","x"],"edges":[["a","b",1],["b","c",1],["c","d",1],["a","c",1]]}`, []ProblemKind{UnknownVertex, MissingVertex}},
+		{"page out of range", `{"kind":"stack","pages":1,"spine":["a","b","c","d"],"edges":[["a","b",1],["b","c",2],["c","d",1],["a","c",1]]}`, []ProblemKind{BadPage}},
+		{"crossing", `{"kind":"stack","pages":1,"spine":["a","d","b","c"],"edges":[["a","b",1],["b","c",1],["c","d",1],["a","c",1]]}`, []ProblemKind{Crossing}},
+		{"nesting", `{"kind":"queue","pages":1,"spine":["d","a","b","c"],"edges":[["a","b",1],["b","c",1],["c","d",1],["a","c",1]]}`, []ProblemKind{Nesting}},
+		{"mixed fixes it", `{"kind":"mixed","pages":2,"page_kinds":["queue","stack"],"spine":["a","b","c","d"],"edges":[["a","b",1],["b","c",1],["c","d",1],["a","c",2]]}`, nil},
+		{"integer labels compared as text", `{"kind":"stack","pages":1,"spine":["a","b","c",4],"edges":[["a","b",1],["b","c",1],["c","d",1],["a","c",1]]}`, []ProblemKind{UnknownVertex, MissingVertex}},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			raw, err := ReadLayoutJSON(strings.NewReader(c.json), "l.json")
+			if err != nil {
+				t.Fatal(err)
+			}
+			rep := Check(g, raw, CheckOptions{})
+			got := map[string]bool{}
+			for k := range rep.Counts {
+				got[k] = true
+			}
+			if len(got) != len(c.want) {
+				t.Fatalf("want %v, got %v (%v)", c.want, rep.Counts, rep.Problems)
+			}
+			for _, w := range c.want {
+				if !got[w.String()] {
+					t.Fatalf("want %v, got %v", c.want, rep.Counts)
+				}
+			}
+		})
+	}
+	raw, _ := ReadLayoutJSON(strings.NewReader(cases[9].json), "l.json")
+	if rep := Check(g, raw, CheckOptions{MaxPages: 1}); rep.Counts[PageLimit.String()] != 1 {
+		t.Fatalf("page limit not enforced: %v", rep.Counts)
+	}
+}
+
+// TestLayoutReaderRejectsBadFiles reads every file in testdata/layouts/bad; the
+// first line of each file after "//want: " names a fragment of the expected error.
+func TestLayoutReaderRejectsBadFiles(t *testing.T) {
+	files, _ := filepath.Glob("testdata/layouts/bad/*.json")
+	if len(files) == 0 {
+		t.Fatal("no bad layout files")
+	}
+	for _, f := range files {
+		t.Run(filepath.Base(f), func(t *testing.T) {
+			data, _ := os.ReadFile(f)
+			want, body, _ := strings.Cut(string(data), "\n")
+			want = strings.TrimPrefix(want, "//want: ")
+			_, err := ReadLayoutJSON(strings.NewReader(body), filepath.Base(f))
+			if err == nil {
+				t.Fatalf("accepted")
+			}
+			if !strings.Contains(err.Error(), want) {
+				t.Fatalf("error %q lacks %q", err, want)
+			}
+			if _, ok := err.(*ParseError); !ok {
+				t.Fatalf("error is %T, want *ParseError", err)
+			}
+		})
+	}
+}
+
+func FuzzLayoutJSON(f *testing.F) {
+	seeds, _ := filepath.Glob("testdata/layouts/*.json")
+	bad, _ := filepath.Glob("testdata/layouts/bad/*.json")
+	for _, s := range append(seeds, bad...) {
+		data, _ := os.ReadFile(s)
+		f.Add(data)
+	}
+	f.Fuzz(func(t *testing.T, data []byte) {
+		raw, err := ReadLayoutJSON(bytes.NewReader(data), "fuzz.json")
+		if err != nil {
+			return
+		}
+		// Build the graph the layout names and check the layout against it:
+		// nothing may panic, and a layout that resolves must write and read back.
+		b := NewBuilder()
+		for _, lab := range raw.Labels {
+			b.Vertex(lab)
+		}
+		for _, e := range raw.Edges {
+			if e.U != e.V {
+				_ = b.AddEdge(b.Vertex(raw.Labels[e.U]), b.Vertex(raw.Labels[e.V]))
+			}
+		}
+		g, _ := b.Build()
+		rep := Check(g, raw, CheckOptions{})
+		l, res := Resolve(g, raw)
+		if !res.OK() {
+			return
+		}
+		var buf bytes.Buffer
+		if err := WriteLayoutJSON(&buf, g, l); err != nil {
+			t.Fatal(err)
+		}
+		raw2, err := ReadLayoutJSON(&buf, "again.json")
+		if err != nil {
+			t.Fatalf("rereading a written layout: %v", err)
+		}
+		if rep2 := Check(g, raw2, CheckOptions{}); rep2.OK() != rep.OK() {
+			t.Fatalf("verdict changed after a round trip")
+		}
+	})
+}

@@ -1,0 +1,105 @@
+package cert
+
+import "fmt"
+
+// CheckOptions tune Check.
+type CheckOptions struct {
+	MaxPages int // when > 0, every edge must be on a page ≤ MaxPages
+}
+
+// Check matches a raw layout against g and validates it: every vertex once on
+// the spine, every edge of g placed exactly once (no missing, extra or
+// duplicated edges), pages in 1..raw.Pages (and ≤ opt.MaxPages), and no
+// conflict on any page. The report lists every kind of problem found.
+func Check(g *Graph, raw *RawLayout, opt CheckOptions) *Report {
+	l, rep := Resolve(g, raw)
+	validateInto(g, l, opt.MaxPages, false, rep)
+	return rep
+}
+
+// Resolve matches a raw layout's labels with g's vertices and edges and
+// returns the layout over g's numbering with a report of what did not match:
+// unknown, repeated and missing vertices; extra, repeated and missing edges;
+// pages outside 1..raw.Pages. Edges that did not match are left out of the
+// layout (their page is 0).
+func Resolve(g *Graph, raw *RawLayout) (*Layout, *Report) {
+	rep := &Report{Counts: map[string]int64{}, kept: map[ProblemKind]int{}}
+	kinds, err := PageKinds(raw.Kind, raw.Pages, raw.PageKinds)
+	if err != nil {
+		kinds = make([]Kind, raw.Pages)
+		for i := range kinds {
+			kinds[i] = Stack
+		}
+	}
+	n := g.N()
+	toGraph := make([]int32, len(raw.Labels))
+	for i, lab := range raw.Labels {
+		v, ok := g.Index(lab)
+		if !ok {
+			v = -1
+		}
+		toGraph[i] = v
+	}
+	l := &Layout{Kind: raw.Kind, PageKinds: kinds, Order: make([]int32, 0, n), Page: make([]int32, g.M())}
+	pos := make([]int32, n)
+	for i := range pos {
+		pos[i] = -1
+	}
+	for i, li := range raw.Spine {
+		v := toGraph[li]
+		switch {
+		case v < 0:
+			rep.add(Problem{Kind: UnknownVertex, Vertex: raw.Labels[li], Msg: fmt.Sprintf("spine position %d names %q, which is not a vertex of the graph", i, raw.Labels[li])})
+		case pos[v] >= 0:
+			rep.add(Problem{Kind: DuplicateVertex, Vertex: raw.Labels[li], Msg: fmt.Sprintf("vertex %q is on the spine twice (positions %d and %d)", raw.Labels[li], pos[v], i)})
+		default:
+			pos[v] = int32(i)
+			l.Order = append(l.Order, v)
+		}
+	}
+	for v := range pos {
+		if pos[v] < 0 {
+			rep.add(Problem{Kind: MissingVertex, Vertex: g.labels[v], Msg: fmt.Sprintf("vertex %q is not on the spine", g.labels[v])})
+		}
+	}
+	// positions in the resolved spine (unknown and repeated entries dropped)
+	for i, v := range l.Order {
+		pos[v] = int32(i)
+	}
+	for _, re := range raw.Edges {
+		u, v := toGraph[re.U], toGraph[re.V]
+		e := -1
+		if u >= 0 && v >= 0 {
+			e = g.EdgeIndex(u, v)
+		}
+		w := WitnessEdge{U: raw.Labels[re.U], V: raw.Labels[re.V], PosU: -1, PosV: -1, Page: int(re.Page)}
+		if u >= 0 {
+			w.PosU = int(pos[u])
+		}
+		if v >= 0 {
+			w.PosV = int(pos[v])
+		}
+		switch {
+		case e < 0:
+			rep.add(Problem{Kind: ExtraEdge, Page: int(re.Page), Edges: []WitnessEdge{w}, Msg: fmt.Sprintf("layout places %s–%s on page %d, but it is not an edge of the graph", w.U, w.V, re.Page)})
+		case l.Page[e] != 0:
+			rep.add(Problem{Kind: DuplicateEdge, Page: int(re.Page), Edges: []WitnessEdge{w}, Msg: fmt.Sprintf("edge %s–%s is placed twice (pages %d and %d)", w.U, w.V, l.Page[e], re.Page)})
+		case re.Page < 1 || int(re.Page) > raw.Pages:
+			rep.add(Problem{Kind: BadPage, Page: int(re.Page), Edges: []WitnessEdge{w}, Msg: fmt.Sprintf("edge %s–%s is on page %d, outside 1..%d", w.U, w.V, re.Page, raw.Pages)})
+			l.Page[e] = -1 // placed, but unusable
+		default:
+			l.Page[e] = re.Page
+		}
+	}
+	for e, p := range l.Page {
+		switch p {
+		case 0:
+			ed := g.edges[e]
+			rep.add(Problem{Kind: MissingEdge, Edges: []WitnessEdge{{U: g.labels[ed.U], V: g.labels[ed.V], PosU: int(pos[ed.U]), PosV: int(pos[ed.V])}},
+				Msg: fmt.Sprintf("edge %s has no page", edgeName(g, e))})
+		case -1:
+			l.Page[e] = 0
+		}
+	}
+	return l, rep
+}

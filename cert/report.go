@@ -61,12 +61,12 @@ const MaxWitnesses = 20
 
 // Report lists what the checker found. A layout passes when it has no problems.
 type Report struct {
-	Problems []Problem          `json:"problems"`
-	Counts   map[string]int64   `json:"counts"`
-	Pages    int                `json:"pages"`
-	Used     int                `json:"pages_used"`
-	Kind     Kind               `json:"-"`
-	PerPage  []int              `json:"edges_per_page"`
+	Problems []Problem        `json:"problems"`
+	Counts   map[string]int64 `json:"counts"`
+	Pages    int              `json:"pages"`
+	Used     int              `json:"pages_used"`
+	Kind     Kind             `json:"-"`
+	PerPage  []int            `json:"edges_per_page"`
 	kept     map[ProblemKind]int
 }
 

@@ -1,0 +1,153 @@
+package heuristic
+
+import (
+	"errors"
+	"fmt"
+	"time"
+
+	"quire/cert"
+)
+
+// ErrKind is returned (wrapped) by Find for a layout kind it cannot search.
+var ErrKind = errors.New("unsupported layout kind")
+
+// Options tune the search. The zero value is usable.
+type Options struct {
+	// Seed drives the randomised spine orders.
+	Seed int64
+	// Candidates is the number of spine orders to try (default 8). At least
+	// one is always tried, whatever the time limit.
+	Candidates int
+	// TimeLimit stops trying further candidates once it has passed
+	// (0 = no limit). The best layout found so far is returned.
+	TimeLimit time.Duration
+}
+
+func (o Options) candidates() int {
+	if o.Candidates <= 0 {
+		return 8
+	}
+	return o.Candidates
+}
+
+// Find returns a layout of kind cert.Stack or cert.Queue for g.
+func Find(g *cert.Graph, kind cert.Kind, opts Options) (*cert.Layout, error) {
+	switch kind {
+	case cert.Stack:
+		return Stack(g, opts), nil
+	case cert.Queue:
+		return Queue(g, opts), nil
+	}
+	return nil, fmt.Errorf("heuristic: %w: %s (expected stack or queue)", ErrKind, kind)
+}
+
+// Stack returns a stack layout (book embedding) of g.
+func Stack(g *cert.Graph, opts Options) *cert.Layout {
+	if l := completeStack(g); l != nil {
+		return l
+	}
+	return search(g, cert.Stack, opts)
+}
+
+// Queue returns a queue layout of g.
+func Queue(g *cert.Graph, opts Options) *cert.Layout {
+	return search(g, cert.Queue, opts)
+}
+
+// search tries spine candidates and keeps the layout with the fewest pages.
+func search(g *cert.Graph, kind cert.Kind, opts Options) *cert.Layout {
+	start := time.Now()
+	sp := newSpines(g, kind, opts.Seed)
+	var best []int32
+	var bestOrder []int32
+	bestK := int32(-1)
+	lower := int32(1)
+	if g.M() == 0 {
+		lower = 0
+	}
+	n := opts.candidates()
+	for i := 0; i < n; i++ {
+		if i > 0 && opts.TimeLimit > 0 && time.Since(start) > opts.TimeLimit {
+			break
+		}
+		order := sp.candidate(i)
+		var page []int32
+		var k int32
+		if kind == cert.Stack {
+			page, k = stackPages(g, order)
+		} else {
+			page, k = queuePages(g, order)
+		}
+		if bestK < 0 || k < bestK {
+			best, bestOrder, bestK = page, order, k
+		}
+		if bestK <= lower {
+			break
+		}
+	}
+	return newLayout(kind, bestOrder, best, bestK)
+}
+
+func newLayout(kind cert.Kind, order, page []int32, k int32) *cert.Layout {
+	kinds := make([]cert.Kind, k)
+	for i := range kinds {
+		kinds[i] = kind
+	}
+	return &cert.Layout{Kind: kind, PageKinds: kinds, Order: order, Page: page}
+}
+
+// spans returns the spine positions (l < r) of every edge under order.
+func spans(g *cert.Graph, order []int32) (ls, rs []int32) {
+	pos := make([]int32, g.N())
+	for i, v := range order {
+		pos[v] = int32(i)
+	}
+	edges := g.Edges()
+	ls = make([]int32, len(edges))
+	rs = make([]int32, len(edges))
+	for i, e := range edges {
+		a, b := pos[e.U], pos[e.V]
+		if a > b {
+			a, b = b, a
+		}
+		ls[i], rs[i] = a, b
+	}
+	return ls, rs
+}
+
+// sortByLeft returns the edge indices sorted by left end ascending, then
+// right end descending (rDesc) or ascending, by two counting sorts.
+func sortByLeft(ls, rs []int32, n int, rDesc bool) []int32 {
+	m := len(ls)
+	count := make([]int32, n+1)
+	tmp := make([]int32, m)
+	for _, r := range rs {
+		count[r+1]++
+	}
+	for i := 0; i < n; i++ {
+		count[i+1] += count[i]
+	}
+	for e, r := range rs {
+		tmp[count[r]] = int32(e)
+		count[r]++
+	}
+	if rDesc {
+		for i, j := 0, m-1; i < j; i, j = i+1, j-1 {
+			tmp[i], tmp[j] = tmp[j], tmp[i]
+		}
+	}
+	clear(count)
+	for _, l := range ls {
+		count[l+1]++
+	}
+	for i := 0; i < n; i++ {
+		count[i+1] += count[i]
+	}
+	out := make([]int32, m)
+	for _, e := range tmp {
+		l := ls[e]
+		out[count[l]] = e
+		count[l]++
+	}
+	return out
+}

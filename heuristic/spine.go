@@ -1,0 +1,150 @@
+package heuristic
+
+import (
+	"math/rand/v2"
+	"slices"
+
+	"quire/cert"
+)
+
+// spines produces the candidate spine orders for one search.
+type spines struct {
+	g    *cert.Graph
+	kind cert.Kind
+	rng  *rand.Rand
+	off  []int32 // CSR offsets of the adjacency (neighbours of v: adj[off[v]:off[v+1]])
+	adj  []int32
+}
+
+func newSpines(g *cert.Graph, kind cert.Kind, seed int64) *spines {
+	n := g.N()
+	off := make([]int32, n+1)
+	for v := 0; v < n; v++ {
+		off[v+1] = off[v] + int32(g.Degree(int32(v)))
+	}
+	adj := make([]int32, off[n])
+	for v := 0; v < n; v++ {
+		copy(adj[off[v]:], g.Neighbors(int32(v)))
+	}
+	return &spines{g: g, kind: kind, rng: rand.New(rand.NewPCG(uint64(seed), 0x9e3779b97f4a7c15)), off: off, adj: adj}
+}
+
+// candidate returns the i-th spine order. Candidate 0 is a DFS (stack) or
+// BFS (queue) in input order from vertex 0, candidate 1 the input order, 2
+// a traversal with neighbours taken by ascending degree from a vertex of
+// least degree (stack) or from a far vertex (queue), and the rest traversals
+// with shuffled neighbours from random roots.
+func (s *spines) candidate(i int) []int32 {
+	n := s.g.N()
+	switch i {
+	case 0:
+		return s.traverse(0)
+	case 1:
+		order := make([]int32, n)
+		for v := range order {
+			order[v] = int32(v)
+		}
+		return order
+	case 2:
+		s.sortByDegree()
+		if s.kind == cert.Queue {
+			far := s.traverse(0)
+			return s.traverse(far[len(far)-1])
+		}
+		root := int32(0)
+		for v := 1; v < n; v++ {
+			if s.g.Degree(int32(v)) < s.g.Degree(root) {
+				root = int32(v)
+			}
+		}
+		return s.traverse(root)
+	}
+	s.shuffle()
+	if n == 0 {
+		return nil
+	}
+	return s.traverse(int32(s.rng.IntN(n)))
+}
+
+func (s *spines) sortByDegree() {
+	g := s.g
+	for v := 0; v < g.N(); v++ {
+		nb := s.adj[s.off[v]:s.off[v+1]]
+		slices.SortStableFunc(nb, func(a, b int32) int { return g.Degree(a) - g.Degree(b) })
+	}
+}
+
+func (s *spines) shuffle() {
+	for v := 0; v+1 < len(s.off); v++ {
+		nb := s.adj[s.off[v]:s.off[v+1]]
+		s.rng.Shuffle(len(nb), func(i, j int) { nb[i], nb[j] = nb[j], nb[i] })
+	}
+}
+
+// traverse returns a DFS preorder (stack kind) or BFS order (queue kind)
+// starting at root, then at every unvisited vertex in index order.
+func (s *spines) traverse(root int32) []int32 {
+	n := s.g.N()
+	order := make([]int32, 0, n)
+	if n == 0 {
+		return order
+	}
+	seen := make([]bool, n)
+	if s.kind == cert.Queue {
+		for r := -1; r < n; r++ {
+			v := root
+			if r >= 0 {
+				v = int32(r)
+			}
+			if seen[v] {
+				continue
+			}
+			seen[v] = true
+			head := len(order)
+			order = append(order, v)
+			for ; head < len(order); head++ {
+				u := order[head]
+				for _, w := range s.adj[s.off[u]:s.off[u+1]] {
+					if !seen[w] {
+						seen[w] = true
+						order = append(order, w)
+					}
+				}
+			}
+		}
+		return order
+	}
+	next := make([]int32, n) // next neighbour to look at, as an offset into adj
+	copy(next, s.off[:n])
+	var stack []int32
+	for r := -1; r < n; r++ {
+		v := root
+		if r >= 0 {
+			v = int32(r)
+		}
+		if seen[v] {
+			continue
+		}
+		seen[v] = true
+		order = append(order, v)
+		stack = append(stack[:0], v)
+		for len(stack) > 0 {
+			u := stack[len(stack)-1]
+			end := s.off[u+1]
+			i := next[u]
+			for i < end && seen[s.adj[i]] {
+				i++
+			}
+			next[u] = i
+			if i == end {
+				stack = stack[:len(stack)-1]
+				continue
+			}
+			w := s.adj[i]
+			seen[w] = true
+			order = append(order, w)
+			stack = append(stack, w)
+		}
+	}
+	return order
+}

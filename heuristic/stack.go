@@ -1,0 +1,178 @@
+package heuristic
+
+import (
+	"math"
+
+	"quire/cert"
+)
+
+// stackPages assigns stack pages for a fixed spine order: the better of a
+// first-fit sweep by left end and a first-fit by decreasing length, then
+// moves that try to empty the highest page.
+func stackPages(g *cert.Graph, order []int32) ([]int32, int32) {
+	n := g.N()
+	ls, rs := spans(g, order)
+	page, k := sweepStack(ls, rs, n)
+	if k > 1 {
+		if p2, k2 := lengthStack(ls, rs, n); k2 < k {
+			page, k = p2, k2
+		}
+	}
+	for k > 1 {
+		pt := newPlacement(g, order, ls, rs, page, k)
+		if !pt.emptyTop() {
+			break
+		}
+		k--
+	}
+	return page, k
+}
+
+// sweepStack is the one-pass first fit: edges by left end ascending and
+// right end descending; each page is a stack of the right ends of its open
+// arcs, and an edge fits a page when, after closed arcs are popped, the top
+// arc contains it.
+func sweepStack(ls, rs []int32, n int) ([]int32, int32) {
+	sorted := sortByLeft(ls, rs, n, true)
+	page := make([]int32, len(ls))
+	var stacks [][]int32
+	for _, e := range sorted {
+		l, r := ls[e], rs[e]
+		p := 0
+		for ; p < len(stacks); p++ {
+			st := stacks[p]
+			for len(st) > 0 && st[len(st)-1] <= l {
+				st = st[:len(st)-1]
+			}
+			stacks[p] = st
+			if len(st) == 0 || st[len(st)-1] >= r {
+				break
+			}
+		}
+		if p == len(stacks) {
+			stacks = append(stacks, nil)
+		}
+		stacks[p] = append(stacks[p], r)
+		page[e] = int32(p + 1)
+	}
+	return page, int32(len(stacks))
+}
+
+// lengthStack is first fit with edges taken longest first, each page a
+// segment tree answering whether an edge would cross the page.
+func lengthStack(ls, rs []int32, n int) ([]int32, int32) {
+	m := len(ls)
+	count := make([]int32, n+1)
+	for e := range ls {
+		count[n-1-int(rs[e]-ls[e])+1]++
+	}
+	for i := 0; i < n; i++ {
+		count[i+1] += count[i]
+	}
+	sorted := make([]int32, m)
+	for e := range ls {
+		d := n - 1 - int(rs[e]-ls[e])
+		sorted[count[d]] = int32(e)
+		count[d]++
+	}
+	page := make([]int32, m)
+	var trees []*segTree
+	for _, e := range sorted {
+		l, r := ls[e], rs[e]
+		p := 0
+		for ; p < len(trees); p++ {
+			if !trees[p].crosses(l, r) {
+				break
+			}
+		}
+		if p == len(trees) {
+			trees = append(trees, newSegTree(n))
+		}
+		trees[p].add(l, r)
+		trees[p].add(r, l)
+		page[e] = int32(p + 1)
+	}
+	return page, int32(len(trees))
+}
+
+// segTree holds, for every spine position x, the least and greatest other
+// end of the page's edges at x. An edge (l, r) crosses an edge of the page
+// exactly when some x strictly between l and r has an other end < l or > r.
+type segTree struct {
+	n      int
+	mn, mx []int32
+}
+
+func newSegTree(n int) *segTree {
+	t := &segTree{n: n, mn: make([]int32, 2*n), mx: make([]int32, 2*n)}
+	for i := range t.mn {
+		t.mn[i] = math.MaxInt32
+		t.mx[i] = -1
+	}
+	return t
+}
+
+// add records an edge end at x whose other end is y.
+func (t *segTree) add(x, y int32) {
+	i := int(x) + t.n
+	t.mn[i] = min(t.mn[i], y)
+	t.mx[i] = max(t.mx[i], y)
+	t.fix(i)
+}
+
+// set replaces the leaf of x.
+func (t *segTree) set(x, lo, hi int32) {
+	i := int(x) + t.n
+	t.mn[i], t.mx[i] = lo, hi
+	t.fix(i)
+}
+
+func (t *segTree) fix(i int) {
+	for i >>= 1; i >= 1; i >>= 1 {
+		mn := min(t.mn[2*i], t.mn[2*i+1])
+		mx := max(t.mx[2*i], t.mx[2*i+1])
+		if t.mn[i] == mn && t.mx[i] == mx {
+			return
+		}
+		t.mn[i], t.mx[i] = mn, mx
+	}
+}
+
+func (t *segTree) bad(i int, l, r int32) bool { return t.mn[i] < l || t.mx[i] > r }
+
+// crosses reports whether (l, r) crosses an edge of the page.
+func (t *segTree) crosses(l, r int32) bool { return t.blocker(l, r) >= 0 }
+
+// blocker returns a position strictly between l and r holding an edge end
+// that crosses (l, r), or -1.
+func (t *segTree) blocker(l, r int32) int32 {
+	lo, hi := int(l)+1+t.n, int(r)+t.n
+	for lo < hi {
+		if lo&1 == 1 {
+			if t.bad(lo, l, r) {
+				return t.descend(lo, l, r)
+			}
+			lo++
+		}
+		if hi&1 == 1 {
+			hi--
+			if t.bad(hi, l, r) {
+				return t.descend(hi, l, r)
+			}
+		}
+		lo >>= 1
+		hi >>= 1
+	}
+	return -1
+}
+
+func (t *segTree) descend(i int, l, r int32) int32 {
+	for i < t.n {
+		if t.bad(2*i, l, r) {
+			i = 2 * i
+		} else {
+			i = 2*i + 1
+		}
+	}
+	return int32(i - t.n)
+}

@@ -1,0 +1,85 @@
+package verify
+
+import (
+	"context"
+	"fmt"
+	"os/exec"
+	"strings"
+	"sync"
+	"time"
+)
+
+// knownExternal describes how to run a solver program quire knows by name.
+type knownExternal struct {
+	argv        []string // after the program path
+	proofFormat string
+	versionArg  string
+}
+
+// knownExternals are the external solvers quire runs by name when they are
+// on PATH. Debian's cadical and kissat write binary DRAT to their second
+// argument by default; minisat writes no proof and its answer to a file.
+var knownExternals = map[string]knownExternal{
+	"cadical": {argv: []string{"-q", ArgCNF, ArgProof}, proofFormat: ProofDRATBinary, versionArg: "--version"},
+	"kissat":  {argv: []string{"-q", ArgCNF, ArgProof}, proofFormat: ProofDRATBinary, versionArg: "--version"},
+	"minisat": {argv: []string{"-verb=0", ArgCNF, ArgResult}},
+}
+
+// DefaultSolvers are the backends used when none are named: the two
+// in-process ones, always available.
+var DefaultSolvers = []string{"gophersat", "gini"}
+
+// KnownSolvers returns the backend names ByName accepts.
+func KnownSolvers() []string {
+	return []string{"gophersat", "gini", "cadical", "kissat", "minisat"}
+}
+
+// ByName returns the backend called name. gophersat is started through
+// child. An external solver must be on PATH; otherwise the error wraps
+// ErrNoSolver.
+func ByName(name string, child ChildCommand) (Solver, error) {
+	switch name {
+	case "gophersat":
+		if child.Path == "" {
+			return nil, fmt.Errorf("verify: gophersat needs a child command: %w", ErrNoSolver)
+		}
+		return NewGophersat(child), nil
+	case "gini":
+		return Gini{}, nil
+	}
+	k, ok := knownExternals[name]
+	if !ok {
+		return nil, fmt.Errorf("verify: unknown solver %q (known: %s): %w", name, strings.Join(KnownSolvers(), ", "), ErrNoSolver)
+	}
+	path, err := exec.LookPath(name)
+	if err != nil {
+		return nil, fmt.Errorf("verify: solver %s not found on PATH: %w", name, ErrNoSolver)
+	}
+	ext := &External{
+		Label:       name,
+		Argv:        append([]string{path}, k.argv...),
+		ProofFormat: k.proofFormat,
+	}
+	if k.versionArg != "" {
+		ext.Version = programVersion(path, k.versionArg)
+	}
+	return ext, nil
+}
+
+var versionCache sync.Map // path → version string
+
+// programVersion runs "path arg" once and returns the first line it prints.
+func programVersion(path, arg string) string {
+	if v, ok := versionCache.Load(path); ok {
+		return v.(string)
+	}
+	ctx, cancel := context.WithTimeout(context.Background(), 5*time.Second)
+	defer cancel()
+	out, err := exec.CommandContext(ctx, path, arg).Output()
+	v := ""
+	if err == nil {
+		v, _, _ = strings.Cut(strings.TrimSpace(string(out)), "\n")
+	}
+	versionCache.Store(path, v)
+	return v
+}

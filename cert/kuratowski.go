@@ -1,0 +1,403 @@
+package cert
+
+import (
+	"errors"
+	"fmt"
+)
+
+// ErrPlanar is returned (wrapped) by FindKuratowski when the graph is planar.
+var ErrPlanar = errors.New("graph is planar")
+
+// FindKuratowski returns a subdivision of K5 or K3,3 in g, found by edge
+// deletion guided by the planarity test:
+//
+// The work graph consists of "required" edges, which every non-planar
+// subgraph of the work graph contains, and candidate edges in a fixed order.
+// Each round finds, by doubling and binary search over prefixes, the shortest
+// prefix of the candidates that together with the required edges is not
+// planar; its last edge becomes required and the rest of the candidates are
+// dropped. Between rounds the work graph is reduced without changing its
+// planarity: vertices of degree one are pruned, vertices of degree two are
+// suppressed (their two edges merge into one edge standing for a path), and
+// parallel edges are merged. When the required edges alone are not planar
+// they form an edge-minimal non-planar subgraph, which by Kuratowski's
+// theorem is a subdivision of K5 or K3,3. The candidates start in breadth-first
+// order, so the first prefix found is a small region of the graph when the
+// obstruction is local.
+func FindKuratowski(g *Graph) (*Kuratowski, error) {
+	if IsPlanar(g) {
+		return nil, fmt.Errorf("cert: no Kuratowski subgraph: %w", ErrPlanar)
+	}
+	ks := newKurSearch(g)
+	ks.run()
+	return ks.readOff()
+}
+
+// kurSearch holds the work graph. Super-edges 0..m-1 are the edges of g;
+// later ones stand for the concatenation of two earlier ones (kids).
+type kurSearch struct {
+	g        *Graph
+	ea, eb   []int32    // ends of each super-edge (vertices of g)
+	kids     [][2]int32 // for super-edge m+i: the two it merges
+	into     []int32    // what a dead super-edge became: another id, or -1 if deleted
+	alive    []bool
+	req      []bool
+	required []int32
+	work     []int32
+
+	vmap, vstamp []int32 // vertex renumbering for tests
+	epoch        int32
+	tests        int
+}
+
+func newKurSearch(g *Graph) *kurSearch {
+	m := g.M()
+	ks := &kurSearch{g: g, ea: make([]int32, m), eb: make([]int32, m), into: make([]int32, m),
+		alive: make([]bool, m), req: make([]bool, m),
+		vmap: make([]int32, g.N()), vstamp: make([]int32, g.N())}
+	for i, e := range g.Edges() {
+		ks.ea[i], ks.eb[i] = e.U, e.V
+		ks.alive[i] = true
+		ks.into[i] = -1
+	}
+	ks.work = bfsEdgeOrder(g)
+	return ks
+}
+
+// bfsEdgeOrder lists the edges of g by the later breadth-first rank of their ends.
+func bfsEdgeOrder(g *Graph) []int32 {
+	n := g.N()
+	rank := make([]int32, n)
+	for i := range rank {
+		rank[i] = -1
+	}
+	next := int32(0)
+	queue := make([]int32, 0, n)
+	for s := int32(0); int(s) < n; s++ {
+		if rank[s] >= 0 {
+			continue
+		}
+		rank[s] = next
+		next++
+		queue = append(queue[:0], s)
+		for h := 0; h < len(queue); h++ {
+			for _, w := range g.Neighbors(queue[h]) {
+				if rank[w] < 0 {
+					rank[w] = next
+					next++
+					queue = append(queue, w)
+				}
+			}
+		}
+	}
+	edges := g.Edges()
+	count := make([]int32, n+1)
+	for _, e := range edges {
+		count[max(rank[e.U], rank[e.V])+1]++
+	}
+	for i := 1; i <= n; i++ {
+		count[i] += count[i-1]
+	}
+	order := make([]int32, len(edges))
+	for i, e := range edges {
+		k := max(rank[e.U], rank[e.V])
+		order[count[k]] = int32(i)
+		count[k]++
+	}
+	return order
+}
+
+// planarWith tests the required edges together with the first k candidates.
+func (ks *kurSearch) planarWith(k int) bool {
+	ks.tests++
+	ks.epoch++
+	if ks.epoch == 0 {
+		clear(ks.vstamp)
+		ks.epoch = 1
+	}
+	total := len(ks.required) + k
+	lg := &lrGraph{eu: make([]int32, 0, total), ev: make([]int32, 0, total)}
+	id := func(v int32) int32 {
+		if ks.vstamp[v] != ks.epoch {
+			ks.vstamp[v] = ks.epoch
+			ks.vmap[v] = int32(lg.n)
+			lg.n++
+		}
+		return ks.vmap[v]
+	}
+	add := func(s int32) {
+		lg.eu = append(lg.eu, id(ks.ea[s]))
+		lg.ev = append(lg.ev, id(ks.eb[s]))
+	}
+	for _, s := range ks.required {
+		add(s)
+	}
+	for _, s := range ks.work[:k] {
+		add(s)
+	}
+	return lrTest(lg, false).planar
+}
+
+func (ks *kurSearch) run() {
+	for {
+		if !ks.planarWith(0) {
+			return
+		}
+		// Smallest k with required + work[:k] not planar; work[:len] is not.
+		hi := 1
+		for hi < len(ks.work) && ks.planarWith(hi) {
+			hi *= 2
+		}
+		hi = min(hi, len(ks.work))
+		lo := hi / 2 // required + work[:lo] is planar
+		for hi-lo > 1 {
+			mid := (lo + hi) / 2
+			if ks.planarWith(mid) {
+				lo = mid
+			} else {
+				hi = mid
+			}
+		}
+		s := ks.work[hi-1]
+		ks.req[s] = true
+		ks.required = append(ks.required, s)
+		ks.work = ks.work[:hi-1]
+		ks.reduce()
+	}
+}
+
+func (ks *kurSearch) newSuper(a, b, x, y int32) int32 {
+	s := int32(len(ks.ea))
+	ks.ea = append(ks.ea, a)
+	ks.eb = append(ks.eb, b)
+	ks.kids = append(ks.kids, [2]int32{x, y})
+	ks.into = append(ks.into, -1)
+	ks.alive = append(ks.alive, true)
+	ks.req = append(ks.req, ks.req[x] || ks.req[y])
+	ks.into[x], ks.into[y] = s, s
+	ks.alive[x], ks.alive[y] = false, false
+	return s
+}
+
+// reduce prunes, suppresses and merges in the work graph, then rewrites the
+// required and candidate lists in terms of the surviving super-edges.
+func (ks *kurSearch) reduce() {
+	cur := append(append([]int32(nil), ks.required...), ks.work...)
+	deg := make(map[int32]int32)
+	inc := make(map[int32][]int32)
+	pair := make(map[uint64]int32, len(cur))
+	key := func(a, b int32) uint64 {
+		if a > b {
+			a, b = b, a
+		}
+		return uint64(a)<<32 | uint64(uint32(b))
+	}
+	kill := func(s int32) {
+		ks.alive[s] = false
+		ks.into[s] = -1
+		deg[ks.ea[s]]--
+		deg[ks.eb[s]]--
+		if pair[key(ks.ea[s], ks.eb[s])] == s {
+			delete(pair, key(ks.ea[s], ks.eb[s]))
+		}
+	}
+	var queue []int32
+	// attach registers s at its ends, merging it with a parallel edge.
+	attach := func(s int32) {
+		a, b := ks.ea[s], ks.eb[s]
+		if a == b {
+			ks.alive[s] = false
+			ks.into[s] = -1
+			queue = append(queue, a)
+			return
+		}
+		k := key(a, b)
+		if t, ok := pair[k]; ok && ks.alive[t] {
+			if ks.req[s] && !ks.req[t] {
+				kill(t)
+				queue = append(queue, a, b)
+			} else {
+				ks.alive[s] = false
+				ks.into[s] = -1
+				queue = append(queue, a, b)
+				return
+			}
+		}
+		pair[k] = s
+		deg[a]++
+		deg[b]++
+		inc[a] = append(inc[a], s)
+		inc[b] = append(inc[b], s)
+	}
+	for _, s := range cur {
+		attach(s)
+	}
+	for _, s := range cur {
+		queue = append(queue, ks.ea[s], ks.eb[s])
+	}
+	aliveAt := func(v int32, buf []int32) []int32 {
+		buf = buf[:0]
+		for _, s := range inc[v] {
+			if ks.alive[s] {
+				buf = append(buf, s)
+			}
+		}
+		return buf
+	}
+	var buf []int32
+	for len(queue) > 0 {
+		v := queue[len(queue)-1]
+		queue = queue[:len(queue)-1]
+		switch deg[v] {
+		case 1:
+			buf = aliveAt(v, buf)
+			s := buf[0]
+			kill(s)
+			queue = append(queue, ks.ea[s]^ks.eb[s]^v)
+		case 2:
+			buf = aliveAt(v, buf)
+			x, y := buf[0], buf[1]
+			a := ks.ea[x] ^ ks.eb[x] ^ v
+			b := ks.ea[y] ^ ks.eb[y] ^ v
+			for _, t := range [2]int32{x, y} {
+				if pair[key(ks.ea[t], ks.eb[t])] == t {
+					delete(pair, key(ks.ea[t], ks.eb[t]))
+				}
+			}
+			deg[v] = 0
+			deg[a]--
+			deg[b]--
+			s := ks.newSuper(a, b, x, y)
+			attach(s)
+			queue = append(queue, a, b)
+		}
+	}
+	rep := func(s int32) int32 {
+		for s >= 0 && !ks.alive[s] {
+			s = ks.into[s]
+		}
+		return s
+	}
+	placed := make(map[int32]bool)
+	var req, work []int32
+	for _, s := range cur {
+		r := rep(s)
+		if r < 0 || placed[r] {
+			continue
+		}
+		placed[r] = true
+		if ks.req[r] {
+			req = append(req, r)
+		} else {
+			work = append(work, r)
+		}
+	}
+	ks.required, ks.work = req, work
+}
+
+// readOff expands the required super-edges and reads off the subdivision.
+func (ks *kurSearch) readOff() (*Kuratowski, error) {
+	m := int32(ks.g.M())
+	adj := make(map[int32][]int32)
+	var stack []int32
+	for _, s := range ks.required {
+		stack = append(stack[:0], s)
+		for len(stack) > 0 {
+			x := stack[len(stack)-1]
+			stack = stack[:len(stack)-1]
+			if x >= m {
+				k := ks.kids[x-m]
+				stack = append(stack, k[0], k[1])
+				continue
+			}
+			a, b := ks.ea[x], ks.eb[x]
+			adj[a] = append(adj[a], b)
+			adj[b] = append(adj[b], a)
+		}
+	}
+	var branch []int32
+	for v, nb := range adj {
+		if len(nb) >= 3 {
+			branch = append(branch, v)
+		}
+	}
+	sortInt32(branch)
+	isBranch := make(map[int32]int, len(branch))
+	for i, b := range branch {
+		isBranch[b] = i
+	}
+	var k Kuratowski
+	switch {
+	case len(branch) == 5 && allDegree(adj, branch, 4):
+		k.Kind = K5
+	case len(branch) == 6 && allDegree(adj, branch, 3):
+		k.Kind = K33
+	default:
+		return nil, fmt.Errorf("cert: internal error: minimal non-planar subgraph has %d branch vertices", len(branch))
+	}
+	link := make([][]int, len(branch))
+	for i, b := range branch {
+		for _, w := range adj[b] {
+			path := []int32{b}
+			prev, cur := b, w
+			for {
+				path = append(path, cur)
+				if _, ok := isBranch[cur]; ok {
+					break
+				}
+				nb := adj[cur]
+				if len(nb) != 2 {
+					return nil, fmt.Errorf("cert: internal error: path vertex of degree %d", len(nb))
+				}
+				nx := nb[0]
+				if nx == prev {
+					nx = nb[1]
+				}
+				prev, cur = cur, nx
+			}
+			j := isBranch[cur]
+			link[i] = append(link[i], j)
+			if i < j {
+				k.Paths = append(k.Paths, path)
+			}
+		}
+	}
+	k.Branch = branch
+	if k.Kind == K33 {
+		side := make([]int, len(branch))
+		for i := range side {
+			side[i] = -1
+		}
+		side[0] = 0
+		for _, j := range link[0] {
+			side[j] = 1
+		}
+		var a, b []int32
+		for i, s := range side {
+			if s == 1 {
+				b = append(b, branch[i])
+			} else {
+				a = append(a, branch[i])
+			}
+		}
+		k.Branch = append(a, b...)
+	}
+	return &k, nil
+}
+
+func allDegree(adj map[int32][]int32, vs []int32, d int) bool {
+	for _, v := range vs {
+		if len(adj[v]) != d {
+			return false
+		}
+	}
+	return true
+}
+
+func sortInt32(a []int32) {
+	for i := 1; i < len(a); i++ {
+		for j := i; j > 0 && a[j] < a[j-1]; j-- {
+			a[j], a[j-1] = a[j-1], a[j]
+		}
+	}
+}

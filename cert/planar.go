@@ -1,0 +1,137 @@
+package cert
+
+import (
+	"errors"
+	"fmt"
+)
+
+// ErrNotPlanar is returned (wrapped) where a planar graph is required.
+var ErrNotPlanar = errors.New("graph is not planar")
+
+// Embedding is a combinatorial embedding (rotation system) of a graph:
+// Rotation[v] lists the neighbours of v in cyclic order around v. A rotation
+// system is planar when tracing its faces gives V − E + F = 2C.
+type Embedding struct {
+	Rotation [][]int32
+}
+
+// KuratowskiKind tells which Kuratowski graph a subdivision is of.
+type KuratowskiKind uint8
+
+const (
+	// K5 is the complete graph on five vertices.
+	K5 KuratowskiKind = iota + 1
+	// K33 is the complete bipartite graph K3,3.
+	K33
+)
+
+// String returns "K5" or "K3,3".
+func (k KuratowskiKind) String() string {
+	switch k {
+	case K5:
+		return "K5"
+	case K33:
+		return "K3,3"
+	}
+	return fmt.Sprintf("kuratowski(%d)", uint8(k))
+}
+
+// Kuratowski is a subdivision of K5 or K3,3 inside a graph: the branch
+// vertices and one path of the graph for every edge of K5 or K3,3. For K3,3
+// the first three branch vertices form one side and the last three the other.
+// Each path lists its vertices from one branch vertex to another.
+type Kuratowski struct {
+	Kind   KuratowskiKind
+	Branch []int32
+	Paths  [][]int32
+}
+
+// PlanarCert is evidence about the planarity of one graph: an embedding when
+// Planar, a Kuratowski subgraph when not.
+type PlanarCert struct {
+	Planar     bool
+	Embedding  *Embedding
+	Kuratowski *Kuratowski
+}
+
+// PlanarityResult is the outcome of Planarity: the verdict and its certificate.
+type PlanarityResult struct {
+	Planar bool
+	Cert   *PlanarCert
+}
+
+// lrOf returns the compact form of g that the planarity test runs on.
+func lrOf(g *Graph) *lrGraph {
+	edges := g.Edges()
+	eu := make([]int32, len(edges))
+	ev := make([]int32, len(edges))
+	for i, e := range edges {
+		eu[i], ev[i] = e.U, e.V
+	}
+	return &lrGraph{n: g.N(), eu: eu, ev: ev}
+}
+
+// IsPlanar reports whether g is planar, in O(n + m) time.
+func IsPlanar(g *Graph) bool { return lrTest(lrOf(g), false).planar }
+
+// PlanarEmbedding returns a planar embedding of g, or false when g is not planar.
+func PlanarEmbedding(g *Graph) (*Embedding, bool) {
+	lg := lrOf(g)
+	r := lrTest(lg, true)
+	if !r.planar {
+		return nil, false
+	}
+	return embeddingFromLR(g.N(), lg, r), true
+}
+
+func embeddingFromLR(n int, lg *lrGraph, r lrResult) *Embedding {
+	rot := make([][]int32, n)
+	deg := make([]int32, n)
+	for e := range lg.eu {
+		deg[lg.eu[e]]++
+		deg[lg.ev[e]]++
+	}
+	flat := make([]int32, 2*len(lg.eu))
+	pos := 0
+	for v := 0; v < n; v++ {
+		list := flat[pos : pos : pos+int(deg[v])]
+		pos += int(deg[v])
+		if h := r.first[v]; h != lrNone {
+			for x := h; ; {
+				e := x / 2
+				list = append(list, lg.eu[e]^lg.ev[e]^int32(v))
+				x = r.next[x]
+				if x == h {
+					break
+				}
+			}
+		}
+		rot[v] = list
+	}
+	return &Embedding{Rotation: rot}
+}
+
+// IsMaximalPlanar reports whether g is maximal planar: planar with no edge
+// that can be added keeping it planar. For n >= 3 that is m = 3n − 6 and
+// planar; the graphs on one or two vertices are maximal planar when complete.
+func IsMaximalPlanar(g *Graph) bool {
+	n, m := g.N(), g.M()
+	if n < 3 {
+		return m == n*(n-1)/2
+	}
+	return m == 3*n-6 && IsPlanar(g)
+}
+
+// Planarity decides whether g is planar and returns the certificate: a planar
+// embedding, or a subdivision of K5 or K3,3. The certificate is not checked
+// here; CheckPlanarCert does that independently of this code.
+func Planarity(g *Graph) (*PlanarityResult, error) {
+	if emb, ok := PlanarEmbedding(g); ok {
+		return &PlanarityResult{Planar: true, Cert: &PlanarCert{Planar: true, Embedding: emb}}, nil
+	}
+	k, err := FindKuratowski(g)
+	if err != nil {
+		return nil, err
+	}
+	return &PlanarityResult{Planar: false, Cert: &PlanarCert{Kuratowski: k}}, nil
+}

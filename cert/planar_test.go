@@ -1,0 +1,254 @@
+package cert
+
+import (
+	"bufio"
+	"bytes"
+	"fmt"
+	"math/rand/v2"
+	"os"
+	"os/exec"
+	"strings"
+	"testing"
+
+	"quire/internal/testtools"
+)
+
+// decodeGraph6 decodes one graph6 line (B. McKay, formats.txt: N(n) in one
+// byte 63+n for n <= 62, then the upper triangle column by column, six bits
+// per byte plus 63). It is a test-only decoder for nauty's output.
+func decodeGraph6(t testing.TB, line string) *Graph {
+	t.Helper()
+	b := []byte(strings.TrimSpace(line))
+	if len(b) == 0 || b[0] < 63 || b[0] > 125 {
+		t.Fatalf("graph6 line %q: unsupported size byte", line)
+	}
+	n := int(b[0] - 63)
+	var edges [][2]int
+	bit := 0
+	for j := 1; j < n; j++ {
+		for i := 0; i < j; i++ {
+			byteAt := 1 + bit/6
+			if byteAt >= len(b) {
+				t.Fatalf("graph6 line %q: too short", line)
+			}
+			if (b[byteAt]-63)&(1<<(5-bit%6)) != 0 {
+				edges = append(edges, [2]int{i, j})
+			}
+			bit++
+		}
+	}
+	g, err := NewNumbered(n, 0, edges)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return g
+}
+
+// encodeGraph6 is the inverse of decodeGraph6 for n <= 62.
+func encodeGraph6(g *Graph) string {
+	n := g.N()
+	var out []byte
+	out = append(out, byte(63+n))
+	var cur byte
+	bit := 0
+	for j := 1; j < n; j++ {
+		for i := 0; i < j; i++ {
+			cur <<= 1
+			if g.HasEdge(int32(i), int32(j)) {
+				cur |= 1
+			}
+			bit++
+			if bit == 6 {
+				out = append(out, cur+63)
+				cur, bit = 0, 0
+			}
+		}
+	}
+	if bit > 0 {
+		out = append(out, (cur<<(6-bit))+63)
+	}
+	return string(out)
+}
+
+func runTool(t testing.TB, stdin []byte, name string, args ...string) []byte {
+	t.Helper()
+	cmd := exec.Command(name, args...)
+	cmd.Stdin = bytes.NewReader(stdin)
+	var stderr bytes.Buffer
+	cmd.Stderr = &stderr
+	out, err := cmd.Output()
+	if err != nil {
+		t.Fatalf("%s %v: %v: %s", name, args, err, stderr.String())
+	}
+	return out
+}
+
+func lines(b []byte) []string {
+	var out []string
+	sc := bufio.NewScanner(bytes.NewReader(b))
+	sc.Buffer(make([]byte, 1<<20), 1<<26)
+	for sc.Scan() {
+		if l := strings.TrimSpace(sc.Text()); l != "" && !strings.HasPrefix(l, ">") {
+			out = append(out, l)
+		}
+	}
+	return out
+}
+
+// checkAgainstPlanarg decides every graph6 line with Planarity, checks each
+// certificate, compares with nauty-planarg and returns the planar count.
+func checkAgainstPlanarg(t *testing.T, input []byte) int {
+	t.Helper()
+	planarg := testtools.Require(t, "nauty-planarg", "nauty")
+	ref := make(map[string]bool)
+	for _, l := range lines(runTool(t, input, planarg, "-q")) {
+		ref[l] = true
+	}
+	count := 0
+	for _, l := range lines(input) {
+		g := decodeGraph6(t, l)
+		res, err := Planarity(g)
+		if err != nil {
+			t.Fatalf("%s: %v", l, err)
+		}
+		if res.Planar != ref[l] {
+			t.Fatalf("%s: planar=%v, nauty-planarg says %v", l, res.Planar, ref[l])
+		}
+		if err := CheckPlanarCert(g, res.Cert); err != nil {
+			t.Fatalf("%s: certificate rejected: %v", l, err)
+		}
+		if res.Planar {
+			count++
+		}
+	}
+	return count
+}
+
+// TestPlanarCountsOEIS counts the planar graphs among all graphs on n
+// vertices up to isomorphism, as listed by nauty-geng. Expected values:
+// OEIS A005470 (number of planar graphs with n nodes) and, with -c, OEIS
+// A003094 (connected planar graphs with n nodes), read in OEIS.
+// Setting QUIRE_PLANAR_N9=1 adds n = 9 (79853 and 71885).
+func TestPlanarCountsOEIS(t *testing.T) {
+	geng := testtools.Require(t, "nauty-geng", "nauty")
+	all := []int{1, 2, 4, 11, 33, 142, 822, 6966, 79853}
+	connected := []int{1, 1, 2, 6, 20, 99, 646, 5974, 71885}
+	maxN := 8
+	if os.Getenv("QUIRE_PLANAR_N9") == "1" {
+		maxN = 9
+	}
+	if testing.Short() {
+		maxN = 7
+	}
+	for n := 1; n <= maxN; n++ {
+		for _, conn := range []bool{false, true} {
+			name := fmt.Sprintf("n=%d", n)
+			args := []string{"-q", fmt.Sprint(n)}
+			want := all[n-1]
+			if conn {
+				name += "/connected"
+				args = []string{"-q", "-c", fmt.Sprint(n)}
+				want = connected[n-1]
+			}
+			t.Run(name, func(t *testing.T) {
+				out := runTool(t, nil, geng, args...)
+				if got := checkAgainstPlanarg(t, out); got != want {
+					t.Errorf("%d planar graphs, OEIS says %d", got, want)
+				}
+			})
+		}
+	}
+}
+
+// TestPlanarRandomAgainstPlanarg compares verdicts with nauty-planarg on
+// random graphs of 10 to 1000 vertices around the planarity threshold.
+func TestPlanarRandomAgainstPlanarg(t *testing.T) {
+	testtools.Require(t, "nauty-planarg", "nauty")
+	rng := rand.New(rand.NewPCG(6, 1))
+	var buf bytes.Buffer
+	var gs []*Graph
+	for i := 0; i < 300; i++ {
+		n := 10 + rng.IntN(991)
+		var g *Graph
+		switch i % 3 {
+		case 0:
+			g = randomGraph(rng, n, n+rng.IntN(2*n))
+		case 1:
+			g = randomPlanarPlus(rng, n, rng.IntN(3))
+		default:
+			g = randomTriangulation(rng, n)
+		}
+		gs = append(gs, g)
+		buf.WriteString(graph6Big(g))
+		buf.WriteByte('\n')
+	}
+	planarg := testtools.Require(t, "nauty-planarg", "nauty")
+	ref := make(map[string]bool)
+	for _, l := range lines(runTool(t, buf.Bytes(), planarg, "-q")) {
+		ref[l] = true
+	}
+	var planar, nonPlanar int
+	for i, g := range gs {
+		res, err := Planarity(g)
+		if err != nil {
+			t.Fatalf("graph %d (%v): %v", i, g, err)
+		}
+		if want := ref[graph6Big(g)]; res.Planar != want {
+			t.Fatalf("graph %d (%v): planar=%v, nauty-planarg says %v", i, g, res.Planar, want)
+		}
+		if err := CheckPlanarCert(g, res.Cert); err != nil {
+			t.Fatalf("graph %d (%v): %v", i, g, err)
+		}
+		if res.Planar {
+			planar++
+		} else {
+			nonPlanar++
+		}
+	}
+	if planar < 50 || nonPlanar < 50 {
+		t.Fatalf("unbalanced sample: %d planar, %d not planar", planar, nonPlanar)
+	}
+}
+
+// graph6Big encodes g in graph6 for any n (formats.txt: N(n) is 126 and three
+// six-bit bytes for 63 <= n <= 258047).
+func graph6Big(g *Graph) string {
+	n := g.N()
+	var out []byte
+	if n <= 62 {
+		out = append(out, byte(63+n))
+	} else {
+		out = append(out, 126, byte(63+(n>>12)&63), byte(63+(n>>6)&63), byte(63+n&63))
+	}
+	bits := make([]byte, n*(n-1)/2)
+	for _, e := range g.Edges() {
+		i, j := int(e.U), int(e.V)
+		bits[j*(j-1)/2+i] = 1
+	}
+	for k := 0; k < len(bits); k += 6 {
+		var c byte
+		for b := 0; b < 6; b++ {
+			c <<= 1
+			if k+b < len(bits) {
+				c |= bits[k+b]
+			}
+		}
+		out = append(out, c+63)
+	}
+	return string(out)
+}
+
+func TestGraph6Helpers(t *testing.T) {
+	// formats.txt example: 'DQc' is n=5 with edges 0-2, 0-4, 1-3, 3-4 (McKay, formats.txt).
+	g := decodeGraph6(t, "DQc")
+	want := []Edge{{0, 2}, {0, 4}, {1, 3}, {3, 4}}
+	if fmt.Sprint(g.Edges()) != fmt.Sprint(want) {
+		t.Fatalf("DQc decodes to %v, want %v", g.Edges(), want)
+	}
+	if s := encodeGraph6(g); s != "DQc" {
+		t.Fatalf("DQc re-encodes as %q", s)
+	}
+	if s := graph6Big(g); s != "DQc" {
+		t.Fatalf("DQc re-encodes as %q", s)
+	}
+}

@@ -57,6 +57,10 @@ func Queue(g *cert.Graph, opts Options) *cert.Layout {
 // search tries spine candidates and keeps the layout with the fewest pages.
 func search(g *cert.Graph, kind cert.Kind, opts Options) *cert.Layout {
 	start := time.Now()
+	var deadline time.Time
+	if opts.TimeLimit > 0 {
+		deadline = start.Add(opts.TimeLimit)
+	}
 	sp := newSpines(g, kind, opts.Seed)
 	var best []int32
 	var bestOrder []int32
@@ -67,18 +71,18 @@ func search(g *cert.Graph, kind cert.Kind, opts Options) *cert.Layout {
 	}
 	n := opts.candidates()
 	for i := 0; i < n; i++ {
-		if i > 0 && opts.TimeLimit > 0 && time.Since(start) > opts.TimeLimit {
+		if i > 0 && past(deadline) {
 			break
 		}
 		order := sp.candidate(i)
 		var page []int32
 		var k int32
 		if kind == cert.Stack {
-			page, k = stackPages(g, order)
+			page, k = stackPages(g, order, deadline, sp.rng, bestK)
 		} else {
 			page, k = queuePages(g, order)
 		}
-		if bestK < 0 || k < bestK {
+		if page != nil && (bestK < 0 || k < bestK) {
 			best, bestOrder, bestK = page, order, k
 		}
 		if bestK <= lower {

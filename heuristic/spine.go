@@ -29,41 +29,49 @@ func newSpines(g *cert.Graph, kind cert.Kind, seed int64) *spines {
 	return &spines{g: g, kind: kind, rng: rand.New(rand.NewPCG(uint64(seed), 0x9e3779b97f4a7c15)), off: off, adj: adj}
 }
 
-// candidate returns the i-th spine order. Candidate 0 is a DFS (stack) or
-// BFS (queue) in input order from vertex 0, candidate 1 the input order, 2
-// a traversal with neighbours taken by ascending degree from a vertex of
-// least degree (stack) or from a far vertex (queue), and the rest traversals
-// with shuffled neighbours from random roots.
+// candidate returns the i-th spine order. For stack layouts candidate 0 is
+// a DFS that always steps to the unvisited neighbour with the fewest
+// unvisited neighbours (Warnsdorff's rule, which tends to find long paths)
+// from a vertex of least degree, 1 a DFS in input order from vertex 0, 2 the
+// input order, and the rest Warnsdorff DFS from random roots with shuffled
+// ties. For queue layouts 0 is a BFS in input order from vertex 0, 1 the
+// input order, 2 a BFS with neighbours by ascending degree from a far
+// vertex, and the rest BFS with shuffled neighbours from random roots.
 func (s *spines) candidate(i int) []int32 {
 	n := s.g.N()
-	switch i {
-	case 0:
-		return s.traverse(0)
-	case 1:
+	if n == 0 {
+		return nil
+	}
+	switch {
+	case i == 1 && s.kind == cert.Stack:
+		return s.traverse(0, false)
+	case i == 2 && s.kind == cert.Stack || i == 1:
 		order := make([]int32, n)
 		for v := range order {
 			order[v] = int32(v)
 		}
 		return order
-	case 2:
+	case i == 0 && s.kind == cert.Stack:
+		return s.traverse(s.minDegree(), true)
+	case i == 0:
+		return s.traverse(0, false)
+	case i == 2:
 		s.sortByDegree()
-		if s.kind == cert.Queue {
-			far := s.traverse(0)
-			return s.traverse(far[len(far)-1])
-		}
-		root := int32(0)
-		for v := 1; v < n; v++ {
-			if s.g.Degree(int32(v)) < s.g.Degree(root) {
-				root = int32(v)
-			}
-		}
-		return s.traverse(root)
+		far := s.traverse(0, false)
+		return s.traverse(far[len(far)-1], false)
 	}
 	s.shuffle()
-	if n == 0 {
-		return nil
+	return s.traverse(int32(s.rng.IntN(n)), s.kind == cert.Stack)
+}
+
+func (s *spines) minDegree() int32 {
+	root := int32(0)
+	for v := 1; v < s.g.N(); v++ {
+		if s.g.Degree(int32(v)) < s.g.Degree(root) {
+			root = int32(v)
+		}
 	}
-	return s.traverse(int32(s.rng.IntN(n)))
+	return root
 }
 
 func (s *spines) sortByDegree() {
@@ -81,14 +89,18 @@ func (s *spines) shuffle() {
 	}
 }
 
+// warnsdorffMax is the largest degree at which the DFS looks at every
+// neighbour for Warnsdorff's rule; higher-degree vertices take the next
+// unvisited neighbour in adjacency order, which keeps the DFS near-linear.
+const warnsdorffMax = 64
+
 // traverse returns a DFS preorder (stack kind) or BFS order (queue kind)
-// starting at root, then at every unvisited vertex in index order.
-func (s *spines) traverse(root int32) []int32 {
+// starting at root, then at every unvisited vertex in index order. With
+// warnsdorff the DFS steps to the unvisited neighbour with the fewest
+// unvisited neighbours (first in adjacency order on ties).
+func (s *spines) traverse(root int32, warnsdorff bool) []int32 {
 	n := s.g.N()
 	order := make([]int32, 0, n)
-	if n == 0 {
-		return order
-	}
 	seen := make([]bool, n)
 	if s.kind == cert.Queue {
 		for r := -1; r < n; r++ {
@@ -116,6 +128,22 @@ func (s *spines) traverse(root int32) []int32 {
 	}
 	next := make([]int32, n) // next neighbour to look at, as an offset into adj
 	copy(next, s.off[:n])
+	var free []int32 // unvisited neighbours of each vertex
+	if warnsdorff {
+		free = make([]int32, n)
+		for v := range free {
+			free[v] = s.off[v+1] - s.off[v]
+		}
+	}
+	visit := func(w int32) {
+		seen[w] = true
+		order = append(order, w)
+		if warnsdorff {
+			for _, x := range s.adj[s.off[w]:s.off[w+1]] {
+				free[x]--
+			}
+		}
+	}
 	var stack []int32
 	for r := -1; r < n; r++ {
 		v := root
@@ -125,8 +153,7 @@ func (s *spines) traverse(root int32) []int32 {
 		if seen[v] {
 			continue
 		}
-		seen[v] = true
-		order = append(order, v)
+		visit(v)
 		stack = append(stack[:0], v)
 		for len(stack) > 0 {
 			u := stack[len(stack)-1]
@@ -141,8 +168,14 @@ func (s *spines) traverse(root int32) []int32 {
 				continue
 			}
 			w := s.adj[i]
-			seen[w] = true
-			order = append(order, w)
+			if warnsdorff && end-s.off[u] <= warnsdorffMax {
+				for _, x := range s.adj[i+1 : end] {
+					if !seen[x] && free[x] < free[w] {
+						w = x
+					}
+				}
+			}
+			visit(w)
 			stack = append(stack, w)
 		}
 	}

@@ -2,30 +2,97 @@ package heuristic
 
 import (
 	"math"
+	"math/rand/v2"
+	"time"
 
 	"quire/cert"
 )
 
 // stackPages assigns stack pages for a fixed spine order: the better of a
-// first-fit sweep by left end and a first-fit by decreasing length, then
-// moves that try to empty the highest page.
-func stackPages(g *cert.Graph, order []int32) ([]int32, int32) {
+// first-fit sweep by left end and a first fit by decreasing length, then
+// rounds of iterated first fit and moves that try to empty the highest
+// page, until a round gains nothing or the deadline passes.
+//
+// A candidate whose sweep needs more than twice the pages of the best so far
+// (bestK > 0) is dropped: the result then has nil pages.
+func stackPages(g *cert.Graph, order []int32, deadline time.Time, rng *rand.Rand, bestK int32) ([]int32, int32) {
 	n := g.N()
 	ls, rs := spans(g, order)
 	page, k := sweepStack(ls, rs, n)
-	if k > 1 {
-		if p2, k2 := lengthStack(ls, rs, n); k2 < k {
-			page, k = p2, k2
-		}
+	if k <= 1 {
+		return page, k
 	}
-	for k > 1 {
-		pt := newPlacement(g, order, ls, rs, page, k)
-		if !pt.emptyTop() {
-			break
+	if bestK > 0 && k > 2*bestK {
+		return nil, k
+	}
+	if p2, k2 := firstFit(ls, rs, n, byLength(ls, rs, n), k-1); k2 < k {
+		page, k = p2, k2
+	}
+	for stale := 0; stale < 3 && k > 1 && !past(deadline); {
+		p2, k2 := firstFit(ls, rs, n, byClass(page, k, ls, rs, n, rng), k)
+		if k2 < k {
+			page, k, stale = p2, k2, 0
+			continue
 		}
-		k--
+		page = p2
+		pt := newPlacement(g, order, ls, rs, page, k)
+		if pt.emptyTop() {
+			k--
+			stale = 0
+			continue
+		}
+		stale++
 	}
 	return page, k
+}
+
+func past(deadline time.Time) bool { return !deadline.IsZero() && time.Now().After(deadline) }
+
+// byClass orders the edges page by page, the pages in random order, so that
+// first fit over this order uses no more pages than the given assignment
+// (each page is a set of pairwise non-crossing edges; J. Culberson and F.
+// Luo, "Exploring the k-colorable landscape with iterated greedy", DIMACS
+// Series 26, 1996). Within a page, edges keep their order by decreasing
+// length.
+func byClass(page []int32, k int32, ls, rs []int32, n int, rng *rand.Rand) []int32 {
+	perm := rng.Perm(int(k))
+	rank := make([]int32, k+1)
+	for i, p := range perm {
+		rank[p+1] = int32(i)
+	}
+	count := make([]int32, k+1)
+	length := byLength(ls, rs, n)
+	for _, p := range page {
+		count[rank[p]+1]++
+	}
+	for i := int32(0); i < k; i++ {
+		count[i+1] += count[i]
+	}
+	out := make([]int32, len(page))
+	for _, e := range length {
+		r := rank[page[e]]
+		out[count[r]] = e
+		count[r]++
+	}
+	return out
+}
+
+// byLength returns the edges by decreasing spine length (a counting sort).
+func byLength(ls, rs []int32, n int) []int32 {
+	count := make([]int32, n+1)
+	for e := range ls {
+		count[n-1-int(rs[e]-ls[e])+1]++
+	}
+	for i := 0; i < n; i++ {
+		count[i+1] += count[i]
+	}
+	sorted := make([]int32, len(ls))
+	for e := range ls {
+		d := n - 1 - int(rs[e]-ls[e])
+		sorted[count[d]] = int32(e)
+		count[d]++
+	}
+	return sorted
 }
 
 // sweepStack is the one-pass first fit: edges by left end ascending and
@@ -58,23 +125,12 @@ func sweepStack(ls, rs []int32, n int) ([]int32, int32) {
 	return page, int32(len(stacks))
 }
 
-// lengthStack is first fit with edges taken longest first, each page a
-// segment tree answering whether an edge would cross the page.
-func lengthStack(ls, rs []int32, n int) ([]int32, int32) {
+// firstFit puts the edges, in the given order, each on the lowest page it
+// does not cross; each page is a segment tree answering whether an edge
+// would cross the page. It gives up (nil, limit+1) when more than limit
+// pages would be needed.
+func firstFit(ls, rs []int32, n int, sorted []int32, limit int32) ([]int32, int32) {
 	m := len(ls)
-	count := make([]int32, n+1)
-	for e := range ls {
-		count[n-1-int(rs[e]-ls[e])+1]++
-	}
-	for i := 0; i < n; i++ {
-		count[i+1] += count[i]
-	}
-	sorted := make([]int32, m)
-	for e := range ls {
-		d := n - 1 - int(rs[e]-ls[e])
-		sorted[count[d]] = int32(e)
-		count[d]++
-	}
 	page := make([]int32, m)
 	var trees []*segTree
 	for _, e := range sorted {
@@ -86,6 +142,9 @@ func lengthStack(ls, rs []int32, n int) ([]int32, int32) {
 			}
 		}
 		if p == len(trees) {
+			if int32(p) == limit {
+				return nil, limit + 1
+			}
 			trees = append(trees, newSegTree(n))
 		}
 		trees[p].add(l, r)

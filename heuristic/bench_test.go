@@ -1,0 +1,59 @@
+package heuristic
+
+import (
+	"fmt"
+	"math/rand/v2"
+	"testing"
+	"time"
+
+	"quire/cert"
+)
+
+// benchGraphs are built once per process: the large ones take seconds.
+var benchGraphs = map[string]*cert.Graph{}
+
+func benchGraph(b *testing.B, name string, build func() *cert.Graph) *cert.Graph {
+	if g, ok := benchGraphs[name]; ok {
+		return g
+	}
+	g := build()
+	benchGraphs[name] = g
+	return g
+}
+
+func benchKind(b *testing.B, kind cert.Kind) {
+	rng := rand.New(rand.NewPCG(11, 12))
+	cases := []struct {
+		name  string
+		build func() *cert.Graph
+	}{
+		{"K50", func() *cert.Graph { return complete(b, 50) }},
+		{"K200", func() *cert.Graph { return complete(b, 200) }},
+		{"grid100x100", func() *cert.Graph { return grid(b, 100, 100) }},
+		{"grid1000x1000", func() *cert.Graph { return grid(b, 1000, 1000) }},
+		{"planar1e4", func() *cert.Graph { return randomPlanar(b, rng, 10000/3+2, 10000/3) }},
+		{"planar1e5", func() *cert.Graph { return randomPlanar(b, rng, 100000/3+2, 100000/3) }},
+		{"planar1e6", func() *cert.Graph { return randomPlanar(b, rng, 1000000/3+2, 1000000/3) }},
+	}
+	for _, c := range cases {
+		b.Run(c.name, func(b *testing.B) {
+			g := benchGraph(b, c.name, c.build)
+			opts := Options{Seed: 1, TimeLimit: 10 * time.Second}
+			var l *cert.Layout
+			for b.Loop() {
+				l, _ = Find(g, kind, opts)
+			}
+			b.ReportMetric(float64(l.Pages()), "pages")
+			b.ReportMetric(float64(g.M()), "edges")
+			if testing.Verbose() {
+				fmt.Printf("%s %s: n=%d m=%d pages=%d\n", kind, c.name, g.N(), g.M(), l.Pages())
+			}
+		})
+	}
+}
+
+// BenchmarkStack reports the time and the pages reached (metric "pages").
+func BenchmarkStack(b *testing.B) { benchKind(b, cert.Stack) }
+
+// BenchmarkQueue reports the time and the queues reached (metric "pages").
+func BenchmarkQueue(b *testing.B) { benchKind(b, cert.Queue) }

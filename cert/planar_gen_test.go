@@ -7,7 +7,7 @@ import (
 
 // Graph generators for the planarity tests and benchmarks.
 
-func mustNumbered(t testing.TB, n int, edges [][2]int) *Graph {
+func plMustNumbered(t testing.TB, n int, edges [][2]int) *Graph {
 	t.Helper()
 	g, err := NewNumbered(n, 0, edges)
 	if err != nil {
@@ -16,7 +16,7 @@ func mustNumbered(t testing.TB, n int, edges [][2]int) *Graph {
 	return g
 }
 
-func numbered(n int, edges [][2]int) *Graph {
+func plNumbered(n int, edges [][2]int) *Graph {
 	g, err := NewNumbered(n, 0, edges)
 	if err != nil {
 		panic(err)
@@ -24,36 +24,36 @@ func numbered(n int, edges [][2]int) *Graph {
 	return g
 }
 
-func completeGraph(n int) *Graph {
+func plCompleteGraph(n int) *Graph {
 	var e [][2]int
 	for i := 0; i < n; i++ {
 		for j := i + 1; j < n; j++ {
 			e = append(e, [2]int{i, j})
 		}
 	}
-	return numbered(n, e)
+	return plNumbered(n, e)
 }
 
-func completeBipartite(a, b int) *Graph {
+func plCompleteBipartite(a, b int) *Graph {
 	var e [][2]int
 	for i := 0; i < a; i++ {
 		for j := 0; j < b; j++ {
 			e = append(e, [2]int{i, a + j})
 		}
 	}
-	return numbered(a+b, e)
+	return plNumbered(a+b, e)
 }
 
 // petersen is the Petersen graph: outer 5-cycle 0..4, spokes i–i+5, inner pentagram.
-func petersen() *Graph {
+func plPetersen() *Graph {
 	var e [][2]int
 	for i := 0; i < 5; i++ {
 		e = append(e, [2]int{i, (i + 1) % 5}, [2]int{i, i + 5}, [2]int{5 + i, 5 + (i+2)%5})
 	}
-	return numbered(10, e)
+	return plNumbered(10, e)
 }
 
-func gridGraph(r, c int) *Graph {
+func plGridGraph(r, c int) *Graph {
 	var e [][2]int
 	for i := 0; i < r; i++ {
 		for j := 0; j < c; j++ {
@@ -66,14 +66,14 @@ func gridGraph(r, c int) *Graph {
 			}
 		}
 	}
-	return numbered(r*c, e)
+	return plNumbered(r*c, e)
 }
 
 // randomTriangulationEdges builds a maximal planar graph on n >= 3 vertices by
 // starting from a triangle and repeatedly either inserting a vertex into a
 // random face or (for variety) keeping faces as they are; every insertion
 // into a triangular face adds one vertex and three edges, so m = 3n − 6.
-func randomTriangulationEdges(rng *rand.Rand, n int) [][2]int {
+func plRandomTriangulationEdges(rng *rand.Rand, n int) [][2]int {
 	e := [][2]int{{0, 1}, {1, 2}, {0, 2}}
 	faces := [][3]int{{0, 1, 2}, {0, 2, 1}}
 	for v := 3; v < n; v++ {
@@ -87,20 +87,20 @@ func randomTriangulationEdges(rng *rand.Rand, n int) [][2]int {
 }
 
 // randomTriangulation relabels a random stacked triangulation at random.
-func randomTriangulation(rng *rand.Rand, n int) *Graph {
-	e := randomTriangulationEdges(rng, n)
+func plRandomTriangulation(rng *rand.Rand, n int) *Graph {
+	e := plRandomTriangulationEdges(rng, n)
 	perm := rng.Perm(n)
 	for i := range e {
 		e[i] = [2]int{perm[e[i][0]], perm[e[i][1]]}
 	}
-	return numbered(n, e)
+	return plNumbered(n, e)
 }
 
 // randomPlanarPlus is a random spanning subgraph of a random triangulation
 // (about two thirds of its edges) plus k random extra edges.
-func randomPlanarPlus(rng *rand.Rand, n, k int) *Graph {
+func plRandomPlanarPlus(rng *rand.Rand, n, k int) *Graph {
 	var e [][2]int
-	for _, x := range randomTriangulationEdges(rng, n) {
+	for _, x := range plRandomTriangulationEdges(rng, n) {
 		if rng.IntN(3) != 0 {
 			e = append(e, x)
 		}
@@ -115,11 +115,11 @@ func randomPlanarPlus(rng *rand.Rand, n, k int) *Graph {
 	for i := range e {
 		e[i] = [2]int{perm[e[i][0]], perm[e[i][1]]}
 	}
-	return numbered(n, e)
+	return plNumbered(n, e)
 }
 
 // randomGraph has n vertices and up to m random edges (repeats merged).
-func randomGraph(rng *rand.Rand, n, m int) *Graph {
+func plRandomGraph(rng *rand.Rand, n, m int) *Graph {
 	var e [][2]int
 	for len(e) < m {
 		a, b := rng.IntN(n), rng.IntN(n)
@@ -127,5 +127,5 @@ func randomGraph(rng *rand.Rand, n, m int) *Graph {
 			e = append(e, [2]int{a, b})
 		}
 	}
-	return numbered(n, e)
+	return plNumbered(n, e)
 }

@@ -16,7 +16,7 @@ import (
 // decodeGraph6 decodes one graph6 line (B. McKay, formats.txt: N(n) in one
 // byte 63+n for n <= 62, then the upper triangle column by column, six bits
 // per byte plus 63). It is a test-only decoder for nauty's output.
-func decodeGraph6(t testing.TB, line string) *Graph {
+func plDecodeGraph6(t testing.TB, line string) *Graph {
 	t.Helper()
 	b := []byte(strings.TrimSpace(line))
 	if len(b) == 0 || b[0] < 63 || b[0] > 125 {
@@ -45,7 +45,7 @@ func decodeGraph6(t testing.TB, line string) *Graph {
 }
 
 // encodeGraph6 is the inverse of decodeGraph6 for n <= 62.
-func encodeGraph6(g *Graph) string {
+func plEncodeGraph6(g *Graph) string {
 	n := g.N()
 	var out []byte
 	out = append(out, byte(63+n))
@@ -70,7 +70,7 @@ func encodeGraph6(g *Graph) string {
 	return string(out)
 }
 
-func runTool(t testing.TB, stdin []byte, name string, args ...string) []byte {
+func plRunTool(t testing.TB, stdin []byte, name string, args ...string) []byte {
 	t.Helper()
 	cmd := exec.Command(name, args...)
 	cmd.Stdin = bytes.NewReader(stdin)
@@ -83,7 +83,7 @@ func runTool(t testing.TB, stdin []byte, name string, args ...string) []byte {
 	return out
 }
 
-func lines(b []byte) []string {
+func plLines(b []byte) []string {
 	var out []string
 	sc := bufio.NewScanner(bytes.NewReader(b))
 	sc.Buffer(make([]byte, 1<<20), 1<<26)
@@ -97,16 +97,16 @@ func lines(b []byte) []string {
 
 // checkAgainstPlanarg decides every graph6 line with Planarity, checks each
 // certificate, compares with nauty-planarg and returns the planar count.
-func checkAgainstPlanarg(t *testing.T, input []byte) int {
+func plCheckAgainstPlanarg(t *testing.T, input []byte) int {
 	t.Helper()
 	planarg := testtools.Require(t, "nauty-planarg", "nauty")
 	ref := make(map[string]bool)
-	for _, l := range lines(runTool(t, input, planarg, "-q")) {
+	for _, l := range plLines(plRunTool(t, input, planarg, "-q")) {
 		ref[l] = true
 	}
 	count := 0
-	for _, l := range lines(input) {
-		g := decodeGraph6(t, l)
+	for _, l := range plLines(input) {
+		g := plDecodeGraph6(t, l)
 		res, err := Planarity(g)
 		if err != nil {
 			t.Fatalf("%s: %v", l, err)
@@ -151,8 +151,8 @@ func TestPlanarCountsOEIS(t *testing.T) {
 				want = connected[n-1]
 			}
 			t.Run(name, func(t *testing.T) {
-				out := runTool(t, nil, geng, args...)
-				if got := checkAgainstPlanarg(t, out); got != want {
+				out := plRunTool(t, nil, geng, args...)
+				if got := plCheckAgainstPlanarg(t, out); got != want {
 					t.Errorf("%d planar graphs, OEIS says %d", got, want)
 				}
 			})
@@ -172,19 +172,19 @@ func TestPlanarRandomAgainstPlanarg(t *testing.T) {
 		var g *Graph
 		switch i % 3 {
 		case 0:
-			g = randomGraph(rng, n, n+rng.IntN(2*n))
+			g = plRandomGraph(rng, n, n+rng.IntN(2*n))
 		case 1:
-			g = randomPlanarPlus(rng, n, rng.IntN(3))
+			g = plRandomPlanarPlus(rng, n, rng.IntN(3))
 		default:
-			g = randomTriangulation(rng, n)
+			g = plRandomTriangulation(rng, n)
 		}
 		gs = append(gs, g)
-		buf.WriteString(graph6Big(g))
+		buf.WriteString(plGraph6Big(g))
 		buf.WriteByte('\n')
 	}
 	planarg := testtools.Require(t, "nauty-planarg", "nauty")
 	ref := make(map[string]bool)
-	for _, l := range lines(runTool(t, buf.Bytes(), planarg, "-q")) {
+	for _, l := range plLines(plRunTool(t, buf.Bytes(), planarg, "-q")) {
 		ref[l] = true
 	}
 	var planar, nonPlanar int
@@ -193,7 +193,7 @@ func TestPlanarRandomAgainstPlanarg(t *testing.T) {
 		if err != nil {
 			t.Fatalf("graph %d (%v): %v", i, g, err)
 		}
-		if want := ref[graph6Big(g)]; res.Planar != want {
+		if want := ref[plGraph6Big(g)]; res.Planar != want {
 			t.Fatalf("graph %d (%v): planar=%v, nauty-planarg says %v", i, g, res.Planar, want)
 		}
 		if err := CheckPlanarCert(g, res.Cert); err != nil {
@@ -212,7 +212,7 @@ func TestPlanarRandomAgainstPlanarg(t *testing.T) {
 
 // graph6Big encodes g in graph6 for any n (formats.txt: N(n) is 126 and three
 // six-bit bytes for 63 <= n <= 258047).
-func graph6Big(g *Graph) string {
+func plGraph6Big(g *Graph) string {
 	n := g.N()
 	var out []byte
 	if n <= 62 {
@@ -240,15 +240,15 @@ func graph6Big(g *Graph) string {
 
 func TestGraph6Helpers(t *testing.T) {
 	// formats.txt example: 'DQc' is n=5 with edges 0-2, 0-4, 1-3, 3-4 (McKay, formats.txt).
-	g := decodeGraph6(t, "DQc")
+	g := plDecodeGraph6(t, "DQc")
 	want := []Edge{{0, 2}, {0, 4}, {1, 3}, {3, 4}}
 	if fmt.Sprint(g.Edges()) != fmt.Sprint(want) {
 		t.Fatalf("DQc decodes to %v, want %v", g.Edges(), want)
 	}
-	if s := encodeGraph6(g); s != "DQc" {
+	if s := plEncodeGraph6(g); s != "DQc" {
 		t.Fatalf("DQc re-encodes as %q", s)
 	}
-	if s := graph6Big(g); s != "DQc" {
+	if s := plGraph6Big(g); s != "DQc" {
 		t.Fatalf("DQc re-encodes as %q", s)
 	}
 }

@@ -1,0 +1,162 @@
+package cert
+
+import (
+	"bytes"
+	"errors"
+	"math/rand/v2"
+	"slices"
+	"strings"
+	"testing"
+)
+
+func plNonPlanarCert(t *testing.T, g *Graph) *Kuratowski {
+	t.Helper()
+	res, err := Planarity(g)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if res.Planar {
+		t.Fatalf("%v found planar", g)
+	}
+	if err := CheckPlanarCert(g, res.Cert); err != nil {
+		t.Fatalf("%v: %v", g, err)
+	}
+	return res.Cert.Kuratowski
+}
+
+// K5 and K3,3 are not planar and are their own Kuratowski subgraphs
+// (K. Kuratowski, "Sur le problème des courbes gauches en topologie",
+// Fund. Math. 15, 1930).
+func TestKuratowskiSelf(t *testing.T) {
+	for _, c := range []struct {
+		g    *Graph
+		kind KuratowskiKind
+	}{{plCompleteGraph(5), K5}, {plCompleteBipartite(3, 3), K33}} {
+		k := plNonPlanarCert(t, c.g)
+		if k.Kind != c.kind {
+			t.Fatalf("%v: kind %s, want %s", c.g, k.Kind, c.kind)
+		}
+		used := 0
+		for _, p := range k.Paths {
+			if len(p) != 2 {
+				t.Fatalf("%v: path %v is not a single edge", c.g, p)
+			}
+			used++
+		}
+		if used != c.g.M() {
+			t.Fatalf("%v: %d paths for %d edges", c.g, used, c.g.M())
+		}
+		if c.kind == K33 {
+			// The sides of K3,3 as built: {0,1,2} and {3,4,5}.
+			a := slices.Sorted(slices.Values(k.Branch[:3]))
+			b := slices.Sorted(slices.Values(k.Branch[3:]))
+			if !(slices.Equal(a, []int32{0, 1, 2}) && slices.Equal(b, []int32{3, 4, 5}) ||
+				slices.Equal(b, []int32{0, 1, 2}) && slices.Equal(a, []int32{3, 4, 5})) {
+				t.Fatalf("K3,3 sides %v %v", a, b)
+			}
+		}
+	}
+}
+
+// The Petersen graph is not planar; it contains a subdivision of K3,3 and,
+// being cubic, none of K5 (common knowledge, no source).
+func TestKuratowskiPetersen(t *testing.T) {
+	k := plNonPlanarCert(t, plPetersen())
+	if k.Kind != K33 {
+		t.Fatalf("Petersen: %s subdivision", k.Kind)
+	}
+}
+
+// Larger non-planar graphs: K_n, K_{3,n}, random graphs, planar graphs with
+// one extra edge far away.
+func TestKuratowskiVarious(t *testing.T) {
+	rng := rand.New(rand.NewPCG(7, 7))
+	gs := []*Graph{plCompleteGraph(6), plCompleteGraph(9), plCompleteBipartite(3, 7), plCompleteBipartite(4, 4)}
+	for i := 0; i < 40; i++ {
+		gs = append(gs, plRandomGraph(rng, 50+rng.IntN(300), 400+rng.IntN(400)))
+	}
+	for _, g := range gs {
+		plNonPlanarCert(t, g)
+	}
+	if _, err := FindKuratowski(plGridGraph(5, 5)); !errors.Is(err, ErrPlanar) {
+		t.Fatalf("grid: %v, want ErrPlanar", err)
+	}
+}
+
+func TestKuratowskiMutations(t *testing.T) {
+	g := plPetersen()
+	k := plNonPlanarCert(t, g)
+	clone := func() *Kuratowski {
+		c := &Kuratowski{Kind: k.Kind, Branch: slices.Clone(k.Branch)}
+		for _, p := range k.Paths {
+			c.Paths = append(c.Paths, slices.Clone(p))
+		}
+		return c
+	}
+	long := 0
+	for i, p := range k.Paths {
+		if len(p) > len(k.Paths[long]) {
+			long = i
+		}
+	}
+	if len(k.Paths[long]) < 3 {
+		t.Fatal("Petersen subdivision with no subdivided path")
+	}
+	cases := map[string]func(c *Kuratowski){
+		"break a path": func(c *Kuratowski) {
+			p := c.Paths[long]
+			c.Paths[long] = append(p[:1:1], p[2:]...)
+		},
+		"drop a path":     func(c *Kuratowski) { c.Paths = c.Paths[1:] },
+		"wrong kind":      func(c *Kuratowski) { c.Kind = K5 },
+		"swap sides":      func(c *Kuratowski) { c.Branch[0], c.Branch[3] = c.Branch[3], c.Branch[0] },
+		"repeat a path":   func(c *Kuratowski) { c.Paths[1] = slices.Clone(c.Paths[0]) },
+		"branch repeated": func(c *Kuratowski) { c.Branch[1] = c.Branch[0] },
+	}
+	for name, mutate := range cases {
+		c := clone()
+		mutate(c)
+		if err := CheckKuratowski(g, c); !errors.Is(err, ErrBadPlanarCert) {
+			t.Errorf("%s: accepted (%v)", name, err)
+		}
+	}
+	// Two paths sharing an inner vertex: K3,3 with an extra vertex x on the
+	// paths 0–3 and 1–4 (both through x, which is adjacent to 0, 1, 3, 4).
+	h := plNumbered(7, [][2]int{{0, 3}, {0, 4}, {0, 5}, {1, 3}, {1, 4}, {1, 5}, {2, 3}, {2, 4}, {2, 5}, {0, 6}, {1, 6}, {3, 6}, {4, 6}})
+	bad := &Kuratowski{Kind: K33, Branch: []int32{0, 1, 2, 3, 4, 5}, Paths: [][]int32{
+		{0, 6, 3}, {0, 4}, {0, 5}, {1, 3}, {1, 6, 4}, {1, 5}, {2, 3}, {2, 4}, {2, 5}}}
+	if err := CheckKuratowski(h, bad); err == nil || !strings.Contains(err.Error(), "share") {
+		t.Fatalf("shared inner vertex: %v", err)
+	}
+	bad.Paths[4] = []int32{1, 4}
+	if err := CheckKuratowski(h, bad); err != nil {
+		t.Fatalf("repaired certificate: %v", err)
+	}
+}
+
+func TestKuratowskiJSONRoundTrip(t *testing.T) {
+	for _, g := range []*Graph{plPetersen(), plCompleteGraph(5), plCompleteGraph(7)} {
+		res, err := Planarity(g)
+		if err != nil {
+			t.Fatal(err)
+		}
+		var a bytes.Buffer
+		if err := WritePlanarCert(&a, g, res.Cert); err != nil {
+			t.Fatal(err)
+		}
+		c, err := ReadPlanarCert(bytes.NewReader(a.Bytes()), "k.json", g)
+		if err != nil {
+			t.Fatalf("%v\n%s", err, a.String())
+		}
+		if err := CheckPlanarCert(g, c); err != nil {
+			t.Fatal(err)
+		}
+		var b bytes.Buffer
+		if err := WritePlanarCert(&b, g, c); err != nil {
+			t.Fatal(err)
+		}
+		if !bytes.Equal(a.Bytes(), b.Bytes()) {
+			t.Fatalf("rewrite differs:\n%s\n%s", a.String(), b.String())
+		}
+	}
+}

@@ -83,7 +83,7 @@ func conflictPair(l *Layout, pos []int32, w []WitnessEdge) (a, b, c, d int) {
 	return
 }
 
-func randomGraph(r *rand.Rand, n int, p float64) *Graph {
+func randomLayoutGraph(r *rand.Rand, n int, p float64) *Graph {
 	var edges [][2]int
 	for a := 0; a < n; a++ {
 		for b := a + 1; b < n; b++ {
@@ -119,7 +119,7 @@ func TestFastCheckerAgreesWithBruteForce(t *testing.T) {
 	r := rand.New(rand.NewPCG(1, 2))
 	for trial := 0; trial < 4000; trial++ {
 		n := 2 + r.IntN(12)
-		g := randomGraph(r, n, r.Float64())
+		g := randomLayoutGraph(r, n, r.Float64())
 		kind := Kind(1 + r.IntN(3))
 		l := randomLayout(r, g, kind, 1+r.IntN(3))
 		rep := Validate(g, l)
@@ -196,8 +196,8 @@ func TestSingleEdgeMoveIsCaught(t *testing.T) {
 	}
 }
 
-// treeGraph returns a random tree on n vertices.
-func treeGraph(r *rand.Rand, n int) *Graph {
+// randomTree returns a random tree on n vertices.
+func randomTree(r *rand.Rand, n int) *Graph {
 	var edges [][2]int
 	for v := 1; v < n; v++ {
 		edges = append(edges, [2]int{r.IntN(v), v})
@@ -217,7 +217,7 @@ func orderLayout(g *Graph, kind Kind, order []int32) *Layout {
 func TestTreesInOnePage(t *testing.T) {
 	r := rand.New(rand.NewPCG(3, 4))
 	for trial := 0; trial < 200; trial++ {
-		g := treeGraph(r, 1+r.IntN(60))
+		g := randomTree(r, 1+r.IntN(60))
 		// Stack: a DFS preorder puts a tree on one page (common practice, no source).
 		var dfs []int32
 		seen := make([]bool, g.N())

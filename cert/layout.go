@@ -122,7 +122,6 @@ type RawLayout struct {
 }
 
 // RawEdge is one edge record of a raw layout: two label indices and a page.
-// Line is the 1-based line of the record in its file (0 when unknown).
 type RawEdge struct {
 	U, V int32
 	Page int32

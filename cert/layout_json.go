@@ -2,6 +2,7 @@ package cert
 
 import (
 	"bufio"
+	"bytes"
 	"encoding/json"
 	"fmt"
 	"io"
@@ -34,12 +35,22 @@ func ReadLayoutFile(path string) (*RawLayout, error) {
 		return nil, fmt.Errorf("cert: %w", err)
 	}
 	defer f.Close()
-	return ReadLayoutJSON(f, path)
+	hint := 0
+	if st, err := f.Stat(); err == nil && st.Mode().IsRegular() {
+		hint = int(st.Size() / 8) // an edge record takes at least 8 bytes: [u,v,p],
+	}
+	return readLayout(f, path, hint)
 }
 
 // ReadLayoutJSON reads a layout in quire's JSON layout format.
 func ReadLayoutJSON(r io.Reader, name string) (*RawLayout, error) {
-	s := &jscan{r: bufio.NewReaderSize(r, 1<<20), name: name, line: 1}
+	return readLayout(r, name, 0)
+}
+
+// readLayout reads a layout, reserving room for edgeHint edges.
+func readLayout(r io.Reader, name string, edgeHint int) (*RawLayout, error) {
+	s := newJScan(r, name)
+	s.hint = edgeHint
 	raw, err := s.layout()
 	if err != nil {
 		return nil, err
@@ -48,31 +59,68 @@ func ReadLayoutJSON(r io.Reader, name string) (*RawLayout, error) {
 }
 
 type jscan struct {
-	r    *bufio.Reader
+	r    io.Reader
 	name string
-	line int
-	col  int
-	b    *Builder
-	buf  []byte
+	data []byte // data[pos:] is unread
+	pos  int
+	// lines counts the newlines in input already dropped from data
+	lines int
+	rerr  error
+	b     *Builder
+	buf   []byte
+	hint  int // expected number of edges
+}
+
+func newJScan(r io.Reader, name string) *jscan {
+	return &jscan{r: r, name: name, data: make([]byte, 0, 1<<20)}
+}
+
+// fill reads more input, keeping the unread bytes; it reports whether any arrived.
+func (s *jscan) fill() bool {
+	if s.rerr != nil {
+		return false
+	}
+	s.lines += bytes.Count(s.data[:s.pos], []byte{'\n'})
+	n := copy(s.data[:cap(s.data)], s.data[s.pos:])
+	s.data, s.pos = s.data[:n], 0
+	for {
+		m, err := s.r.Read(s.data[n:cap(s.data)])
+		s.data = s.data[:n+m]
+		if err != nil {
+			s.rerr = err
+		}
+		if m > 0 || err != nil {
+			return m > 0
+		}
+	}
 }
 
 func (s *jscan) errf(format string, a ...any) error {
-	return &ParseError{File: s.name, Line: s.line, Col: s.col, Msg: fmt.Sprintf(format, a...)}
+	before := s.data[:min(s.pos, len(s.data))]
+	line := s.lines + bytes.Count(before, []byte{'\n'}) + 1
+	col := len(before) - bytes.LastIndexByte(before, '\n') - 1
+	if s.rerr != nil && s.rerr != io.EOF {
+		return fmt.Errorf("cert: reading %s: %w", s.name, s.rerr)
+	}
+	return &ParseError{File: s.name, Line: line, Col: col, Msg: fmt.Sprintf(format, a...)}
 }
 
-// next returns the next byte, or 0 at end of input.
+// next returns the next byte; false at end of input.
 func (s *jscan) next() (byte, bool) {
-	c, err := s.r.ReadByte()
-	if err != nil {
+	if s.pos >= len(s.data) && !s.fill() {
 		return 0, false
 	}
-	if c == '\n' {
-		s.line++
-		s.col = 0
-	} else {
-		s.col++
-	}
+	c := s.data[s.pos]
+	s.pos++
 	return c, true
+}
+
+// peek returns the next byte without consuming it.
+func (s *jscan) peek() (byte, bool) {
+	if s.pos >= len(s.data) && !s.fill() {
+		return 0, false
+	}
+	return s.data[s.pos], true
 }
 
 // skip returns the next non-space byte.
@@ -320,15 +368,15 @@ func (s *jscan) integer(c byte) (int64, error) {
 	}
 	s.buf = append(s.buf, c)
 	for {
-		b, err := s.r.Peek(1)
-		if err != nil || b[0] < '0' || b[0] > '9' {
-			if err == nil && (b[0] == '.' || b[0] == 'e' || b[0] == 'E') {
+		b, ok := s.peek()
+		if !ok || b < '0' || b > '9' {
+			if ok && (b == '.' || b == 'e' || b == 'E') {
 				return 0, s.errf("expected an integer, found a fraction or exponent")
 			}
 			break
 		}
-		s.next()
-		s.buf = append(s.buf, b[0])
+		s.pos++
+		s.buf = append(s.buf, b)
 		if len(s.buf) > 19 {
 			return 0, s.errf("integer too large")
 		}
@@ -415,6 +463,7 @@ func (s *jscan) spine(raw *RawLayout) error {
 }
 
 func (s *jscan) edges(raw *RawLayout) error {
+	raw.Edges = make([]RawEdge, 0, s.hint)
 	return s.array(`"edges" (a list of [u, v, page])`, func(c byte) error {
 		if c != '[' {
 			return s.errf("expected an edge [u, v, page], found %q", c)
@@ -499,11 +548,11 @@ func appendLabel(buf []byte, label string) []byte {
 	if isDecimal(label) && len(label) < 19 {
 		return append(buf, label...)
 	}
-	return appendJSONString(buf, label)
+	return appendQuotedLabel(buf, label)
 }
 
-// appendJSONString appends s as a JSON string literal.
-func appendJSONString(buf []byte, s string) []byte {
+// appendQuotedLabel appends s as a JSON string literal.
+func appendQuotedLabel(buf []byte, s string) []byte {
 	plain := true
 	for i := 0; i < len(s); i++ {
 		if c := s[i]; c < 0x20 || c >= 0x7f || c == '"' || c == '\\' {

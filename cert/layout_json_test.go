@@ -12,7 +12,7 @@ import (
 func TestLayoutJSONRoundTrip(t *testing.T) {
 	r := rand.New(rand.NewPCG(7, 8))
 	for trial := 0; trial < 300; trial++ {
-		g := randomGraph(r, 1+r.IntN(15), r.Float64())
+		g := randomLayoutGraph(r, 1+r.IntN(15), r.Float64())
 		l := randomLayout(r, g, Kind(1+r.IntN(3)), 1+r.IntN(4))
 		var buf bytes.Buffer
 		if err := WriteLayoutJSON(&buf, g, l); err != nil {

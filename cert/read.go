@@ -66,15 +66,24 @@ func ReadGraphFile(path string, f Format) (*ReadResult, error) {
 		return nil, fmt.Errorf("cert: %w", err)
 	}
 	defer file.Close()
-	return ReadGraphs(file, path, f)
+	hint := 0
+	if st, err := file.Stat(); err == nil && st.Mode().IsRegular() {
+		hint = int(st.Size() / 4) // an edge-list line takes at least 4 bytes: "u v\n"
+	}
+	return readGraphs(file, path, f, hint)
 }
 
 // ReadGraphs reads one or more graphs from r; name is used in messages and
 // its extension as a format hint when f is FormatAuto.
 func ReadGraphs(r io.Reader, name string, f Format) (*ReadResult, error) {
+	return readGraphs(r, name, f, 0)
+}
+
+// readGraphs is ReadGraphs with room reserved for edgeHint edges.
+func readGraphs(r io.Reader, name string, f Format, edgeHint int) (*ReadResult, error) {
 	br := bufio.NewReaderSize(r, 1<<20)
 	if f == FormatAuto {
-		head, _ := br.Peek(64 << 10)
+		head, _ := br.Peek(detectPeek)
 		f = DetectFormat(head, name)
 	}
 	res := &ReadResult{Format: f}
@@ -82,7 +91,7 @@ func ReadGraphs(r io.Reader, name string, f Format) (*ReadResult, error) {
 	switch f {
 	case FormatEdgeList:
 		var g *Graph
-		g, err = readEdgeList(br, name, res)
+		g, err = readEdgeList(br, name, res, edgeHint)
 		if g != nil {
 			res.Graphs = []*Graph{g}
 		}
@@ -136,8 +145,15 @@ func DetectFormat(head []byte, name string) Format {
 	return content
 }
 
+// detectPeek is how much of a file ReadGraphs shows DetectFormat. A head of
+// this size may end inside a line (a graph6 line of a graph with more than
+// about 360 vertices is longer), so its last unterminated line is only
+// required to be a possible start of a graph6 string.
+const detectPeek = 64 << 10
+
 // detectContent returns the format the content shows, or FormatAuto.
 func detectContent(head []byte) Format {
+	cut := len(head) >= detectPeek
 	switch {
 	case bytes.HasPrefix(head, []byte(">>graph6<<")):
 		return FormatGraph6
@@ -146,10 +162,11 @@ func detectContent(head []byte) Format {
 	}
 	for len(head) > 0 {
 		line := head
+		last := false
 		if i := bytes.IndexByte(head, '\n'); i >= 0 {
 			line, head = head[:i], head[i+1:]
 		} else {
-			head = nil
+			head, last = nil, true
 		}
 		line = bytes.TrimRight(line, "\r")
 		t := bytes.TrimSpace(line)
@@ -159,6 +176,9 @@ func detectContent(head []byte) Format {
 		switch {
 		case t[0] == ':' || t[0] == ';':
 			return FormatSparse6
+		case t[0] == '&' && len(t) > 1 && bytes.IndexFunc(t[1:], func(r rune) bool { return r < 63 || r > 126 }) < 0:
+			// digraph6: the graph6 reader explains that it is not supported
+			return FormatGraph6
 		case bytes.HasPrefix(t, []byte("p ")) || bytes.HasPrefix(t, []byte("p\t")):
 			return FormatDIMACS
 		case (t[0] == 'c' && (len(t) == 1 || t[1] == ' ' || t[1] == '\t')):
@@ -167,7 +187,7 @@ func detectContent(head []byte) Format {
 				return FormatDIMACS
 			}
 			return FormatAuto
-		case isGraph6Line(t):
+		case isGraph6Line(t), last && cut && isGraph6Prefix(t):
 			return FormatGraph6
 		}
 		return FormatAuto
@@ -194,8 +214,9 @@ func looksDIMACS(rest []byte) bool {
 
 // readEdgeList reads an edge list: one edge per line as two whitespace-separated
 // labels, or one label for an isolated vertex; '#' and '%' start comments.
-func readEdgeList(br *bufio.Reader, name string, res *ReadResult) (*Graph, error) {
+func readEdgeList(br *bufio.Reader, name string, res *ReadResult, edgeHint int) (*Graph, error) {
 	b := NewBuilder()
+	b.Grow(edgeHint)
 	line := 0
 	for {
 		raw, err := br.ReadSlice('\n')
@@ -252,7 +273,9 @@ func readEdgeList(br *bufio.Reader, name string, res *ReadResult) (*Graph, error
 	return g, nil
 }
 
-func isSpace(c byte) bool { return c == ' ' || c == '\t' || c == '\r' || c == '\n' || c == '\v' || c == '\f' }
+func isSpace(c byte) bool {
+	return c == ' ' || c == '\t' || c == '\r' || c == '\n' || c == '\v' || c == '\f'
+}
 
 // duplicateWarnings describes merged repeated edges.
 func duplicateWarnings(name string, rep BuildReport) []string {

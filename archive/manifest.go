@@ -1,0 +1,422 @@
+package archive
+
+import (
+	"bytes"
+	"encoding/hex"
+	"encoding/json"
+	"errors"
+	"fmt"
+	"io"
+	"slices"
+	"strings"
+)
+
+// ManifestName is the member holding the manifest.
+const ManifestName = "manifest.json"
+
+// FormatName and FormatVersion identify the manifest schema described here.
+const (
+	FormatName    = "quire-bundle"
+	FormatVersion = 1
+)
+
+// Bounds a claim can state about the number of pages K.
+const (
+	AtMost  = "at_most"  // a layout with K pages exists (evidence: the layout)
+	AtLeast = "at_least" // no layout with K-1 pages exists (evidence: a refutation)
+	Exact   = "exact"    // both
+)
+
+// Proof checker results recorded in a manifest.
+const (
+	ResultVerified = "verified"
+	ResultRejected = "rejected"
+)
+
+// CNF sources: made by quire's encoder from the claim, or supplied from
+// elsewhere with a hash that does not match quire's encoding.
+const (
+	CNFQuire   = "quire"
+	CNFForeign = "foreign"
+)
+
+// maxManifestSize bounds the manifest member.
+const maxManifestSize = 1 << 20
+
+// Manifest is the contents of manifest.json, schema version 1. Every field
+// is required unless marked omitempty. No wall-clock time is recorded
+// unless Created is set by the caller, so that the same evidence gives the
+// same bytes; solver times are part of the evidence as run.
+type Manifest struct {
+	Format        string          `json:"format"`         // FormatName
+	FormatVersion int             `json:"format_version"` // FormatVersion
+	QuireVersion  string          `json:"quire_version"`  // version of quire that made the bundle
+	Tool          string          `json:"tool"`           // the command that made it, e.g. "quire bundle"
+	Created       string          `json:"created,omitempty"`
+	Compression   Compression     `json:"compression"`
+	Claim         Claim           `json:"claim"`
+	Graph         GraphFiles      `json:"graph"`
+	Layout        *LayoutRecord   `json:"layout,omitempty"`     // at_most and exact
+	Refutation    *Refutation     `json:"refutation,omitempty"` // at_least and exact
+	Planarity     *PlanarityEntry `json:"planarity,omitempty"`
+	Members       []string        `json:"members"` // every member but manifest.json and SHA256SUMS, sorted
+}
+
+// Compression records the compressor that wrote the bundle.
+type Compression struct {
+	Module   string `json:"module"`
+	Version  string `json:"version"`
+	Settings string `json:"settings"`
+}
+
+// Claim is what the bundle asserts about a graph.
+type Claim struct {
+	GraphID   string   `json:"graph_id"` // cert.Graph.ID of the graph
+	Name      string   `json:"name,omitempty"`
+	Vertices  int      `json:"vertices"`
+	Edges     int      `json:"edges"`
+	Kind      string   `json:"kind"`  // stack, queue or mixed
+	Bound     string   `json:"bound"` // at_most, at_least or exact
+	K         int      `json:"k"`
+	PageKinds []string `json:"page_kinds,omitempty"` // mixed only: the K pages of the layout, or the K-1 refuted pages
+}
+
+// GraphFiles names the graph members.
+type GraphFiles struct {
+	Input       string `json:"input"`        // the graph file as it was given
+	InputFormat string `json:"input_format"` // edgelist, dimacs, graph6, sparse6
+	Canonical   string `json:"canonical"`    // quire's edge list of the graph in canonical order
+}
+
+// LayoutRecord names the layout member (quire's layout JSON) and what was
+// found when it was checked at bundling time.
+type LayoutRecord struct {
+	Member string `json:"member"`
+	Pages  int    `json:"pages"`
+	Check  string `json:"check"` // "valid"
+}
+
+// Refutation is the evidence that no layout with Pages pages exists.
+type Refutation struct {
+	Pages     int      `json:"pages"` // K-1
+	PageKinds []string `json:"page_kinds"`
+	Encoder   Encoder  `json:"encoder"`
+	CNF       CNFEntry `json:"cnf"`
+	Runs      []Run    `json:"runs"`
+	Proofs    []Proof  `json:"proofs"`
+}
+
+// Encoder records the encoder that made the CNF; Options is the encoder's
+// own options object, read back strictly by the encoder.
+type Encoder struct {
+	Version string          `json:"version"`
+	Options json.RawMessage `json:"options"`
+}
+
+// CNFEntry identifies the CNF the proofs refute.
+type CNFEntry struct {
+	SHA256  string `json:"sha256"` // of the DIMACS text as written
+	Vars    int    `json:"vars"`
+	Clauses int    `json:"clauses"`
+	Source  string `json:"source"`           // CNFQuire or CNFForeign
+	Member  string `json:"member,omitempty"` // present with --include-cnf or for foreign CNFs
+}
+
+// Run is one solver run on the CNF.
+type Run struct {
+	Backend string  `json:"backend"`
+	Version string  `json:"version"`
+	Answer  string  `json:"answer"` // sat, unsat or unknown
+	Seconds float64 `json:"seconds"`
+}
+
+// Proof is one proof member and the result of checking it when bundled.
+type Proof struct {
+	Member  string `json:"member"`
+	Format  string `json:"format"` // drat, drat-binary or lrat
+	Size    int64  `json:"size"`
+	SHA256  string `json:"sha256"`
+	Checker string `json:"checker"`
+	Result  string `json:"result"`
+}
+
+// PlanarityEntry names a planarity certificate member.
+type PlanarityEntry struct {
+	Member string `json:"member"`
+	Planar bool   `json:"planar"`
+}
+
+// Marshal returns the manifest as indented JSON with a final newline.
+// The encoder options are compacted first so the bytes are stable.
+func (m *Manifest) Marshal() ([]byte, error) {
+	c := *m
+	if c.Refutation != nil {
+		r := *c.Refutation
+		var buf bytes.Buffer
+		if err := json.Compact(&buf, r.Encoder.Options); err != nil {
+			return nil, fmt.Errorf("archive: encoder options: %w", err)
+		}
+		r.Encoder.Options = buf.Bytes()
+		c.Refutation = &r
+	}
+	b, err := json.MarshalIndent(&c, "", "  ")
+	if err != nil {
+		return nil, fmt.Errorf("archive: %w", err)
+	}
+	return append(b, '\n'), nil
+}
+
+// ReadManifest reads and validates a manifest strictly: one JSON object, no
+// unknown fields, nothing after it, then every rule of Validate.
+func ReadManifest(data []byte) (*Manifest, error) {
+	merr := func(format string, args ...any) error {
+		return &BundleError{Member: ManifestName, Kind: ErrManifest, Detail: fmt.Sprintf(format, args...)}
+	}
+	if len(data) > maxManifestSize {
+		return nil, merr("%d bytes (at most %d)", len(data), maxManifestSize)
+	}
+	dec := json.NewDecoder(bytes.NewReader(data))
+	dec.DisallowUnknownFields()
+	var m Manifest
+	if err := dec.Decode(&m); err != nil {
+		return nil, merr("%s", jsonErr(data, err, dec.InputOffset()))
+	}
+	if _, err := dec.Token(); err != io.EOF {
+		return nil, merr("%s: data after the manifest object", position(data, dec.InputOffset()))
+	}
+	if err := m.Validate(); err != nil {
+		return nil, err
+	}
+	return &m, nil
+}
+
+// position turns a byte offset into "line:col" (1-based).
+func position(data []byte, off int64) string {
+	off = min(max(off, 0), int64(len(data)))
+	line := 1 + bytes.Count(data[:off], []byte{'\n'})
+	col := off - int64(bytes.LastIndexByte(data[:off], '\n'))
+	return fmt.Sprintf("%d:%d", line, col)
+}
+
+func jsonErr(data []byte, err error, off int64) string {
+	var se *json.SyntaxError
+	var te *json.UnmarshalTypeError
+	switch {
+	case errors.As(err, &se):
+		return fmt.Sprintf("%s: %v", position(data, se.Offset-1), se)
+	case errors.As(err, &te):
+		return fmt.Sprintf("%s: field %q: expected %s, found %s", position(data, te.Offset), te.Field, te.Type, te.Value)
+	case errors.Is(err, io.EOF):
+		return "empty (expected a JSON object)"
+	case errors.Is(err, io.ErrUnexpectedEOF):
+		return "the JSON object is cut short"
+	}
+	return fmt.Sprintf("%s: %v", position(data, off), strings.TrimPrefix(err.Error(), "json: "))
+}
+
+func isHex64(s string) bool {
+	if len(s) != 64 {
+		return false
+	}
+	_, err := hex.DecodeString(s)
+	return err == nil && strings.ToLower(s) == s
+}
+
+var (
+	kinds     = []string{"stack", "queue", "mixed"}
+	pageKinds = []string{"stack", "queue"}
+	bounds    = []string{AtMost, AtLeast, Exact}
+	answers   = []string{"sat", "unsat", "unknown"}
+	formats   = []string{"drat", "drat-binary", "lrat"}
+	results   = []string{ResultVerified, ResultRejected}
+)
+
+// Validate checks the manifest against the schema and its own consistency:
+// the evidence fits the bound, page counts fit K, hashes are well formed and
+// every member it names is listed in Members and vice versa. All problems
+// are reported, joined.
+func (m *Manifest) Validate() error {
+	var errs []string
+	bad := func(format string, args ...any) { errs = append(errs, fmt.Sprintf(format, args...)) }
+	if m.Format != FormatName {
+		bad("format is %q, expected %q", m.Format, FormatName)
+	}
+	if m.FormatVersion != FormatVersion {
+		bad("format_version is %d, this quire reads version %d", m.FormatVersion, FormatVersion)
+	}
+	if m.QuireVersion == "" {
+		bad("quire_version is empty")
+	}
+	if m.Tool == "" {
+		bad("tool is empty")
+	}
+	if m.Compression.Module == "" || m.Compression.Version == "" || m.Compression.Settings == "" {
+		bad("compression: module, version and settings are required")
+	}
+	c := m.Claim
+	if !isHex64(c.GraphID) {
+		bad("claim.graph_id %q is not 64 lowercase hex digits", c.GraphID)
+	}
+	if c.Vertices < 0 || c.Edges < 0 {
+		bad("claim: negative vertex or edge count")
+	}
+	if !slices.Contains(kinds, c.Kind) {
+		bad("claim.kind %q is not stack, queue or mixed", c.Kind)
+	}
+	if !slices.Contains(bounds, c.Bound) {
+		bad("claim.bound %q is not at_most, at_least or exact", c.Bound)
+	}
+	if c.K < 1 || c.K > 1<<16 {
+		bad("claim.k %d is outside 1..65536", c.K)
+	}
+	if (c.Bound == AtLeast || c.Bound == Exact) && c.K < 2 {
+		bad("claim.k %d: a lower bound needs k of at least 2 (the refutation is of k-1 pages)", c.K)
+	}
+	for _, pk := range c.PageKinds {
+		if !slices.Contains(pageKinds, pk) {
+			bad("claim.page_kinds: %q is not stack or queue", pk)
+		}
+	}
+	switch {
+	case c.Kind == "mixed" && c.Bound == Exact:
+		bad("claim: an exact bound is not defined for mixed layouts (state at_most or at_least)")
+	case c.Kind == "mixed" && c.Bound == AtMost && len(c.PageKinds) != c.K:
+		bad("claim.page_kinds has %d entries, a mixed at_most claim needs k=%d", len(c.PageKinds), c.K)
+	case c.Kind == "mixed" && c.Bound == AtLeast && len(c.PageKinds) != c.K-1:
+		bad("claim.page_kinds has %d entries, a mixed at_least claim needs k-1=%d", len(c.PageKinds), c.K-1)
+	case c.Kind != "mixed" && len(c.PageKinds) != 0:
+		bad("claim.page_kinds is only for mixed claims")
+	}
+	named := map[string]string{} // member -> field naming it
+	name := func(field, member string) {
+		if err := ValidName(member); err != nil {
+			bad("%s: %v", field, err)
+			return
+		}
+		if member == ManifestName || member == SumsName {
+			bad("%s names the reserved member %s", field, member)
+			return
+		}
+		if prev, dup := named[member]; dup {
+			bad("%s and %s name the same member %q", prev, field, member)
+			return
+		}
+		named[member] = field
+	}
+	name("graph.input", m.Graph.Input)
+	name("graph.canonical", m.Graph.Canonical)
+	if !slices.Contains([]string{"edgelist", "dimacs", "graph6", "sparse6"}, m.Graph.InputFormat) {
+		bad("graph.input_format %q is not edgelist, dimacs, graph6 or sparse6", m.Graph.InputFormat)
+	}
+	wantLayout := c.Bound == AtMost || c.Bound == Exact
+	wantRef := c.Bound == AtLeast || c.Bound == Exact
+	switch l := m.Layout; {
+	case wantLayout && l == nil:
+		bad("layout is required for a %s claim", c.Bound)
+	case !wantLayout && l != nil:
+		bad("layout is given for an at_least claim")
+	case l != nil:
+		name("layout.member", l.Member)
+		if l.Pages != c.K {
+			bad("layout.pages is %d, the claim has k=%d", l.Pages, c.K)
+		}
+		if l.Check != "valid" {
+			bad("layout.check is %q, expected \"valid\"", l.Check)
+		}
+	}
+	switch r := m.Refutation; {
+	case wantRef && r == nil:
+		bad("refutation is required for a %s claim", c.Bound)
+	case !wantRef && r != nil:
+		bad("refutation is given for an at_most claim")
+	case r != nil:
+		if r.Pages != c.K-1 {
+			bad("refutation.pages is %d, the claim has k-1=%d", r.Pages, c.K-1)
+		}
+		if len(r.PageKinds) != r.Pages {
+			bad("refutation.page_kinds has %d entries for %d pages", len(r.PageKinds), r.Pages)
+		}
+		for i, pk := range r.PageKinds {
+			switch {
+			case c.Kind == "mixed" && i < len(c.PageKinds) && pk != c.PageKinds[i]:
+				bad("refutation.page_kinds[%d] is %q, the claim says %q", i, pk, c.PageKinds[i])
+			case c.Kind != "mixed" && pk != c.Kind:
+				bad("refutation.page_kinds[%d] is %q in a %s claim", i, pk, c.Kind)
+			}
+		}
+		if r.Encoder.Version == "" {
+			bad("refutation.encoder.version is empty")
+		}
+		if t := bytes.TrimSpace(r.Encoder.Options); len(t) == 0 || t[0] != '{' {
+			bad("refutation.encoder.options must be a JSON object")
+		}
+		if !isHex64(r.CNF.SHA256) {
+			bad("refutation.cnf.sha256 %q is not 64 lowercase hex digits", r.CNF.SHA256)
+		}
+		if r.CNF.Vars < 0 || r.CNF.Clauses < 0 {
+			bad("refutation.cnf: negative counts")
+		}
+		switch r.CNF.Source {
+		case CNFQuire:
+		case CNFForeign:
+			if r.CNF.Member == "" {
+				bad("refutation.cnf: a foreign CNF must be included as a member")
+			}
+		default:
+			bad("refutation.cnf.source %q is not quire or foreign", r.CNF.Source)
+		}
+		if r.CNF.Member != "" {
+			name("refutation.cnf.member", r.CNF.Member)
+		}
+		for i, run := range r.Runs {
+			if run.Backend == "" || !slices.Contains(answers, run.Answer) || run.Seconds < 0 {
+				bad("refutation.runs[%d]: backend, an answer (sat, unsat, unknown) and seconds >= 0 are required", i)
+			}
+		}
+		if len(r.Proofs) == 0 {
+			bad("refutation.proofs is empty")
+		}
+		for i, p := range r.Proofs {
+			f := fmt.Sprintf("refutation.proofs[%d]", i)
+			name(f+".member", p.Member)
+			if !slices.Contains(formats, p.Format) {
+				bad("%s.format %q is not drat, drat-binary or lrat", f, p.Format)
+			}
+			if p.Size < 0 {
+				bad("%s.size is negative", f)
+			}
+			if !isHex64(p.SHA256) {
+				bad("%s.sha256 %q is not 64 lowercase hex digits", f, p.SHA256)
+			}
+			if p.Checker == "" || !slices.Contains(results, p.Result) {
+				bad("%s: checker and result (verified or rejected) are required", f)
+			}
+		}
+	}
+	if p := m.Planarity; p != nil {
+		name("planarity.member", p.Member)
+	}
+	if !slices.IsSorted(m.Members) {
+		bad("members are not sorted")
+	}
+	listed := map[string]bool{}
+	for _, n := range m.Members {
+		if listed[n] {
+			bad("members lists %q twice", n)
+		}
+		listed[n] = true
+		if _, ok := named[n]; !ok && ValidName(n) == nil {
+			bad("members lists %q, which no field of the manifest names", n)
+		}
+	}
+	for n, f := range named {
+		if !listed[n] {
+			bad("%s names %q, which is not in members", f, n)
+		}
+	}
+	if len(errs) == 0 {
+		return nil
+	}
+	slices.Sort(errs)
+	return &BundleError{Member: ManifestName, Kind: ErrManifest, Detail: strings.Join(errs, "; ")}
+}

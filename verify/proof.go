@@ -1,0 +1,134 @@
+package verify
+
+import (
+	"context"
+	"errors"
+	"fmt"
+	"io"
+
+	"quire/dimacs"
+)
+
+// ErrProofRejected is wrapped by the error of a check that read its input
+// and found the proof wrong. Other errors mean the input could not be read.
+var ErrProofRejected = errors.New("proof rejected")
+
+// DRATProgress reports how far a proof check has come.
+type DRATProgress struct {
+	Phase   string // "reading" (forward pass) or "checking" (backward pass)
+	Steps   uint64 // steps of the proof passed in this phase
+	Total   uint64 // steps this phase will pass, 0 when not known yet
+	Checked uint64 // lemmas checked so far
+}
+
+// DRATOptions configures CheckDRAT.
+type DRATOptions struct {
+	// Format is ProofDRAT, ProofDRATBinary or ProofRUP; empty means detect
+	// it (see DetectProofFormat). ProofRUP is DRAT text without deletions,
+	// whose lemmas must all be RUP.
+	Format string
+	// Forward checks every lemma in proof order instead of checking
+	// backward from the empty clause only the lemmas it needs. It keeps no
+	// record of the steps and frees deleted clauses, for proofs too large to
+	// hold.
+	Forward bool
+	// LRAT, when non-nil, receives the checked proof in LRAT text.
+	LRAT io.Writer
+	// Progress, when non-nil, is called from time to time.
+	Progress func(DRATProgress)
+	// Name is the proof's name in messages.
+	Name string
+}
+
+// ProofResult is the outcome of CheckDRAT.
+type ProofResult struct {
+	Accepted bool   `json:"accepted"`
+	Format   string `json:"format"`
+	Detected bool   `json:"format_detected"`
+	Mode     string `json:"mode"` // "backward" or "forward"
+	Steps    uint64 `json:"steps"`
+	// Lemmas counts additions, Deletions deletions.
+	Lemmas    uint64 `json:"lemmas"`
+	Deletions uint64 `json:"deletions"`
+	// CoreLemmas counts the lemmas checked: those needed for the empty
+	// clause (backward) or all lemmas up to the refutation (forward).
+	CoreLemmas uint64 `json:"checked_lemmas"`
+	// RAT counts lemmas that were not RUP and were checked as RAT.
+	RAT uint64 `json:"rat_lemmas"`
+	// IgnoredDeletions counts deletions of clauses that were the reason of
+	// a unit at the time; they are ignored. MissingDeletions counts
+	// deletions naming no current clause; they are ignored too.
+	IgnoredDeletions uint64 `json:"ignored_unit_deletions"`
+	MissingDeletions uint64 `json:"missing_deletions"`
+	Propagations     uint64 `json:"propagations"`
+	// FailedLemma is the 1-based step number (additions and deletions
+	// counted) of the first lemma that failed, 0 when the proof failed as a
+	// whole (no empty clause) or was accepted. FailedPos is its line (text)
+	// or byte offset (binary), FailedText its literals.
+	FailedLemma int64  `json:"failed_step,omitempty"`
+	FailedPos   string `json:"failed_at,omitempty"`
+	FailedText  string `json:"failed_text,omitempty"`
+	Reason      string `json:"reason,omitempty"`
+}
+
+// CheckDRAT checks that proof (DRAT text or binary, plain, gzip or zstd)
+// refutes cnf. A rejected proof returns the result and an error wrapping
+// ErrProofRejected; a proof that cannot be read returns an error wrapping a
+// *cert.ParseError or the I/O error.
+func CheckDRAT(ctx context.Context, cnf *dimacs.CNF, proof io.Reader, opt DRATOptions) (*ProofResult, error) {
+	name := opt.Name
+	if name == "" {
+		name = "proof"
+	}
+	dr, err := dimacs.Decompress(proof)
+	if err != nil {
+		return nil, fmt.Errorf("verify: %s: %w", name, err)
+	}
+	defer dr.Close()
+	pr, detected, err := newProofReader(dr, name, opt.Format)
+	if err != nil {
+		return nil, err
+	}
+	opt.Format = pr.format
+	res := &ProofResult{Format: pr.format, Detected: detected, Mode: "backward"}
+	if opt.Forward {
+		res.Mode = "forward"
+	}
+	k := &dratChecker{dratDB: newDratDB(cnf.Vars), opt: opt, res: res, pr: pr, ctx: ctx}
+	k.maxVar = 2*cnf.Vars + 1<<20
+	k.loadFormula(cnf.Clauses)
+	if opt.LRAT != nil {
+		k.lrat = newLRATLog(opt.LRAT, opt.Forward, k.nOrig)
+	}
+	defer func() { res.Propagations = k.propagations }()
+	conflictStep, err := k.readSteps(opt.Forward)
+	if err != nil {
+		if errors.Is(err, ErrProofRejected) {
+			return res, err
+		}
+		return nil, err
+	}
+	if opt.Forward {
+		if k.lrat != nil {
+			k.lrat.final = k.analyze(k.conflict, nil, true)
+			if err := k.lrat.finish(sameID); err != nil {
+				return nil, err
+			}
+		}
+		res.Accepted = true
+		return res, nil
+	}
+	if err := k.backward(conflictStep); err != nil {
+		if errors.Is(err, ErrProofRejected) {
+			return res, err
+		}
+		return nil, err
+	}
+	if k.lrat != nil {
+		if err := k.lrat.writeBackward(k, conflictStep); err != nil {
+			return nil, err
+		}
+	}
+	res.Accepted = true
+	return res, nil
+}

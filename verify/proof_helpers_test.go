@@ -1,0 +1,88 @@
+package verify
+
+import (
+	"bytes"
+	"context"
+	"os"
+	"os/exec"
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"quire/dimacs"
+	"quire/internal/testtools"
+)
+
+// pigeonhole returns PHP(n+1, n): n+1 pigeons, n holes, variable
+// (i-1)*n+j meaning pigeon i sits in hole j; every pigeon sits somewhere and
+// no hole holds two pigeons. Unsatisfiable (Haken, "The intractability of
+// resolution", TCS 39, 1985); n(n+1) variables and (n+1)+n*C(n+1,2) clauses.
+func pigeonhole(n int) *dimacs.CNF {
+	f := &dimacs.CNF{Vars: n * (n + 1)}
+	p := func(i, j int) int32 { return int32((i-1)*n + j) }
+	for i := 1; i <= n+1; i++ {
+		var c []int32
+		for j := 1; j <= n; j++ {
+			c = append(c, p(i, j))
+		}
+		f.Clauses = append(f.Clauses, c)
+	}
+	for j := 1; j <= n; j++ {
+		for i := 1; i <= n+1; i++ {
+			for k := i + 1; k <= n+1; k++ {
+				f.Clauses = append(f.Clauses, []int32{-p(i, j), -p(k, j)})
+			}
+		}
+	}
+	return f
+}
+
+func cnfBytes(t testing.TB, f *dimacs.CNF) []byte {
+	t.Helper()
+	var b bytes.Buffer
+	if _, err := f.WriteTo(&b); err != nil {
+		t.Fatal(err)
+	}
+	return b.Bytes()
+}
+
+// cadicalProof runs Debian's cadical on f and returns its DRAT proof (text
+// with --no-binary, else binary, cadical's default). It fails unless cadical
+// says UNSAT (exit 20, the SAT-competition convention).
+func cadicalProof(t testing.TB, f *dimacs.CNF, binary bool) []byte {
+	t.Helper()
+	bin := testtools.Require(t, "cadical", "cadical")
+	dir := t.TempDir()
+	in, out := filepath.Join(dir, "f.cnf"), filepath.Join(dir, "f.drat")
+	if err := os.WriteFile(in, cnfBytes(t, f), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	args := []string{"-q", in, out}
+	if !binary {
+		args = append([]string{"--no-binary"}, args...)
+	}
+	cmd := exec.Command(bin, args...)
+	stdout, _ := cmd.Output()
+	if cmd.ProcessState.ExitCode() != 20 {
+		t.Fatalf("cadical exit %d, want 20 (UNSAT); output %s", cmd.ProcessState.ExitCode(), stdout)
+	}
+	proof, err := os.ReadFile(out)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return proof
+}
+
+func checkText(t testing.TB, f *dimacs.CNF, proof string, opt DRATOptions) (*ProofResult, error) {
+	t.Helper()
+	return CheckDRAT(context.Background(), f, strings.NewReader(proof), opt)
+}
+
+func parseCNF(t testing.TB, s string) *dimacs.CNF {
+	t.Helper()
+	f, err := dimacs.ReadCNF(strings.NewReader(s), "test.cnf", dimacs.ReadOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	return f
+}

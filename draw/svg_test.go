@@ -1,0 +1,160 @@
+package draw
+
+import (
+	"bytes"
+	"encoding/xml"
+	"errors"
+	"io"
+	"os"
+	"path/filepath"
+	"strconv"
+	"testing"
+
+	"quire/cert"
+)
+
+func complete(t *testing.T, n int) *cert.Graph {
+	var e [][2]int
+	for i := 0; i < n; i++ {
+		for j := i + 1; j < n; j++ {
+			e = append(e, [2]int{i, j})
+		}
+	}
+	g, err := cert.NewNumbered(n, 1, e)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return g
+}
+
+// completeLayout is the ⌈n/2⌉-page book embedding of K_n (Bernhart and
+// Kainen, "The book thickness of a graph", JCTB 27, 1979): chords {u, v} of
+// the circle 0..n'-1 (n' = n rounded up to even) go to page ((u+v) mod n')/2 + 1.
+func completeLayout(g *cert.Graph, kind cert.Kind) *cert.Layout {
+	n := g.N()
+	nn := n + n%2
+	l := &cert.Layout{Kind: kind}
+	for i := 0; i < n; i++ {
+		l.Order = append(l.Order, int32(i))
+	}
+	for _, e := range g.Edges() {
+		l.Page = append(l.Page, int32((int(e.U)+int(e.V))%nn/2)+1)
+	}
+	for i := 0; i < (n+1)/2; i++ {
+		l.PageKinds = append(l.PageKinds, kind)
+	}
+	return l
+}
+
+// scan decodes the SVG with encoding/xml (well-formedness, XML 1.0) and
+// collects the arcs per edge and the pages named in the legend.
+func scan(t *testing.T, data []byte) (arcs map[int]int, legend map[int]bool, root string) {
+	t.Helper()
+	arcs, legend = map[int]int{}, map[int]bool{}
+	d := xml.NewDecoder(bytes.NewReader(data))
+	for {
+		tok, err := d.Token()
+		if err == io.EOF {
+			break
+		}
+		if err != nil {
+			t.Fatalf("not well-formed XML: %v", err)
+		}
+		se, ok := tok.(xml.StartElement)
+		if !ok {
+			continue
+		}
+		if root == "" {
+			root = se.Name.Local
+		}
+		for _, a := range se.Attr {
+			v, _ := strconv.Atoi(a.Value)
+			switch {
+			case se.Name.Local == "path" && a.Name.Local == "data-edge":
+				arcs[v]++
+			case se.Name.Local == "text" && a.Name.Local == "data-legend-page":
+				legend[v] = true
+			}
+		}
+	}
+	return arcs, legend, root
+}
+
+func TestSVGComplete(t *testing.T) {
+	for _, n := range []int{4, 9, 40} {
+		g := complete(t, n)
+		l := completeLayout(g, cert.Stack)
+		var buf bytes.Buffer
+		opts := Options{Title: "K_" + strconv.Itoa(n) + " <book> & pages", HighlightEdges: []int{0, 1}, HighlightVertices: []int32{0}}
+		if err := SVG(&buf, g, l, opts); err != nil {
+			t.Fatal(err)
+		}
+		arcs, legend, root := scan(t, buf.Bytes())
+		if root != "svg" {
+			t.Fatalf("root element %q", root)
+		}
+		if len(arcs) != g.M() {
+			t.Fatalf("K_%d: %d arcs for %d edges", n, len(arcs), g.M())
+		}
+		for e, c := range arcs {
+			if c != 1 || e < 0 || e >= g.M() {
+				t.Fatalf("edge %d drawn %d times", e, c)
+			}
+		}
+		for p := 1; p <= l.UsedPages(); p++ {
+			if !legend[p] {
+				t.Fatalf("legend misses page %d", p)
+			}
+		}
+		if len(legend) != l.Pages() {
+			t.Fatalf("legend lists %d pages, layout has %d", len(legend), l.Pages())
+		}
+		var again bytes.Buffer
+		_ = SVG(&again, g, l, opts)
+		if !bytes.Equal(buf.Bytes(), again.Bytes()) {
+			t.Fatal("output not deterministic")
+		}
+		if dir := os.Getenv("QUIRE_DRAW_OUT"); dir != "" {
+			_ = os.WriteFile(filepath.Join(dir, "K"+strconv.Itoa(n)+".svg"), buf.Bytes(), 0o644)
+		}
+	}
+}
+
+func TestSVGLabelsEscaped(t *testing.T) {
+	b := cert.NewBuilder()
+	u, v, w := b.Vertex("a<b"), b.Vertex(`"q"&`), b.Vertex("ünï")
+	_ = b.AddEdge(u, v)
+	_ = b.AddEdge(v, w)
+	g, _ := b.Build()
+	l := &cert.Layout{Kind: cert.Queue, PageKinds: []cert.Kind{cert.Queue}, Order: []int32{0, 1, 2}, Page: []int32{1, 1}}
+	var buf bytes.Buffer
+	if err := SVG(&buf, g, l, Options{}); err != nil {
+		t.Fatal(err)
+	}
+	arcs, legend, _ := scan(t, buf.Bytes())
+	if len(arcs) != 2 || !legend[1] {
+		t.Fatalf("arcs %v legend %v", arcs, legend)
+	}
+	if !bytes.Contains(buf.Bytes(), []byte("a&lt;b")) {
+		t.Fatal("label not escaped")
+	}
+}
+
+func TestSVGShape(t *testing.T) {
+	g := complete(t, 4)
+	good := completeLayout(g, cert.Stack)
+	bad := []*cert.Layout{
+		{Kind: cert.Stack, PageKinds: good.PageKinds, Order: good.Order[:3], Page: good.Page},
+		{Kind: cert.Stack, PageKinds: good.PageKinds, Order: []int32{0, 1, 2, 2}, Page: good.Page},
+		{Kind: cert.Stack, PageKinds: good.PageKinds, Order: good.Order, Page: append([]int32{3}, good.Page[1:]...)},
+		{Kind: cert.Stack, PageKinds: good.PageKinds, Order: good.Order, Page: good.Page[1:]},
+	}
+	for i, l := range bad {
+		if err := SVG(io.Discard, g, l, Options{}); !errors.Is(err, ErrShape) {
+			t.Errorf("layout %d: err = %v, want ErrShape", i, err)
+		}
+	}
+	if err := SVG(io.Discard, g, good, Options{HighlightEdges: []int{99}}); err == nil {
+		t.Error("highlight out of range accepted")
+	}
+}

@@ -3,6 +3,7 @@ package main
 import (
 	"fmt"
 	"io"
+	"sort"
 	"strings"
 
 	"github.com/spf13/cobra"
@@ -113,14 +114,20 @@ func printCheckReport(w io.Writer, g *cert.Graph, raw *cert.RawLayout, rep *cert
 		if rep.Used != raw.Pages {
 			fmt.Fprintf(w, " (%d declared)", raw.Pages)
 		}
-		fmt.Fprintf(w, "\n  edges per page: %s\n  graph identity: %s\n", joinInts(rep.PerPage), g.ID())
+		fmt.Fprintf(w, "\n  edges per page: %s\n  graph identity: %s\n", perPage(rep.PerPage), g.ID())
 		return
 	}
 	fmt.Fprintf(w, "layout rejected: %d problem(s) in %s for %s\n", rep.Total(), o.layout, o.graphArg)
 	for _, p := range rep.Problems {
 		fmt.Fprintf(w, "  %s: %s\n", p.Kind, p.Msg)
 	}
-	for kind, c := range rep.Counts {
+	kinds := make([]string, 0, len(rep.Counts))
+	for kind := range rep.Counts {
+		kinds = append(kinds, kind)
+	}
+	sort.Strings(kinds)
+	for _, kind := range kinds {
+		c := rep.Counts[kind]
 		kept := 0
 		for _, p := range rep.Problems {
 			if p.Kind.String() == kind {
@@ -131,6 +138,18 @@ func printCheckReport(w io.Writer, g *cert.Graph, raw *cert.RawLayout, rep *cert
 			fmt.Fprintf(w, "  … and %d more %s problem(s)\n", c-int64(kept), kind)
 		}
 	}
+}
+
+// perPage lists edge counts per page, or summarises them for many pages.
+func perPage(a []int) string {
+	if len(a) <= 16 {
+		return joinInts(a)
+	}
+	lo, hi := a[0], a[0]
+	for _, x := range a {
+		lo, hi = min(lo, x), max(hi, x)
+	}
+	return fmt.Sprintf("%d to %d on each of %d pages", lo, hi, len(a))
 }
 
 func joinInts(a []int) string {

@@ -91,10 +91,14 @@ func RunGophersatChild(args []string, stdout, stderr io.Writer) int {
 	}
 	pw := bufio.NewWriterSize(pf, 256<<10)
 	status, model := gophersatSolve(cnf, pw)
-	if err := pw.Flush(); err == nil {
+	err = pw.Flush()
+	if err == nil && args[1] != os.DevNull {
 		err = pf.Sync()
 	}
-	if err := pf.Close(); err != nil {
+	if cerr := pf.Close(); err == nil {
+		err = cerr
+	}
+	if err != nil {
 		fmt.Fprintf(stderr, "verify: gophersat child: writing proof: %v\n", err)
 		return 0
 	}

@@ -1,0 +1,209 @@
+package verify
+
+import (
+	"fmt"
+	"slices"
+
+	"quire/cert"
+)
+
+// Bound is one side of a page-number interval with the reason it holds.
+type Bound struct {
+	Pages  int    `json:"pages"`
+	Source string `json:"source"` // what establishes it (see the Source* constants)
+	Detail string `json:"detail"` // the argument, for people
+}
+
+// Sources of bounds.
+const (
+	SourceTrivial    = "trivial"              // no edges: 0 pages; some edge: at least 1
+	SourceEdgeCount  = "edge-count"           // too many edges for fewer pages
+	SourceNonPlanar  = "kuratowski"           // a checked Kuratowski subgraph
+	SourceNonOuter   = "kuratowski-apex"      // a checked Kuratowski subgraph of G plus an apex
+	SourceUnsat      = "unsat"                // checked UNSAT for one page fewer
+	SourceLayout     = "layout"               // a layout that passed cert.Validate
+	SourceBlockUnsat = "unsat-block"          // checked UNSAT for one page fewer on a block of G
+	SourceSubgraph   = "subgraph"             // inherited from a subgraph (a block)
+	sourceNone       = "none"                 // nothing better known
+	sourceCompleteKn = "complete-graph-bound" // an n-vertex graph needs at most ⌈n/2⌉ stack pages
+)
+
+// stackLowerBounds returns the best lower bound on the stack page number
+// (book thickness) of g that needs no solver, with its argument.
+//
+//   - 0 pages iff there are no edges; otherwise at least 1.
+//   - Every edge not joining spine neighbours or the two spine ends lies
+//     on some page, and one page holds at most n−3 such edges without a
+//     crossing (the diagonals of a convex n-gon), so k pages hold at most
+//     n + k(n−3) = (k+1)n − 3k edges for n ≥ 3 (Bernhart and Kainen, "The
+//     book thickness of a graph", JCTB 27, 1979; the count is derived here
+//     as stated).
+//   - Book thickness at most 2 means subhamiltonian planar and at most 1
+//     means outerplanar (Bernhart and Kainen 1979), so a checked Kuratowski
+//     subgraph of G gives 3, and one of G plus a vertex joined to all
+//     vertices (planar iff G is outerplanar: common practice) gives 2.
+func stackLowerBounds(g *cert.Graph) Bound {
+	n, m := g.N(), g.M()
+	if m == 0 {
+		return Bound{0, SourceTrivial, "no edges"}
+	}
+	best := Bound{1, SourceTrivial, "the graph has an edge"}
+	if n >= 4 {
+		// smallest k with m <= n + k(n-3)
+		k := (m - n + (n - 3) - 1) / (n - 3)
+		if k > best.Pages {
+			best = Bound{k, SourceEdgeCount, fmt.Sprintf("%d edges on %d vertices: %d pages hold at most (k+1)n-3k = %d edges", m, n, k-1, k*n-3*(k-1))}
+		}
+	}
+	if best.Pages < 3 {
+		if k, err := checkedKuratowski(g); err == nil && k != nil {
+			best = Bound{3, SourceNonPlanar, fmt.Sprintf("not planar: a %s subdivision (checked), and 2 pages need a planar graph", k.Kind)}
+		}
+	}
+	if best.Pages < 2 {
+		if h := withApex(g); h != nil {
+			if k, err := checkedKuratowski(h); err == nil && k != nil {
+				best = Bound{2, SourceNonOuter, fmt.Sprintf("not outerplanar: the graph plus a vertex joined to all has a %s subdivision (checked), and 1 page needs an outerplanar graph", k.Kind)}
+			}
+		}
+	}
+	return best
+}
+
+// stackUpperBound is ⌈n/2⌉: every graph on n vertices is a subgraph of K_n,
+// which has a ⌈n/2⌉-page stack layout (Bernhart and Kainen 1979). It is
+// used to limit the search; a layout still has to be produced and checked.
+func stackUpperBound(g *cert.Graph) int { return (g.N() + 1) / 2 }
+
+// queueLowerBound is the trivial bound: 0 pages iff there are no edges.
+func trivialLowerBound(g *cert.Graph) Bound {
+	if g.M() == 0 {
+		return Bound{0, SourceTrivial, "no edges"}
+	}
+	return Bound{1, SourceTrivial, "the graph has an edge"}
+}
+
+// checkedKuratowski returns a Kuratowski subgraph of g that passed
+// cert.CheckKuratowski, or nil when g is planar.
+func checkedKuratowski(g *cert.Graph) (*cert.Kuratowski, error) {
+	if cert.IsPlanar(g) {
+		return nil, nil
+	}
+	k, err := cert.FindKuratowski(g)
+	if err != nil {
+		return nil, err
+	}
+	if err := cert.CheckKuratowski(g, k); err != nil {
+		return nil, err
+	}
+	return k, nil
+}
+
+// withApex returns g plus one new vertex adjacent to every vertex.
+func withApex(g *cert.Graph) *cert.Graph {
+	b := cert.NewBuilder()
+	for _, l := range g.Labels() {
+		b.Vertex(l)
+	}
+	apex := "apex"
+	for i := 0; ; i++ {
+		if _, used := g.Index(apex); !used {
+			break
+		}
+		apex = fmt.Sprintf("apex%d", i)
+	}
+	a := b.Vertex(apex)
+	for v := range g.N() {
+		if b.AddEdge(a, int32(v)) != nil {
+			return nil
+		}
+	}
+	// Vertices keep their numbers: builder indices 0..n-1 are g's labels in
+	// g's order; Build renumbers canonically, which only relabels.
+	for _, e := range g.Edges() {
+		if b.AddEdge(e.U, e.V) != nil {
+			return nil
+		}
+	}
+	h, _ := b.Build()
+	return h
+}
+
+// blocks returns the vertex sets of the biconnected components of g that
+// have at least one edge, largest first (Hopcroft and Tarjan, "Efficient
+// algorithms for graph manipulation", CACM 16(6), 1973). Every layout of
+// g restricts to a layout of each block, so a block's lower bound is one
+// for g.
+func blocks(g *cert.Graph) [][]int32 {
+	n := g.N()
+	disc := make([]int32, n)
+	low := make([]int32, n)
+	for i := range disc {
+		disc[i] = -1
+	}
+	type frame struct {
+		v, parentEdge int32
+		next          int
+	}
+	var estack []int32 // edge indices
+	var out [][]int32
+	timer := int32(0)
+	edges := g.Edges()
+	for root := range int32(n) {
+		if disc[root] >= 0 {
+			continue
+		}
+		disc[root], low[root] = timer, timer
+		timer++
+		st := []frame{{root, -1, 0}}
+		for len(st) > 0 {
+			f := &st[len(st)-1]
+			nbrs, inc := g.Neighbors(f.v), g.IncidentEdges(f.v)
+			if f.next < len(nbrs) {
+				w, e := nbrs[f.next], inc[f.next]
+				f.next++
+				if e == f.parentEdge {
+					continue
+				}
+				if disc[w] < 0 {
+					estack = append(estack, e)
+					disc[w], low[w] = timer, timer
+					timer++
+					st = append(st, frame{w, e, 0})
+				} else if disc[w] < disc[f.v] {
+					estack = append(estack, e)
+					low[f.v] = min(low[f.v], disc[w])
+				}
+				continue
+			}
+			v, pe := f.v, f.parentEdge
+			st = st[:len(st)-1]
+			if len(st) == 0 {
+				continue
+			}
+			u := st[len(st)-1].v
+			low[u] = min(low[u], low[v])
+			if low[v] >= disc[u] {
+				seen := map[int32]bool{}
+				var comp []int32
+				for {
+					e := estack[len(estack)-1]
+					estack = estack[:len(estack)-1]
+					for _, x := range []int32{edges[e].U, edges[e].V} {
+						if !seen[x] {
+							seen[x] = true
+							comp = append(comp, x)
+						}
+					}
+					if e == pe {
+						break
+					}
+				}
+				slices.Sort(comp)
+				out = append(out, comp)
+			}
+		}
+	}
+	slices.SortStableFunc(out, func(a, b []int32) int { return len(b) - len(a) })
+	return out
+}

@@ -1,0 +1,280 @@
+package dimacs
+
+import (
+	"bytes"
+	"fmt"
+	"math/rand/v2"
+	"os"
+	"os/exec"
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"quire/cert"
+	"quire/internal/testtools"
+)
+
+// completeGraph returns K_n.
+func completeGraph(n int) *cert.Graph {
+	var es [][2]int
+	for i := 0; i < n; i++ {
+		for j := i + 1; j < n; j++ {
+			es = append(es, [2]int{i, j})
+		}
+	}
+	return mustGraph(n, es)
+}
+
+func mustGraph(n int, es [][2]int) *cert.Graph {
+	g, err := cert.NewNumbered(n, 0, es)
+	if err != nil {
+		panic(err)
+	}
+	return g
+}
+
+// graph6Graphs runs nauty-geng (Debian package nauty) for n vertices and
+// reads its graph6 output with cert's reader.
+func graph6Graphs(t testing.TB, n int, extra ...string) []*cert.Graph {
+	geng := testtools.Require(t, "nauty-geng", "nauty")
+	args := append([]string{"-q"}, extra...)
+	args = append(args, fmt.Sprint(n))
+	out, err := exec.Command(geng, args...).Output()
+	if err != nil {
+		t.Fatalf("nauty-geng: %v", err)
+	}
+	res, err := cert.ReadGraphs(bytes.NewReader(out), "geng.g6", cert.FormatGraph6)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return res.Graphs
+}
+
+// solveResult is cadical's answer for one CNF.
+type solveResult struct {
+	status string
+	model  []bool
+}
+
+// cadical solves the CNF with Debian's cadical and returns its answer.
+func cadical(t testing.TB, c *CNF) solveResult {
+	t.Helper()
+	bin := testtools.Require(t, "cadical", "cadical")
+	dir := t.TempDir()
+	path := filepath.Join(dir, "f.cnf")
+	var buf bytes.Buffer
+	if _, err := c.WriteTo(&buf); err != nil {
+		t.Fatal(err)
+	}
+	if err := os.WriteFile(path, buf.Bytes(), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	cmd := exec.Command(bin, "-q", path)
+	out, err := cmd.Output()
+	// cadical exits 10 (satisfiable) or 20 (unsatisfiable).
+	if ee, ok := err.(*exec.ExitError); err != nil && (!ok || (ee.ExitCode() != 10 && ee.ExitCode() != 20)) {
+		t.Fatalf("cadical: %v\n%s", err, out)
+	}
+	status, model, rerr := ReadModel(bytes.NewReader(out), "cadical")
+	if rerr != nil {
+		t.Fatalf("reading cadical output: %v", rerr)
+	}
+	if len(model) < c.Vars+1 {
+		model = append(model, make([]bool, c.Vars+1-len(model))...)
+	}
+	return solveResult{status, model}
+}
+
+// batchSAT conjoins the formulas over disjoint variables (renumbered by
+// offsets); the conjunction is satisfiable iff every formula is, and a model
+// of it restricts to a model of each. One solver call then answers them all.
+func batchSAT(t testing.TB, fs []*CNF) ([][]bool, bool) {
+	big := &CNF{}
+	offs := make([]int, len(fs))
+	for i, f := range fs {
+		offs[i] = big.Vars
+		for _, cl := range f.Clauses {
+			nc := make([]int32, len(cl))
+			for j, l := range cl {
+				if l > 0 {
+					nc[j] = l + int32(offs[i])
+				} else {
+					nc[j] = l - int32(offs[i])
+				}
+			}
+			big.Clauses = append(big.Clauses, nc)
+		}
+		big.Vars += f.Vars
+	}
+	r := cadical(t, big)
+	if r.status != StatusSat {
+		return nil, false
+	}
+	models := make([][]bool, len(fs))
+	for i, f := range fs {
+		m := make([]bool, f.Vars+1)
+		copy(m[1:], r.model[offs[i]+1:offs[i]+1+f.Vars])
+		models[i] = m
+	}
+	return models, true
+}
+
+// batchUNSAT builds the disjunction of the formulas with one selector per
+// formula: selector s_i is added negated to every clause of formula i and
+// one clause asks for some selector. The result is unsatisfiable iff every
+// formula is; when it is satisfiable, the true selector names a satisfiable
+// formula (returned, else -1).
+func batchUNSAT(t testing.TB, fs []*CNF) int {
+	big := &CNF{Vars: len(fs)}
+	sel := make([]int32, len(fs))
+	for i := range fs {
+		sel[i] = int32(i + 1)
+	}
+	big.Clauses = append(big.Clauses, sel)
+	for i, f := range fs {
+		off := int32(big.Vars)
+		for _, cl := range f.Clauses {
+			nc := make([]int32, 0, len(cl)+1)
+			nc = append(nc, -sel[i])
+			for _, l := range cl {
+				if l > 0 {
+					nc = append(nc, l+off)
+				} else {
+					nc = append(nc, l-off)
+				}
+			}
+			big.Clauses = append(big.Clauses, nc)
+		}
+		big.Vars += f.Vars
+	}
+	r := cadical(t, big)
+	if r.status == StatusUnsat {
+		return -1
+	}
+	for i := range fs {
+		if r.model[i+1] {
+			return i
+		}
+	}
+	return 0
+}
+
+// crossing and nesting by the definitions (positions of the ends).
+func crosses(a, b, c, d int) bool {
+	if a > b {
+		a, b = b, a
+	}
+	if c > d {
+		c, d = d, c
+	}
+	return (a < c && c < b && b < d) || (c < a && a < d && d < b)
+}
+
+func nests(a, b, c, d int) bool {
+	if a > b {
+		a, b = b, a
+	}
+	if c > d {
+		c, d = d, c
+	}
+	return (a < c && d < b) || (c < a && b < d)
+}
+
+// bruteNumber returns the least k such that some spine order of g admits a
+// k-colouring of the edges with no conflict (crossing for stack, nesting for
+// queue) inside a colour: the page number or queue number by definition,
+// computed over all n! spine orders.
+func bruteNumber(g *cert.Graph, kind cert.Kind) int {
+	n, m := g.N(), g.M()
+	if m == 0 {
+		return 0
+	}
+	edges := g.Edges()
+	perm := make([]int, n)
+	for i := range perm {
+		perm[i] = i
+	}
+	pos := make([]int, n)
+	best := m
+	conflict := make([][]bool, m)
+	for i := range conflict {
+		conflict[i] = make([]bool, m)
+	}
+	colour := make([]int, m)
+	var colourable func(e, k int) bool
+	colourable = func(e, k int) bool {
+		if e == m {
+			return true
+		}
+		used := 0
+		for c := 0; c < k; c++ {
+			ok := true
+			for f := 0; f < e; f++ {
+				if colour[f] == c && conflict[e][f] {
+					ok = false
+					break
+				}
+			}
+			if ok {
+				colour[e] = c
+				if colourable(e+1, k) {
+					return true
+				}
+			}
+			if c > used {
+				break // colours above the highest used are interchangeable
+			}
+			if c == used {
+				used++
+			}
+		}
+		return false
+	}
+	var rec func(i int) bool
+	rec = func(i int) bool {
+		if i == n {
+			for v, p := range perm {
+				pos[p] = v
+			}
+			for x := 0; x < m; x++ {
+				for y := 0; y < m; y++ {
+					ex, ey := edges[x], edges[y]
+					a, b, c, d := pos[ex.U], pos[ex.V], pos[ey.U], pos[ey.V]
+					if kind == cert.Stack {
+						conflict[x][y] = crosses(a, b, c, d)
+					} else {
+						conflict[x][y] = nests(a, b, c, d)
+					}
+				}
+			}
+			for best > 1 && colourable(0, best-1) {
+				best--
+			}
+			return best == 1
+		}
+		for j := i; j < n; j++ {
+			perm[i], perm[j] = perm[j], perm[i]
+			if rec(i + 1) {
+				return true
+			}
+			perm[i], perm[j] = perm[j], perm[i]
+		}
+		return false
+	}
+	rec(0)
+	return best
+}
+
+// randomTree returns a random labelled tree on n vertices.
+func randomTree(r *rand.Rand, n int) *cert.Graph {
+	var es [][2]int
+	for v := 1; v < n; v++ {
+		es = append(es, [2]int{r.IntN(v), v})
+	}
+	return mustGraph(n, es)
+}
+
+func optName(o Options) string {
+	d, _ := o.Describe()
+	return strings.ReplaceAll(d, " ", "_")
+}

@@ -1,0 +1,130 @@
+package dimacs
+
+import (
+	"errors"
+	"fmt"
+	"strings"
+
+	"quire/cert"
+)
+
+// EncoderVersion names the encoder's output. It changes whenever the CNF
+// written for some graph and options changes, so a CNF file (whose header
+// records it) can always be reproduced or rejected as foreign.
+const EncoderVersion = "quire-enc-1"
+
+// ErrTooLarge is returned when an encoding would need more variables than
+// a DIMACS CNF can name.
+var ErrTooLarge = errors.New("encoding too large")
+
+// Options selects the claim and the encoding. The zero value of every
+// reduction toggle means "on where sound", so Options{Kind: cert.Stack,
+// Pages: 2} is the default encoding of "G has a 2-page stack layout".
+type Options struct {
+	Kind      cert.Kind   // Stack, Queue or Mixed
+	Pages     int         // number of pages k
+	PageKinds []cert.Kind // kind of each page, only for Mixed
+
+	// Baseline selects the published formulation (see the package
+	// documentation) and ignores every toggle below.
+	Baseline bool
+
+	NoRotation     bool // stack only: do not fix the first vertex on the spine
+	NoReflection   bool // do not fix the relative order of one pair of vertices
+	NoPageSymmetry bool // do not restrict edge i to the first i+1 pages of each kind
+	NoBlocks       bool // stack only: do not encode biconnected components separately
+	NoLeaves       bool // stack only: keep vertices of degree one (without blocks)
+	NoIsolated     bool // keep isolated vertices in the encoding
+	NoBetweenness  bool // expand conflicts over order variables instead of betweenness variables
+	NoDirect       bool // always use same-page variables, even where direct clauses are fewer
+}
+
+// normalize checks the options and returns the page kinds.
+func (o *Options) normalize() ([]cert.Kind, error) {
+	if o.Pages < 0 {
+		return nil, fmt.Errorf("dimacs: page count %d is negative", o.Pages)
+	}
+	kinds, err := cert.PageKinds(o.Kind, o.Pages, o.PageKinds)
+	if err != nil {
+		return nil, fmt.Errorf("dimacs: %w", err)
+	}
+	return kinds, nil
+}
+
+// allStack reports whether every page is a stack page.
+func allStack(kinds []cert.Kind) bool {
+	for _, k := range kinds {
+		if k != cert.Stack {
+			return false
+		}
+	}
+	return true
+}
+
+// reductions returns the names of the reductions in effect for the page kinds.
+func (o *Options) reductions(kinds []cert.Kind) []string {
+	if o.Baseline {
+		return nil
+	}
+	var r []string
+	stack := allStack(kinds)
+	if stack && !o.NoBlocks {
+		r = append(r, "blocks")
+	}
+	if stack && o.NoBlocks && !o.NoLeaves {
+		r = append(r, "leaves")
+	}
+	if !o.NoIsolated {
+		r = append(r, "isolated")
+	}
+	if stack && !o.NoRotation {
+		r = append(r, "rotation")
+	}
+	if !o.NoReflection {
+		r = append(r, "reflection")
+	}
+	if !o.NoPageSymmetry {
+		r = append(r, "page-symmetry")
+	}
+	if !o.NoBetweenness {
+		r = append(r, "betweenness")
+	}
+	if !o.NoDirect {
+		r = append(r, "direct")
+	}
+	return r
+}
+
+// Describe returns the canonical one-line description of the options in
+// effect, as written in the CNF header, e.g. "stack pages=2 default
+// reductions=blocks,isolated,rotation,...".
+func (o Options) Describe() (string, error) {
+	kinds, err := o.normalize()
+	if err != nil {
+		return "", err
+	}
+	return o.describe(kinds), nil
+}
+
+func (o *Options) describe(kinds []cert.Kind) string {
+	var b strings.Builder
+	fmt.Fprintf(&b, "%s pages=%d", o.Kind, o.Pages)
+	if o.Kind == cert.Mixed {
+		names := make([]string, len(kinds))
+		for i, k := range kinds {
+			names[i] = k.String()
+		}
+		fmt.Fprintf(&b, " page-kinds=%s", strings.Join(names, ","))
+	}
+	if o.Baseline {
+		b.WriteString(" formulation=baseline")
+	} else {
+		b.WriteString(" formulation=default")
+		r := o.reductions(kinds)
+		if len(r) == 0 {
+			r = []string{"none"}
+		}
+		fmt.Fprintf(&b, " reductions=%s", strings.Join(r, ","))
+	}
+	return b.String()
+}

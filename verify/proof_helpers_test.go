@@ -2,6 +2,8 @@ package verify
 
 import (
 	"bytes"
+	"compress/gzip"
+	"io"
 	"context"
 	"os"
 	"os/exec"
@@ -85,4 +87,41 @@ func parseCNF(t testing.TB, s string) *dimacs.CNF {
 		t.Fatal(err)
 	}
 	return f
+}
+
+// cadicalMaybeProof runs cadical with its default (binary) proof output and
+// reports whether it said UNSAT (exit 20) or SAT (exit 10).
+func cadicalMaybeProof(t testing.TB, f *dimacs.CNF) ([]byte, bool) {
+	t.Helper()
+	bin := testtools.Require(t, "cadical", "cadical")
+	dir := t.TempDir()
+	in, out := filepath.Join(dir, "f.cnf"), filepath.Join(dir, "f.drat")
+	if err := os.WriteFile(in, cnfBytes(t, f), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	cmd := exec.Command(bin, "-q", in, out)
+	cmd.Run()
+	switch cmd.ProcessState.ExitCode() {
+	case 10:
+		return nil, false
+	case 20:
+		proof, err := os.ReadFile(out)
+		if err != nil {
+			t.Fatal(err)
+		}
+		return proof, true
+	}
+	t.Fatalf("cadical exit %d", cmd.ProcessState.ExitCode())
+	return nil, false
+}
+
+func gzipTo(t testing.TB, w io.Writer, data []byte) {
+	t.Helper()
+	z := gzip.NewWriter(w)
+	if _, err := z.Write(data); err != nil {
+		t.Fatal(err)
+	}
+	if err := z.Close(); err != nil {
+		t.Fatal(err)
+	}
 }

@@ -24,7 +24,7 @@ func TestLRATWorkedExample(t *testing.T) {
 		{"deleted hint", strings.Replace(lratExample, "7 0 5 2 6 0", "7 0 5 3 6 0", 1), "hint 3 names no current clause"},
 		{"literal flipped", strings.Replace(lratExample, "6 1 0 5 1 0", "6 -1 0 5 1 0", 1), "hint 1 is satisfied"},
 		{"no empty clause", strings.Replace(lratExample, "7 0 5 2 6 0\n", "", 1), "does not add the empty clause"},
-		{"not unit", strings.Replace(lratExample, "7 0 5 2 6 0", "7 0 1 5 2 6 0", 1), "hint 1 is not unit"},
+		{"not unit", strings.Replace(lratExample, "7 0 5 2 6 0", "7 0 2 5 6 0", 1), "hint 2 is not unit"},
 		{"id reused", strings.Replace(lratExample, "6 1 0 5 1 0", "5 1 0 5 1 0", 1), "not larger"},
 		{"bad deletion", strings.Replace(lratExample, "6 d 1 0", "6 d 9 0", 1), "deletes clause 9"},
 	}

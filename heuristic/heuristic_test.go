@@ -17,6 +17,9 @@ func checkLayout(t *testing.T, g *cert.Graph, l *cert.Layout) int {
 	if err := bruteCheck(g, l); err != nil {
 		t.Fatal(err)
 	}
+	if rep := cert.Validate(g, l); !rep.OK() {
+		t.Fatalf("cert.Validate rejects what brute force accepts: %v", rep.Err())
+	}
 	return l.Pages()
 }
 
@@ -77,6 +80,9 @@ func checkFast(t *testing.T, g *cert.Graph, l *cert.Layout) int {
 	t.Helper()
 	if err := sweepCheck(g, l); err != nil {
 		t.Fatal(err)
+	}
+	if rep := cert.Validate(g, l); !rep.OK() {
+		t.Fatalf("cert.Validate rejects what the sweep accepts: %v", rep.Err())
 	}
 	return l.Pages()
 }
@@ -321,5 +327,24 @@ func TestCheckFastAgrees(t *testing.T) {
 	}
 	if bad == 0 || bad == 300 {
 		t.Fatalf("%d of 300 random layouts invalid: the comparison needs both outcomes", bad)
+	}
+}
+
+// Larger graphs (checked by sweep and by cert.Validate): a random maximal
+// planar graph with 3·10^4 edges and a 200x200 grid.
+func TestLarge(t *testing.T) {
+	rng := rand.New(rand.NewPCG(13, 14))
+	g := randomPlanar(t, rng, 10002, 10000)
+	for _, kind := range []cert.Kind{cert.Stack, cert.Queue} {
+		l, _ := Find(g, kind, Options{Seed: 1, Candidates: 3})
+		k := checkFast(t, g, l)
+		if kind == cert.Stack && k < edgeBound(g.N(), g.M()) {
+			t.Fatalf("%d pages, below the edge bound", k)
+		}
+		t.Logf("%v: %d %s pages", g, k, kind)
+	}
+	g = grid(t, 200, 200)
+	if k := checkFast(t, g, Stack(g, Options{Candidates: 2})); k > 2 {
+		t.Errorf("grid 200x200: %d pages, want at most 2", k)
 	}
 }

@@ -46,6 +46,21 @@ func (b *Builder) Vertex(label string) int32 { return b.VertexBytes([]byte(label
 // VertexBytes is Vertex for a byte slice; the bytes are copied when a vertex is added.
 func (b *Builder) VertexBytes(label []byte) int32 {
 	if k, ok := smallNumber(label); ok {
+		return b.vertexNumber(k)
+	}
+	if v, ok := b.index[string(label)]; ok {
+		return v
+	}
+	v := int32(len(b.labels))
+	s := string(label)
+	b.labels = append(b.labels, s)
+	b.index[s] = v
+	return v
+}
+
+// vertexNumber is VertexBytes for the decimal label of k, 0 ≤ k < numFast.
+func (b *Builder) vertexNumber(k int) int32 {
+	{
 		if k < len(b.num) && b.num[k] != 0 {
 			return b.num[k] - 1
 		}
@@ -58,14 +73,6 @@ func (b *Builder) VertexBytes(label []byte) int32 {
 		b.num[k] = v + 1
 		return v
 	}
-	if v, ok := b.index[string(label)]; ok {
-		return v
-	}
-	v := int32(len(b.labels))
-	s := string(label)
-	b.labels = append(b.labels, s)
-	b.index[s] = v
-	return v
 }
 
 // Grow reserves room for m more edges. Readers call it with an estimate from

@@ -468,6 +468,10 @@ func (s *jscan) edges(raw *RawLayout) error {
 		if c != '[' {
 			return s.errf("expected an edge [u, v, page], found %q", c)
 		}
+		if e, ok := s.fastEdge(); ok {
+			raw.Edges = append(raw.Edges, e)
+			return nil
+		}
 		var e RawEdge
 		c, _ = s.skip()
 		var err error
@@ -499,6 +503,40 @@ func (s *jscan) edges(raw *RawLayout) error {
 		raw.Edges = append(raw.Edges, e)
 		return nil
 	})
+}
+
+// fastEdge parses the common shape of an edge record after its '[': three
+// small decimal integers separated by commas, without spaces, then ']'. On
+// anything else it consumes nothing and returns false, and the general
+// parser takes over.
+func (s *jscan) fastEdge() (RawEdge, bool) {
+	if len(s.data)-s.pos < 40 && !s.fill() {
+		return RawEdge{}, false
+	}
+	d, p := s.data, s.pos
+	var nums [3]int
+	for k := 0; k < 3; k++ {
+		start := p
+		n := 0
+		for p < len(d) && p-start < 7 && d[p] >= '0' && d[p] <= '9' {
+			n = n*10 + int(d[p]-'0')
+			p++
+		}
+		if p == start || p >= len(d) || (d[start] == '0' && p-start > 1) {
+			return RawEdge{}, false
+		}
+		want := byte(',')
+		if k == 2 {
+			want = ']'
+		}
+		if d[p] != want {
+			return RawEdge{}, false
+		}
+		p++
+		nums[k] = n
+	}
+	s.pos = p
+	return RawEdge{U: s.b.vertexNumber(nums[0]), V: s.b.vertexNumber(nums[1]), Page: int32(nums[2])}, true
 }
 
 // WriteLayoutJSON writes l (a layout of g) in quire's JSON layout format:

@@ -74,8 +74,8 @@ func (o *Options) reductions(kinds []cert.Kind) []string {
 	if stack && o.NoBlocks && !o.NoLeaves {
 		r = append(r, "leaves")
 	}
-	if !o.NoIsolated {
-		r = append(r, "isolated")
+	if !(stack && !o.NoBlocks) && !o.NoIsolated {
+		r = append(r, "isolated") // blocks drop isolated vertices anyway
 	}
 	if stack && !o.NoRotation {
 		r = append(r, "rotation")

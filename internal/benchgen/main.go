@@ -1,0 +1,75 @@
+// Command benchgen writes large graph and layout files for quire's speed
+// figures (scripts/bench.sh): the complete graph K_n with the classical
+// ⌈n/2⌉-page stack layout (vertex order 0..n-1, edge {a, b} on page
+// ⌊((a+b) mod 2p)/2⌋+1 with p = ⌈n/2⌉), as an edge list and a layout file.
+package main
+
+import (
+	"bufio"
+	"flag"
+	"fmt"
+	"os"
+	"strconv"
+)
+
+func main() {
+	n := flag.Int("n", 4473, "number of vertices of K_n")
+	graph := flag.String("graph", "kn.edges", "edge list to write")
+	layout := flag.String("layout", "kn.layout.json", "layout to write")
+	flag.Parse()
+	if err := write(*n, *graph, *layout); err != nil {
+		fmt.Fprintln(os.Stderr, "benchgen:", err)
+		os.Exit(1)
+	}
+}
+
+func write(n int, graphPath, layoutPath string) error {
+	gf, err := os.Create(graphPath)
+	if err != nil {
+		return err
+	}
+	defer gf.Close()
+	lf, err := os.Create(layoutPath)
+	if err != nil {
+		return err
+	}
+	defer lf.Close()
+	g, l := bufio.NewWriterSize(gf, 1<<20), bufio.NewWriterSize(lf, 1<<20)
+	p := (n + 1) / 2
+	fmt.Fprintf(l, "{\"kind\":\"stack\",\"pages\":%d,\n\"spine\":[", p)
+	for v := 0; v < n; v++ {
+		if v > 0 {
+			l.WriteByte(',')
+		}
+		l.WriteString(strconv.Itoa(v))
+	}
+	l.WriteString("],\n\"edges\":[")
+	first := true
+	var buf []byte
+	for a := 0; a < n; a++ {
+		for b := a + 1; b < n; b++ {
+			buf = strconv.AppendInt(buf[:0], int64(a), 10)
+			buf = append(buf, ' ')
+			buf = strconv.AppendInt(buf, int64(b), 10)
+			buf = append(buf, '\n')
+			g.Write(buf)
+			if !first {
+				l.WriteByte(',')
+			}
+			first = false
+			buf = append(buf[:0], "\n["...)
+			buf = strconv.AppendInt(buf, int64(a), 10)
+			buf = append(buf, ',')
+			buf = strconv.AppendInt(buf, int64(b), 10)
+			buf = append(buf, ',')
+			buf = strconv.AppendInt(buf, int64(((a+b)%(2*p))/2+1), 10)
+			buf = append(buf, ']')
+			l.Write(buf)
+		}
+	}
+	l.WriteString("]}\n")
+	if err := g.Flush(); err != nil {
+		return err
+	}
+	return l.Flush()
+}

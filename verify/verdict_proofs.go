@@ -48,9 +48,9 @@ func CheckProofs(ctx context.Context, cnf *dimacs.CNF, results []*Result, opt Pr
 }
 
 // checkOneProof runs both checkers on one result's proof.
-func checkOneProof(ctx context.Context, cnf *dimacs.CNF, r *Result, keepLRAT bool, pr *progress) ProofCheck {
+func checkOneProof(ctx context.Context, cnf *dimacs.CNF, r *Result, keepLRAT bool, pr *progress) (c ProofCheck) {
 	start := time.Now()
-	c := ProofCheck{Backend: r.Backend, Format: r.ProofFormat}
+	c = ProofCheck{Backend: r.Backend, Format: r.ProofFormat}
 	defer func() { c.Elapsed = time.Since(start) }()
 	f, err := os.Open(r.Proof)
 	if err != nil {

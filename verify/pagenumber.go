@@ -1,0 +1,155 @@
+package verify
+
+import (
+	"context"
+	"errors"
+	"fmt"
+	"path/filepath"
+	"strconv"
+	"time"
+
+	"quire/cert"
+	"quire/dimacs"
+	"quire/heuristic"
+)
+
+// ErrUndecided is returned (wrapped) by PageNumber when the bounds could
+// not be closed: a solver run ended without a verdict. The result still
+// holds the bounds that were established.
+var ErrUndecided = errors.New("page number undecided")
+
+// PageNumberOptions controls PageNumber.
+type PageNumberOptions struct {
+	Kind     cert.Kind      // cert.Stack (page number) or cert.Queue (queue number)
+	Solvers  []Solver       // backends for the SAT steps
+	Limit    time.Duration  // per backend and step (0 = none)
+	ProofDir string         // keep each step's proofs in ProofDir/pages-K ("" = discard)
+	Policy   Policy         // zero value = DefaultPolicy
+	Encoding dimacs.Options // encoding toggles; Kind and Pages are set per step
+	// UnsatLower proves the lower bound with a checked UNSAT step even
+	// when a counting or planarity argument already gives it.
+	UnsatLower bool
+	Heuristic  heuristic.Options
+	Progress   func(step int, e Event) // solver and proof events of step (pages) K; may be nil
+}
+
+// PageNumberStep is one SAT step: the claim "a layout on Pages pages".
+type PageNumberStep struct {
+	Pages   int           `json:"pages"`
+	Outcome Outcome       `json:"outcome"`
+	Verdict *GraphVerdict `json:"detail"`
+}
+
+// PageNumberResult is the page number (or queue number) with the evidence
+// for both bounds. PageNumber is -1 unless Lower == Upper.
+type PageNumberResult struct {
+	Graph      string           `json:"graph"`
+	Kind       string           `json:"kind"`
+	PageNumber int              `json:"pagenumber"`
+	Lower      Bound            `json:"lower"`
+	Upper      Bound            `json:"upper"`
+	Steps      []PageNumberStep `json:"steps,omitempty"`
+	Layout     *cert.Layout     `json:"-"` // the layout behind Upper, validated
+	Elapsed    time.Duration    `json:"elapsed_ns"`
+}
+
+// PageNumber determines the page number (Kind stack) or queue number (Kind
+// queue) of g with evidence on both sides. The upper bound is always a
+// layout that passed cert.Validate: first from package heuristic, then
+// improved by SAT steps. The lower bound comes from solver-free arguments
+// (see stackLowerBounds; also applied to every block, since a layout of g
+// restricts to one of each block) or from a checked UNSAT step for one page
+// fewer than the upper bound, decided by Decide's rules. Steps go down from
+// the upper bound, so at most one UNSAT step is needed.
+func PageNumber(ctx context.Context, g *cert.Graph, opt PageNumberOptions) (*PageNumberResult, error) {
+	start := time.Now()
+	res := &PageNumberResult{Graph: g.ID(), Kind: opt.Kind.String(), PageNumber: -1}
+	defer func() { res.Elapsed = time.Since(start) }()
+	if opt.Kind != cert.Stack && opt.Kind != cert.Queue {
+		return nil, fmt.Errorf("verify: page number of kind %s: expected stack or queue", opt.Kind)
+	}
+	// Lower bound without solvers.
+	res.Lower = trivialLowerBound(g)
+	if opt.Kind == cert.Stack && !opt.UnsatLower {
+		res.Lower = stackLowerBounds(g)
+		for _, b := range blocks(g) {
+			if len(b) < 4 || len(b) == g.N() {
+				continue
+			}
+			h, _ := g.Induced(b)
+			if lb := stackLowerBounds(h); lb.Pages > res.Lower.Pages {
+				res.Lower = Bound{lb.Pages, SourceSubgraph, fmt.Sprintf("a block of %d vertices: %s", h.N(), lb.Detail)}
+			}
+		}
+	}
+	// Upper bound from the heuristic, checked directly.
+	l, err := heuristic.Find(g, opt.Kind, opt.Heuristic)
+	if err != nil {
+		return nil, fmt.Errorf("verify: %w", err)
+	}
+	l = trimPages(l)
+	if rep := cert.Validate(g, l); !rep.OK() {
+		return nil, fmt.Errorf("verify: heuristic layout failed the direct check: %w", rep.Err())
+	}
+	res.Layout = l
+	res.Upper = Bound{l.Pages(), SourceLayout, fmt.Sprintf("heuristic layout on %d pages passed the direct check (cert.Validate)", l.Pages())}
+	if res.Lower.Pages > res.Upper.Pages {
+		return nil, fmt.Errorf("verify: lower bound %d (%s) above a checked layout on %d pages: a bound is wrong", res.Lower.Pages, res.Lower.Detail, res.Upper.Pages)
+	}
+	// SAT steps down from the upper bound.
+	for res.Lower.Pages < res.Upper.Pages {
+		k := res.Upper.Pages - 1
+		eo := opt.Encoding
+		eo.Kind, eo.Pages, eo.PageKinds = opt.Kind, k, nil
+		gopt := GraphOptions{Encoding: eo, Solvers: opt.Solvers, Limit: opt.Limit, Policy: opt.Policy, StopOnModel: true}
+		if opt.ProofDir != "" {
+			gopt.ProofDir = filepath.Join(opt.ProofDir, "pages-"+strconv.Itoa(k))
+		}
+		if opt.Progress != nil {
+			gopt.Progress = func(e Event) { opt.Progress(k, e) }
+		}
+		gv, err := DecideLayout(ctx, g, gopt)
+		if err != nil {
+			return res, err
+		}
+		res.Steps = append(res.Steps, PageNumberStep{Pages: k, Outcome: gv.Verdict.Outcome, Verdict: gv})
+		switch gv.Verdict.Outcome {
+		case Satisfiable:
+			res.Layout = trimPages(gv.Layout)
+			used := res.Layout.Pages()
+			res.Upper = Bound{used, SourceLayout, fmt.Sprintf("layout from the model of %s on %d pages passed the direct check (cert.Validate)", gv.Verdict.ModelFrom, used)}
+		case Unsatisfiable:
+			res.Lower = Bound{k + 1, SourceUnsat, fmt.Sprintf("no %s layout on %d pages: %s", opt.Kind, k, joinChecked(gv.Verdict.Checked))}
+		default:
+			why := gv.Verdict.Conflict
+			if why == "" {
+				why = "missing " + joinChecked(gv.Verdict.Missing)
+			}
+			return res, fmt.Errorf("verify: %d pages: %s: %w", k, why, ErrUndecided)
+		}
+	}
+	res.PageNumber = res.Upper.Pages
+	return res, nil
+}
+
+// trimPages drops unused trailing pages from a layout.
+func trimPages(l *cert.Layout) *cert.Layout {
+	used := l.UsedPages()
+	if used >= l.Pages() {
+		return l
+	}
+	c := *l
+	c.PageKinds = l.PageKinds[:used]
+	return &c
+}
+
+func joinChecked(s []string) string {
+	out := ""
+	for i, x := range s {
+		if i > 0 {
+			out += "; "
+		}
+		out += x
+	}
+	return out
+}

@@ -1,0 +1,128 @@
+package verify
+
+import (
+	"context"
+	"errors"
+	"fmt"
+	"os"
+	"time"
+
+	"quire/cert"
+	"quire/dimacs"
+)
+
+// GraphOptions controls DecideLayout.
+type GraphOptions struct {
+	Encoding dimacs.Options // the claim (kind, pages, page kinds) and the encoding
+	Solvers  []Solver
+	Limit    time.Duration // per backend (0 = none)
+	// ProofDir keeps the proofs (and their LRAT translations) there; when
+	// empty they go to a temporary directory that is removed afterwards.
+	ProofDir    string
+	Policy      Policy
+	StopOnModel bool        // see RunOptions
+	AllProofs   bool        // check every proof, not only as many as Policy needs
+	Progress    func(Event) // may be nil
+}
+
+// GraphVerdict is the decision about "g has a layout of this kind on K pages".
+type GraphVerdict struct {
+	Verdict  *Verdict         `json:"verdict"`
+	Results  []*Result        `json:"results"`
+	Checks   []ProofCheck     `json:"proof_checks,omitempty"`
+	Layout   *cert.Layout     `json:"-"` // a layout that passed cert.Validate (Satisfiable only)
+	Vars     int              `json:"variables"`
+	Clauses  int              `json:"clauses"`
+	Options  string           `json:"encoding"`            // the encoding, as recorded in the CNF header
+	ProofDir string           `json:"proof_dir,omitempty"` // where the proofs were kept
+	Encode   time.Duration    `json:"encode_ns"`
+	Elapsed  time.Duration    `json:"elapsed_ns"`
+	Encoded  *dimacs.Encoding `json:"-"`
+	CNF      *dimacs.CNF      `json:"-"`
+	Stats    *dimacs.Stats    `json:"-"`
+}
+
+// ErrEncoderModel is wrapped in a Verdict's Conflict when a checked model
+// decodes to a layout that fails cert.Validate: the encoding is wrong.
+var ErrEncoderModel = errors.New("model of the CNF decodes to an invalid layout")
+
+// DecideLayout encodes the claim, runs the solvers, checks the proofs of
+// UNSAT answers and decides (see Decide). A Satisfiable verdict comes with
+// a layout decoded from the model and checked directly with cert.Validate;
+// if that check fails the verdict is turned into a conflict, since the
+// claim cannot then be trusted either way.
+func DecideLayout(ctx context.Context, g *cert.Graph, opt GraphOptions) (*GraphVerdict, error) {
+	start := time.Now()
+	enc, err := dimacs.Encode(g, opt.Encoding)
+	if err != nil {
+		return nil, fmt.Errorf("verify: %w", err)
+	}
+	cnf := enc.CNF()
+	stats := enc.Stats()
+	gv := &GraphVerdict{Vars: cnf.Vars, Clauses: len(cnf.Clauses), Encode: time.Since(start), Encoded: enc, CNF: cnf, Stats: &stats}
+	if d, err := opt.Encoding.Describe(); err == nil {
+		gv.Options = d
+	}
+	policy := opt.Policy
+	if policy == (Policy{}) {
+		policy = DefaultPolicy()
+	}
+	dir := opt.ProofDir
+	if dir == "" {
+		tmp, err := os.MkdirTemp("", "quire-proofs-*")
+		if err != nil {
+			return nil, fmt.Errorf("verify: %w", err)
+		}
+		defer os.RemoveAll(tmp)
+		dir = tmp
+	} else {
+		gv.ProofDir = dir
+	}
+	gv.Results, err = RunAll(ctx, cnf, opt.Solvers, RunOptions{Limit: opt.Limit, ProofDir: dir, StopOnModel: opt.StopOnModel, Progress: opt.Progress})
+	if err != nil {
+		return nil, err
+	}
+	hasUnsat := false
+	hasSat := false
+	for _, r := range gv.Results {
+		hasUnsat = hasUnsat || r.Answer == Unsat
+		hasSat = hasSat || r.Answer == Sat
+	}
+	// Proofs matter only when there is no model: with a model beside an
+	// UNSAT claim the verdict is a conflict whatever the proof says.
+	if hasUnsat && !hasSat {
+		enough := policy.MinProofs
+		if opt.AllProofs {
+			enough = 0
+		}
+		gv.Checks = CheckProofs(ctx, cnf, gv.Results, ProofCheckOptions{Enough: enough, KeepLRAT: opt.ProofDir != "", Progress: opt.Progress})
+	}
+	v := Decide(gv.Results, gv.Checks, policy)
+	if opt.ProofDir == "" {
+		for _, r := range gv.Results {
+			r.Proof = "" // in the temporary directory, removed on return
+		}
+	}
+	gv.Verdict = v
+	if v.Outcome == Satisfiable {
+		model := make([]bool, len(v.Model)+1) // the encoder counts variables from 1
+		copy(model[1:], v.Model)
+		l, err := enc.Decode(model)
+		if err == nil {
+			if rep := cert.Validate(g, l); !rep.OK() {
+				err = rep.Err()
+			}
+		}
+		if err != nil {
+			v.Outcome = Undecided
+			v.Conflict = fmt.Sprintf("%v: model from %s: %v", ErrEncoderModel, v.ModelFrom, err)
+			v.Missing = append(v.Missing, "a model that decodes to a valid layout")
+			v.Model = nil
+		} else {
+			gv.Layout = l
+			v.Checked = append(v.Checked, fmt.Sprintf("decoded layout on %d pages passed the direct check (cert.Validate)", l.Pages()))
+		}
+	}
+	gv.Elapsed = time.Since(start)
+	return gv, nil
+}

@@ -98,17 +98,17 @@ type LayoutRecord struct {
 
 // Refutation is the evidence that no layout with Pages pages exists.
 type Refutation struct {
-	Pages     int      `json:"pages"` // K-1
-	PageKinds []string `json:"page_kinds"`
-	Encoder   Encoder  `json:"encoder"`
-	CNF       CNFEntry `json:"cnf"`
-	Runs      []Run    `json:"runs"`
-	Proofs    []Proof  `json:"proofs"`
+	Pages     int          `json:"pages"` // K-1
+	PageKinds []string     `json:"page_kinds"`
+	Encoder   EncoderEntry `json:"encoder"`
+	CNF       CNFEntry     `json:"cnf"`
+	Runs      []Run        `json:"runs"`
+	Proofs    []Proof      `json:"proofs"`
 }
 
-// Encoder records the encoder that made the CNF; Options is the encoder's
+// EncoderEntry records the encoder that made the CNF; Options is the encoder's
 // own options object, read back strictly by the encoder.
-type Encoder struct {
+type EncoderEntry struct {
 	Version string          `json:"version"`
 	Options json.RawMessage `json:"options"`
 }
@@ -367,6 +367,9 @@ func (m *Manifest) Validate() error {
 		}
 		if r.CNF.Member != "" {
 			name("refutation.cnf.member", r.CNF.Member)
+			if !strings.HasPrefix(r.CNF.Member, "cnf/") {
+				bad("refutation.cnf.member %q is not under cnf/", r.CNF.Member)
+			}
 		}
 		for i, run := range r.Runs {
 			if run.Backend == "" || !slices.Contains(answers, run.Answer) || run.Seconds < 0 {
@@ -379,6 +382,9 @@ func (m *Manifest) Validate() error {
 		for i, p := range r.Proofs {
 			f := fmt.Sprintf("refutation.proofs[%d]", i)
 			name(f+".member", p.Member)
+			if !strings.HasPrefix(p.Member, "proofs/") {
+				bad("%s.member %q is not under proofs/", f, p.Member)
+			}
 			if !slices.Contains(formats, p.Format) {
 				bad("%s.format %q is not drat, drat-binary or lrat", f, p.Format)
 			}

@@ -19,7 +19,7 @@ func sampleManifest() *Manifest {
 		Layout:      &LayoutRecord{Member: "layout.json", Pages: 4, Check: "valid"},
 		Refutation: &Refutation{
 			Pages: 3, PageKinds: []string{"stack", "stack", "stack"},
-			Encoder: Encoder{Version: "1", Options: json.RawMessage(`{ "symmetry": true }`)},
+			Encoder: EncoderEntry{Version: "1", Options: json.RawMessage(`{ "symmetry": true }`)},
 			CNF:     CNFEntry{SHA256: zeroHash, Vars: 10, Clauses: 20, Source: CNFQuire},
 			Runs:    []Run{{Backend: "cadical", Version: "1.5.3", Answer: "unsat", Seconds: 0.5}},
 			Proofs:  []Proof{{Member: "proofs/refutation.drat", Format: "drat-binary", Size: 10, SHA256: zeroHash, Checker: "quire drat", Result: ResultVerified}},

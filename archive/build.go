@@ -1,0 +1,321 @@
+package archive
+
+import (
+	"bufio"
+	"bytes"
+	"context"
+	"crypto/sha256"
+	"encoding/hex"
+	"errors"
+	"fmt"
+	"io"
+	"os"
+	"slices"
+
+	"quire/cert"
+	"quire/dimacs"
+	"quire/verify"
+)
+
+// ErrRejected is wrapped by Build when the evidence given does not hold up:
+// the layout fails the check or the proof fails a checker.
+var ErrRejected = errors.New("evidence rejected")
+
+// Member names quire gives the parts of a bundle.
+const (
+	memberCanonical  = "graph/canonical.txt"
+	memberLayout     = "layout.json"
+	memberPlanarity  = "planarity.json"
+	memberCNF        = "cnf/claim.cnf"
+	memberForeignCNF = "cnf/foreign.cnf"
+)
+
+// Evidence is what goes into a bundle.
+type Evidence struct {
+	Graph       *cert.Graph
+	Name        string      // optional short name of the graph, e.g. "K7"
+	Input       []byte      // the graph file as given
+	InputFormat cert.Format // its format (not FormatAuto)
+	Kind        cert.Kind   // Stack, Queue or Mixed
+	PageKinds   []cert.Kind // Mixed only: the K layout pages (at_most) or K-1 refuted pages (at_least)
+	Bound       string      // AtMost, AtLeast or Exact
+	K           int
+
+	Layout     *cert.Layout     // AtMost, Exact: a layout with at most K pages
+	Refutation *RefutationInput // AtLeast, Exact
+	Planarity  *cert.PlanarCert // optional
+
+	QuireVersion string
+	Tool         string
+	Created      string // RFC 3339, or "" to record no time
+	IncludeCNF   bool
+}
+
+// RefutationInput is the evidence that K-1 pages do not suffice.
+type RefutationInput struct {
+	Options     dimacs.Options // encoder options, Pages = K-1
+	Runs        []Run          // the solver runs that gave the proof (may be empty)
+	Proof       string         // path of the proof file
+	ProofFormat string         // drat, drat-binary or lrat; "" = detect
+	ForeignCNF  string         // path of a CNF made elsewhere that the proof refutes, or ""
+}
+
+func inputExt(f cert.Format) string {
+	switch f {
+	case cert.FormatDIMACS:
+		return "dimacs"
+	case cert.FormatGraph6:
+		return "g6"
+	case cert.FormatSparse6:
+		return "s6"
+	}
+	return "txt"
+}
+
+func proofExt(format string) string {
+	switch format {
+	case "drat-binary":
+		return "drat"
+	case "drat":
+		return "drat.txt"
+	}
+	return "lrat"
+}
+
+// Build checks the evidence and returns the manifest and the members of its
+// bundle (the manifest member included). The layout is validated with
+// cert.Validate; the CNF is made by enc from the graph and the recorded
+// options (or, for a foreign CNF, compared with that encoding by hash); the
+// proof is checked with CheckProof. Evidence that fails returns an error
+// wrapping ErrRejected. tmpDir holds temporary LRAT files ("" = default).
+func Build(ctx context.Context, ev *Evidence, enc Encoder, tmpDir string) (*Manifest, []Source, error) {
+	g := ev.Graph
+	m := &Manifest{
+		Format: FormatName, FormatVersion: FormatVersion,
+		QuireVersion: ev.QuireVersion, Tool: ev.Tool, Created: ev.Created,
+		Compression: Compression{Module: CompressModule, Version: CompressVersion(), Settings: Settings},
+		Claim: Claim{GraphID: g.ID(), Name: ev.Name, Vertices: g.N(), Edges: g.M(),
+			Kind: ev.Kind.String(), Bound: ev.Bound, K: ev.K},
+	}
+	if ev.Kind == cert.Mixed {
+		for _, k := range ev.PageKinds {
+			m.Claim.PageKinds = append(m.Claim.PageKinds, k.String())
+		}
+	}
+	var srcs []Source
+	add := func(s Source) { srcs = append(srcs, s) }
+
+	inputName := "graph/input." + inputExt(ev.InputFormat)
+	m.Graph = GraphFiles{Input: inputName, InputFormat: ev.InputFormat.String(), Canonical: memberCanonical}
+	if inputName == memberCanonical {
+		m.Graph.Input = "graph/input.edges.txt"
+	}
+	add(BytesSource(m.Graph.Input, ev.Input))
+	var canon bytes.Buffer
+	if err := cert.WriteEdgeList(&canon, g); err != nil {
+		return nil, nil, fmt.Errorf("archive: %w", err)
+	}
+	add(BytesSource(memberCanonical, canon.Bytes()))
+
+	if ev.Bound == AtMost || ev.Bound == Exact {
+		if ev.Layout == nil {
+			return nil, nil, fmt.Errorf("archive: a %s claim needs a layout", ev.Bound)
+		}
+		l := *ev.Layout
+		if l.Pages() > ev.K {
+			return nil, nil, fmt.Errorf("archive: the layout has %d pages, the claim is at most %d: %w", l.Pages(), ev.K, ErrRejected)
+		}
+		// A layout on fewer pages is also one on K pages: add empty pages.
+		for len(l.PageKinds) < ev.K {
+			l.PageKinds = append(slices.Clone(l.PageKinds), pad(l.Kind, ev.PageKinds, len(l.PageKinds)))
+		}
+		if rep := cert.Validate(g, &l); !rep.OK() {
+			return nil, nil, fmt.Errorf("archive: %w: %w", ErrRejected, rep.Err())
+		}
+		var lb bytes.Buffer
+		if err := cert.WriteLayoutJSON(&lb, g, &l); err != nil {
+			return nil, nil, fmt.Errorf("archive: %w", err)
+		}
+		add(BytesSource(memberLayout, lb.Bytes()))
+		m.Layout = &LayoutRecord{Member: memberLayout, Pages: ev.K, Check: "valid"}
+	}
+	if ev.Bound == AtLeast || ev.Bound == Exact {
+		r, ss, err := buildRefutation(ctx, ev, enc, tmpDir)
+		if err != nil {
+			return nil, nil, err
+		}
+		m.Refutation = r
+		srcs = append(srcs, ss...)
+	}
+	if ev.Planarity != nil {
+		if err := cert.CheckPlanarCert(g, ev.Planarity); err != nil {
+			return nil, nil, fmt.Errorf("archive: planarity certificate: %w: %w", ErrRejected, err)
+		}
+		var pb bytes.Buffer
+		if err := cert.WritePlanarCert(&pb, g, ev.Planarity); err != nil {
+			return nil, nil, fmt.Errorf("archive: %w", err)
+		}
+		add(BytesSource(memberPlanarity, pb.Bytes()))
+		m.Planarity = &PlanarityEntry{Member: memberPlanarity, Planar: ev.Planarity.Planar}
+	}
+	for _, s := range srcs {
+		m.Members = append(m.Members, s.Name)
+	}
+	slices.Sort(m.Members)
+	if err := m.Validate(); err != nil {
+		return nil, nil, fmt.Errorf("archive: the manifest would be invalid: %w", err)
+	}
+	mb, err := m.Marshal()
+	if err != nil {
+		return nil, nil, err
+	}
+	return m, append(srcs, BytesSource(ManifestName, mb)), nil
+}
+
+// pad returns the kind of added page i of a layout of kind k.
+func pad(k cert.Kind, mixed []cert.Kind, i int) cert.Kind {
+	if k == cert.Mixed && i < len(mixed) {
+		return mixed[i]
+	}
+	if k == cert.Mixed {
+		return cert.Stack
+	}
+	return k
+}
+
+func hashFile(path string) (string, int64, error) {
+	f, err := os.Open(path)
+	if err != nil {
+		return "", 0, fmt.Errorf("archive: %w", err)
+	}
+	defer f.Close()
+	h := sha256.New()
+	n, err := io.Copy(h, f)
+	if err != nil {
+		return "", 0, fmt.Errorf("archive: %w", err)
+	}
+	return hex.EncodeToString(h.Sum(nil)), n, nil
+}
+
+func buildRefutation(ctx context.Context, ev *Evidence, enc Encoder, tmpDir string) (*Refutation, []Source, error) {
+	in := ev.Refutation
+	if in == nil {
+		return nil, nil, fmt.Errorf("archive: a %s claim needs a refutation", ev.Bound)
+	}
+	opt := in.Options
+	if opt.Pages != ev.K-1 {
+		return nil, nil, fmt.Errorf("archive: the refutation is of %d pages, the claim needs %d", opt.Pages, ev.K-1)
+	}
+	kinds, err := cert.PageKinds(opt.Kind, opt.Pages, opt.PageKinds)
+	if err != nil {
+		return nil, nil, fmt.Errorf("archive: %w", err)
+	}
+	optJSON, err := MarshalEncoderOptions(opt)
+	if err != nil {
+		return nil, nil, err
+	}
+	cnf, err := enc.Encode(ev.Graph, opt)
+	if err != nil {
+		return nil, nil, fmt.Errorf("archive: encoding the claim: %w", err)
+	}
+	text, sum, err := CNFText(cnf)
+	if err != nil {
+		return nil, nil, err
+	}
+	r := &Refutation{Pages: opt.Pages, Encoder: EncoderEntry{Version: enc.Version(), Options: optJSON}, Runs: in.Runs}
+	for _, k := range kinds {
+		r.PageKinds = append(r.PageKinds, k.String())
+	}
+	r.CNF = CNFEntry{SHA256: sum, Vars: cnf.Vars, Clauses: len(cnf.Clauses), Source: CNFQuire}
+	var srcs []Source
+	checkAgainst := cnf
+	if in.ForeignCNF != "" {
+		fsum, _, err := hashFile(in.ForeignCNF)
+		if err != nil {
+			return nil, nil, err
+		}
+		if fsum != sum {
+			foreign, err := dimacs.ReadCNFFile(in.ForeignCNF, dimacs.ReadOptions{})
+			if err != nil {
+				return nil, nil, fmt.Errorf("archive: %w", err)
+			}
+			src, err := FileSource(memberForeignCNF, in.ForeignCNF)
+			if err != nil {
+				return nil, nil, err
+			}
+			srcs = append(srcs, src)
+			r.CNF = CNFEntry{SHA256: fsum, Vars: foreign.Vars, Clauses: len(foreign.Clauses), Source: CNFForeign, Member: memberForeignCNF}
+			checkAgainst = foreign
+		}
+	}
+	if ev.IncludeCNF && r.CNF.Source == CNFQuire {
+		srcs = append(srcs, BytesSource(memberCNF, text))
+		r.CNF.Member = memberCNF
+	}
+	format := in.ProofFormat
+	if format == "" || format == verify.ProofRUP {
+		format, err = detectFormat(in.Proof)
+		if err != nil {
+			return nil, nil, err
+		}
+	}
+	f, err := os.Open(in.Proof)
+	if err != nil {
+		return nil, nil, fmt.Errorf("archive: %w", err)
+	}
+	defer f.Close()
+	psum := sha256.New()
+	out := CheckProof(ctx, checkAgainst, io.TeeReader(bufio.NewReaderSize(f, 1<<20), psum), in.Proof, format, tmpDir)
+	if err := ctx.Err(); err != nil {
+		return nil, nil, err
+	}
+	if out.Err != nil {
+		return nil, nil, fmt.Errorf("archive: checking %s: %w", in.Proof, out.Err)
+	}
+	if !out.OK() {
+		return nil, nil, fmt.Errorf("archive: %s: %s: %w", in.Proof, out.Detail, ErrRejected)
+	}
+	// The checker may stop before the end of the proof (after the empty clause).
+	if _, err := io.Copy(psum, f); err != nil {
+		return nil, nil, fmt.Errorf("archive: %w", err)
+	}
+	src, err := FileSource("proofs/refutation."+proofExt(format), in.Proof)
+	if err != nil {
+		return nil, nil, err
+	}
+	srcs = append(srcs, src)
+	checker := CheckerDRAT
+	if format == "lrat" {
+		checker = CheckerLRAT
+	}
+	r.Proofs = []Proof{{Member: src.Name, Format: format, Size: src.Size, SHA256: hex.EncodeToString(psum.Sum(nil)),
+		Checker: checker, Result: ResultVerified}}
+	return r, srcs, nil
+}
+
+func detectFormat(path string) (string, error) {
+	f, err := os.Open(path)
+	if err != nil {
+		return "", fmt.Errorf("archive: %w", err)
+	}
+	defer f.Close()
+	head := make([]byte, 1024)
+	n, _ := io.ReadFull(f, head)
+	if verify.DetectProofFormat(head[:n]) == verify.ProofDRAT && isLRATHead(head[:n]) {
+		return "lrat", nil
+	}
+	return verify.DetectProofFormat(head[:n]), nil
+}
+
+// isLRATHead reports whether the first line of a text proof looks like an
+// LRAT step: an id, literals, 0, hints, 0 (two zeros on the line).
+func isLRATHead(b []byte) bool {
+	line, _, _ := bytes.Cut(b, []byte{'\n'})
+	zeros := 0
+	for _, f := range bytes.Fields(line) {
+		if string(f) == "0" {
+			zeros++
+		}
+	}
+	return zeros >= 2
+}

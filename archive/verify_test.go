@@ -1,0 +1,62 @@
+package archive
+
+import (
+	"bytes"
+	"strings"
+	"testing"
+
+	"quire/cert"
+)
+
+func failNames(r *Report) string {
+	var s []string
+	for _, c := range r.Failures() {
+		s = append(s, c.Name+": "+c.Detail)
+	}
+	return strings.Join(s, "\n")
+}
+
+// Round trips over stack, queue and mixed claims and all three bounds.
+// Values: bt(K5) = 3 (Bernhart and Kainen, "The book thickness of a graph",
+// JCTB 27, 1979); queue number of K_n is floor(n/2), so K5 has 2 (Heath and
+// Rosenberg, "Laying out graphs using queues", SIAM J. Comput. 21, 1992;
+// from memory). The mixed claims are about one stack and one queue page:
+// K5 is not planar, so one stack page (outerplanar) is not enough either.
+func TestRoundTrip(t *testing.T) {
+	k5 := complete(t, 5)
+	tests := []struct {
+		name  string
+		kind  cert.Kind
+		pk    []cert.Kind
+		bound string
+		k     int
+	}{
+		{"stack exact", cert.Stack, nil, Exact, 3},
+		{"stack at most", cert.Stack, nil, AtMost, 3},
+		{"stack at least", cert.Stack, nil, AtLeast, 3},
+		{"queue exact", cert.Queue, nil, Exact, 2},
+		{"queue at least", cert.Queue, nil, AtLeast, 2},
+		{"mixed at most", cert.Mixed, []cert.Kind{cert.Stack, cert.Queue}, AtMost, 2},
+		{"mixed at least", cert.Mixed, []cert.Kind{cert.Stack}, AtLeast, 2},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			ev := evidence(t, k5, "K5", tc.kind, tc.pk, tc.bound, tc.k)
+			b := bundleBytes(t, ev)
+			r := verifyBytes(b, VerifyOptions{})
+			if !r.Verified {
+				t.Fatalf("not verified:\n%s", failNames(r))
+			}
+			for _, c := range r.Checks {
+				t.Logf("%s %s: %s", c.Status, c.Name, c.Detail)
+			}
+			if !strings.Contains(r.Claim, "K5") {
+				t.Errorf("claim %q", r.Claim)
+			}
+			// The same evidence gives the same bytes.
+			if b2 := bundleBytes(t, ev); !bytes.Equal(b, b2) {
+				t.Error("two bundles of the same evidence differ")
+			}
+		})
+	}
+}

@@ -7,6 +7,8 @@ import (
 	"io"
 	"os"
 	"path/filepath"
+	"slices"
+	"strconv"
 	"strings"
 )
 
@@ -66,21 +68,12 @@ func ReadGraphFile(path string, f Format) (*ReadResult, error) {
 		return nil, fmt.Errorf("cert: %w", err)
 	}
 	defer file.Close()
-	hint := 0
-	if st, err := file.Stat(); err == nil && st.Mode().IsRegular() {
-		hint = int(st.Size() / 4) // an edge-list line takes at least 4 bytes: "u v\n"
-	}
-	return readGraphs(file, path, f, hint)
+	return ReadGraphs(file, path, f)
 }
 
 // ReadGraphs reads one or more graphs from r; name is used in messages and
 // its extension as a format hint when f is FormatAuto.
 func ReadGraphs(r io.Reader, name string, f Format) (*ReadResult, error) {
-	return readGraphs(r, name, f, 0)
-}
-
-// readGraphs is ReadGraphs with room reserved for edgeHint edges.
-func readGraphs(r io.Reader, name string, f Format, edgeHint int) (*ReadResult, error) {
 	br := bufio.NewReaderSize(r, 1<<20)
 	if f == FormatAuto {
 		head, _ := br.Peek(detectPeek)
@@ -91,7 +84,7 @@ func readGraphs(r io.Reader, name string, f Format, edgeHint int) (*ReadResult, 
 	switch f {
 	case FormatEdgeList:
 		var g *Graph
-		g, err = readEdgeList(br, name, res, edgeHint)
+		g, err = readEdgeList(br, name, res)
 		if g != nil {
 			res.Graphs = []*Graph{g}
 		}
@@ -214,63 +207,340 @@ func looksDIMACS(rest []byte) bool {
 
 // readEdgeList reads an edge list: one edge per line as two whitespace-separated
 // labels, or one label for an isolated vertex; '#' and '%' start comments.
-func readEdgeList(br *bufio.Reader, name string, res *ReadResult, edgeHint int) (*Graph, error) {
-	b := NewBuilder()
-	b.Grow(edgeHint)
-	line := 0
-	for {
-		raw, err := br.ReadSlice('\n')
-		if err == bufio.ErrBufferFull {
-			return nil, &ParseError{File: name, Line: line + 1, Msg: "line longer than 1 MiB"}
-		}
-		if len(raw) == 0 && err != nil {
-			if err == io.EOF {
-				break
-			}
+//
+// While every label is a canonical decimal below edgeListFast, lines of the
+// form "NUM NUM" are parsed in place from large chunks and the edges kept as
+// pairs of numbers; the graph is then built without hashing or sorting
+// labels. The first other label moves everything into a Builder.
+func readEdgeList(br *bufio.Reader, name string, res *ReadResult) (*Graph, error) {
+	st := &edgeListReader{name: name, maxv: -1}
+	buf := make([]byte, 1<<20)
+	fill, line := 0, 0
+	for eof := false; !eof; {
+		nr, err := io.ReadFull(br, buf[fill:])
+		fill += nr
+		switch err {
+		case nil:
+		case io.EOF, io.ErrUnexpectedEOF:
+			eof = true
+		default:
 			return nil, &ParseError{File: name, Line: line + 1, Msg: err.Error()}
 		}
-		line++
-		if i := bytes.IndexAny(raw, "#%"); i >= 0 {
-			raw = raw[:i]
-		}
-		var tok [3][]byte
-		var col [3]int
-		nt := 0
-		for i := 0; i < len(raw) && nt < 3; {
-			for i < len(raw) && isSpace(raw[i]) {
-				i++
+		data := buf[:fill]
+		end := len(data)
+		if !eof {
+			end = bytes.LastIndexByte(data, '\n') + 1
+			if end == 0 {
+				return nil, &ParseError{File: name, Line: line + 1, Msg: "line longer than 1 MiB"}
 			}
-			if i == len(raw) {
-				break
-			}
-			j := i
-			for j < len(raw) && !isSpace(raw[j]) {
-				j++
-			}
-			tok[nt], col[nt] = raw[i:j], i+1
-			nt++
-			i = j
 		}
-		switch nt {
-		case 0:
-		case 1:
-			b.VertexBytes(tok[0])
-		case 2:
-			u, v := b.VertexBytes(tok[0]), b.VertexBytes(tok[1])
-			if u == v {
-				return nil, &ParseError{File: name, Line: line, Col: col[1], Msg: fmt.Sprintf("self-loop at vertex %q (quire graphs are simple)", tok[0])}
-			}
-			_ = b.AddEdge(u, v)
-		default:
-			return nil, &ParseError{File: name, Line: line, Col: col[2], Msg: "expected one or two vertex labels, found more"}
+		var perr error
+		if line, perr = st.chunk(data[:end], line); perr != nil {
+			return nil, perr
 		}
-		if err == io.EOF {
-			break
-		}
+		fill = copy(buf, data[end:])
 	}
-	g, rep := b.Build()
+	g, rep := st.build()
 	res.Warnings = append(res.Warnings, duplicateWarnings(name, rep)...)
 	return g, nil
+}
+
+// edgeListFast bounds the numeric labels of the fast edge-list path.
+const edgeListFast = 1 << 24
+
+// edgeListReader holds an edge list being read: numbers while b is nil,
+// Builder vertices afterwards.
+type edgeListReader struct {
+	name    string
+	b       *Builder
+	pairs   []uint64   // u<<32|v label values while b is nil, the current block
+	full    [][]uint64 // earlier blocks of pairs
+	singles []uint32   // labels of one-label lines while b is nil
+	maxv    int
+}
+
+// fastNum parses a canonical decimal below edgeListFast at d[p].
+func fastNum(d []byte, p int) (int, int, bool) {
+	if p >= len(d) || d[p]-'0' > 9 {
+		return 0, p, false
+	}
+	if d[p] == '0' {
+		return 0, p + 1, p+1 == len(d) || d[p+1]-'0' > 9
+	}
+	v, q := 0, p
+	for q < len(d) && d[q]-'0' <= 9 {
+		if q-p == 8 {
+			return 0, q, false
+		}
+		v = v*10 + int(d[q]-'0')
+		q++
+	}
+	return v, q, v < edgeListFast
+}
+
+// chunk reads the complete lines in d; line is the number of lines before.
+func (st *edgeListReader) chunk(d []byte, line int) (int, error) {
+	for p := 0; p < len(d); {
+		line++
+		if st.b == nil {
+			q := p
+			for q < len(d) && (d[q] == ' ' || d[q] == '\t') {
+				q++
+			}
+			u, q, ok := fastNum(d, q)
+			if ok && q < len(d) && (d[q] == ' ' || d[q] == '\t') {
+				for q < len(d) && (d[q] == ' ' || d[q] == '\t') {
+					q++
+				}
+				vstart := q
+				var v int
+				v, q, ok = fastNum(d, q)
+				for ok && q < len(d) && (d[q] == ' ' || d[q] == '\t' || d[q] == '\r') {
+					q++
+				}
+				if ok && (q == len(d) || d[q] == '\n') {
+					if u == v {
+						return line, &ParseError{File: st.name, Line: line, Col: vstart - p + 1, Msg: fmt.Sprintf("self-loop at vertex %q (quire graphs are simple)", strconv.Itoa(u))}
+					}
+					st.maxv = max(st.maxv, u, v)
+					if len(st.pairs) == cap(st.pairs) {
+						st.newBlock()
+					}
+					st.pairs = append(st.pairs, uint64(u)<<32|uint64(v))
+					p = q + 1
+					continue
+				}
+			}
+		}
+		raw := d[p:]
+		if i := bytes.IndexByte(raw, '\n'); i >= 0 {
+			raw, p = raw[:i], p+i+1
+		} else {
+			p = len(d)
+		}
+		if err := st.general(raw, line); err != nil {
+			return line, err
+		}
+	}
+	return line, nil
+}
+
+// general reads one line of any form.
+func (st *edgeListReader) general(raw []byte, line int) error {
+	if i := bytes.IndexAny(raw, "#%"); i >= 0 {
+		raw = raw[:i]
+	}
+	var tok [3][]byte
+	var col [3]int
+	nt := 0
+	for i := 0; i < len(raw) && nt < 3; {
+		for i < len(raw) && isSpace(raw[i]) {
+			i++
+		}
+		if i == len(raw) {
+			break
+		}
+		j := i
+		for j < len(raw) && !isSpace(raw[j]) {
+			j++
+		}
+		tok[nt], col[nt] = raw[i:j], i+1
+		nt++
+		i = j
+	}
+	if nt == 3 {
+		return &ParseError{File: st.name, Line: line, Col: col[2], Msg: "expected one or two vertex labels, found more"}
+	}
+	if nt == 2 && bytes.Equal(tok[0], tok[1]) {
+		return &ParseError{File: st.name, Line: line, Col: col[1], Msg: fmt.Sprintf("self-loop at vertex %q (quire graphs are simple)", tok[0])}
+	}
+	var num [2]int
+	if st.b == nil {
+		for k := 0; k < nt; k++ {
+			v, q, ok := fastNum(tok[k], 0)
+			if !ok || q != len(tok[k]) {
+				st.toBuilder()
+				break
+			}
+			num[k] = v
+		}
+	}
+	switch {
+	case nt == 0:
+	case st.b != nil && nt == 1:
+		st.b.VertexBytes(tok[0])
+	case st.b != nil:
+		_ = st.b.AddEdge(st.b.VertexBytes(tok[0]), st.b.VertexBytes(tok[1]))
+	case nt == 1:
+		st.maxv = max(st.maxv, num[0])
+		st.singles = append(st.singles, uint32(num[0]))
+	default:
+		st.maxv = max(st.maxv, num[0], num[1])
+		if len(st.pairs) == cap(st.pairs) {
+			st.newBlock()
+		}
+		st.pairs = append(st.pairs, uint64(num[0])<<32|uint64(num[1]))
+	}
+	return nil
+}
+
+// edgeBlock is the size of the blocks pairs are collected in: growing one
+// slice by doubling would copy and fault in far more memory.
+const edgeBlock = 1 << 16
+
+// newBlock starts a new block of pairs.
+func (st *edgeListReader) newBlock() {
+	if len(st.pairs) > 0 {
+		st.full = append(st.full, st.pairs)
+	}
+	st.pairs = make([]uint64, 0, edgeBlock)
+}
+
+// allPairs returns every pair collected, in one slice.
+func (st *edgeListReader) allPairs() []uint64 {
+	if len(st.full) == 0 {
+		return st.pairs
+	}
+	m := len(st.pairs)
+	for _, b := range st.full {
+		m += len(b)
+	}
+	all := make([]uint64, 0, m)
+	for i, b := range st.full {
+		all = append(all, b...)
+		st.full[i] = nil
+	}
+	all = append(all, st.pairs...)
+	st.full, st.pairs = nil, nil
+	return all
+}
+
+// toBuilder moves the numbers read so far into a Builder.
+func (st *edgeListReader) toBuilder() {
+	b := NewBuilder()
+	var buf []byte
+	vertex := func(x uint64) int32 {
+		buf = strconv.AppendUint(buf[:0], x, 10)
+		return b.VertexBytes(buf)
+	}
+	for _, s := range st.singles {
+		vertex(uint64(s))
+	}
+	for _, p := range st.allPairs() {
+		_ = b.AddEdge(vertex(p>>32), vertex(p&0xffffffff))
+	}
+	st.b, st.singles = b, nil
+}
+
+// build returns the graph read.
+func (st *edgeListReader) build() (*Graph, BuildReport) {
+	if st.b != nil {
+		return st.b.Build()
+	}
+	blocks := append(st.full, st.pairs)
+	st.full, st.pairs = nil, nil
+	// rank[x] is the vertex of label x: numbers in increasing order are in
+	// canonical label order.
+	rank := make([]int32, st.maxv+1)
+	for _, s := range st.singles {
+		rank[s] = 1
+	}
+	m := 0
+	for _, b := range blocks {
+		m += len(b)
+		for _, p := range b {
+			rank[p>>32], rank[p&0xffffffff] = 1, 1
+		}
+	}
+	var digits []byte
+	var ends []int
+	n := int32(0)
+	for x, r := range rank {
+		if r == 0 {
+			continue
+		}
+		rank[x] = n
+		n++
+		digits = strconv.AppendInt(digits, int64(x), 10)
+		ends = append(ends, len(digits))
+	}
+	all := string(digits)
+	labels := make([]string, n)
+	prev := 0
+	for i, e := range ends {
+		labels[i], prev = all[prev:e], e
+	}
+	// Bucket the edges by smaller end (counting sort), then sort each
+	// bucket by larger end and drop repeats.
+	start := make([]int32, n+1)
+	for _, b := range blocks {
+		for i, p := range b {
+			u, v := uint64(rank[p>>32]), uint64(rank[p&0xffffffff])
+			if u > v {
+				u, v = v, u
+			}
+			b[i] = u<<32 | v
+			start[u+1]++
+		}
+	}
+	for u := int32(0); u < n; u++ {
+		start[u+1] += start[u]
+	}
+	edges := make([]Edge, m)
+	fill := slices.Clone(start[:n])
+	for k, b := range blocks {
+		for _, p := range b {
+			u := p >> 32
+			edges[fill[u]] = Edge{int32(u), int32(p & 0xffffffff)}
+			fill[u]++
+		}
+		blocks[k] = nil
+	}
+	var rep BuildReport
+	w := 0
+	for u := int32(0); u < n; u++ {
+		seg := edges[start[u]:start[u+1]]
+		if len(seg) <= 12 {
+			for i := 1; i < len(seg); i++ {
+				for j := i; j > 0 && seg[j].V < seg[j-1].V; j-- {
+					seg[j], seg[j-1] = seg[j-1], seg[j]
+				}
+			}
+		} else {
+			slices.SortFunc(seg, func(a, b Edge) int { return int(a.V - b.V) })
+		}
+		for i, e := range seg {
+			if i > 0 && seg[i-1].V == e.V {
+				rep.Duplicates++
+				if len(rep.Examples) < 10 {
+					rep.Examples = append(rep.Examples, [2]string{labels[e.U], labels[e.V]})
+				}
+				continue
+			}
+			edges[w] = e
+			w++
+		}
+	}
+	return newGraph(labels, edges[:w]), rep
+}
+
+// graphFromPairs builds the graph over labels (in canonical order) from
+// vertex pairs u<<32|v with u < v, merging repeats.
+func graphFromPairs(labels []string, pairs []uint64) (*Graph, BuildReport) {
+	radixSort64(pairs, len(labels))
+	var rep BuildReport
+	edges := make([]Edge, 0, len(pairs))
+	for i, p := range pairs {
+		if i > 0 && pairs[i-1] == p {
+			rep.Duplicates++
+			if len(rep.Examples) < 10 {
+				rep.Examples = append(rep.Examples, [2]string{labels[p>>32], labels[p&0xffffffff]})
+			}
+			continue
+		}
+		edges = append(edges, Edge{int32(p >> 32), int32(p & 0xffffffff)})
+	}
+	return newGraph(labels, edges), rep
 }
 
 func isSpace(c byte) bool {

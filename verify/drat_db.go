@@ -222,8 +222,6 @@ func (d *dratDB) hashRemove(c int) {
 	}
 }
 
-func (d *dratDB) val(l uint32) int8 { return d.vals[l] }
-
 func (d *dratDB) assign(l uint32, reason int) {
 	d.vals[l] = 1
 	d.vals[l^1] = -1

@@ -16,16 +16,14 @@ type Bound struct {
 
 // Sources of bounds.
 const (
-	SourceTrivial    = "trivial"              // no edges: 0 pages; some edge: at least 1
-	SourceEdgeCount  = "edge-count"           // too many edges for fewer pages
-	SourceNonPlanar  = "kuratowski"           // a checked Kuratowski subgraph
-	SourceNonOuter   = "kuratowski-apex"      // a checked Kuratowski subgraph of G plus an apex
-	SourceUnsat      = "unsat"                // checked UNSAT for one page fewer
-	SourceLayout     = "layout"               // a layout that passed cert.Validate
-	SourceBlockUnsat = "unsat-block"          // checked UNSAT for one page fewer on a block of G
-	SourceSubgraph   = "subgraph"             // inherited from a subgraph (a block)
-	sourceNone       = "none"                 // nothing better known
-	sourceCompleteKn = "complete-graph-bound" // an n-vertex graph needs at most ⌈n/2⌉ stack pages
+	SourceTrivial    = "trivial"         // no edges: 0 pages; some edge: at least 1
+	SourceEdgeCount  = "edge-count"      // too many edges for fewer pages
+	SourceNonPlanar  = "kuratowski"      // a checked Kuratowski subgraph
+	SourceNonOuter   = "kuratowski-apex" // a checked Kuratowski subgraph of G plus an apex
+	SourceUnsat      = "unsat"           // checked UNSAT for one page fewer
+	SourceLayout     = "layout"          // a layout that passed cert.Validate
+	SourceBlockUnsat = "unsat-block"     // checked UNSAT for one page fewer on a block of G
+	SourceSubgraph   = "subgraph"        // inherited from a subgraph (a block)
 )
 
 // stackLowerBounds returns the best lower bound on the stack page number
@@ -70,12 +68,7 @@ func stackLowerBounds(g *cert.Graph) Bound {
 	return best
 }
 
-// stackUpperBound is ⌈n/2⌉: every graph on n vertices is a subgraph of K_n,
-// which has a ⌈n/2⌉-page stack layout (Bernhart and Kainen 1979). It is
-// used to limit the search; a layout still has to be produced and checked.
-func stackUpperBound(g *cert.Graph) int { return (g.N() + 1) / 2 }
-
-// queueLowerBound is the trivial bound: 0 pages iff there are no edges.
+// trivialLowerBound is the trivial bound: 0 pages iff there are no edges.
 func trivialLowerBound(g *cert.Graph) Bound {
 	if g.M() == 0 {
 		return Bound{0, SourceTrivial, "no edges"}

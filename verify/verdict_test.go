@@ -15,7 +15,9 @@ func TestDecide(t *testing.T) {
 	suspect := func(b string) *Result {
 		return &Result{Backend: b, Suspect: true, Detail: "WRONG MODEL: " + b + " claimed SAT"}
 	}
-	good := func(b string) ProofCheck { return ProofCheck{Backend: b, Format: "drat", DRAT: true, LRAT: true, Lemmas: 9, Core: 4} }
+	good := func(b string) ProofCheck {
+		return ProofCheck{Backend: b, Format: "drat", DRAT: true, LRAT: true, Lemmas: 9, Core: 4}
+	}
 	dratOnly := func(b string) ProofCheck { return ProofCheck{Backend: b, DRAT: true} }
 	bad := func(b string) ProofCheck { return ProofCheck{Backend: b, Error: "lemma 3 is not RUP"} }
 	tests := []struct {

@@ -106,7 +106,7 @@ func (k *dratChecker) checkLemma(c int) string {
 	}
 	defer func() {
 		k.backtrack(save)
-		k.head = save
+		k.head, k.headCore = save, save
 		k.conflict = noClause
 		for _, l := range k.lits(c) {
 			k.asm[l>>1] = false
@@ -225,7 +225,7 @@ func (k *dratChecker) checkResolvent(d int, p uint32, hints []int, want bool) ([
 		}
 	}
 	k.backtrack(save)
-	k.head = save
+	k.head, k.headCore = save, save
 	k.conflict = noClause
 	for _, v := range flagged {
 		k.asm[v] = false

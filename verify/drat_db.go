@@ -24,18 +24,19 @@ type clause struct {
 }
 
 type dratDB struct {
-	arena   []uint32
-	cls     []clause
-	vals    []int8  // per literal: 1 true, -1 false, 0 unassigned
-	reason  []int   // per variable: clause that implied it, noClause for none
-	pos     []int32 // per variable: index in trail
-	asm     []bool  // per variable: belongs to the clause being checked
-	seen    []bool  // per variable: scratch for conflict analysis
-	mark    []bool  // per literal: scratch for deduplication and matching
-	watches [][]int // per literal: clauses watching it
-	trail   []uint32
-	head    int
-	units   []int // clauses of one literal (they are watched on it alone)
+	arena    []uint32
+	cls      []clause
+	vals     []int8  // per literal: 1 true, -1 false, 0 unassigned
+	reason   []int   // per variable: clause that implied it, noClause for none
+	pos      []int32 // per variable: index in trail
+	asm      []bool  // per variable: belongs to the clause being checked
+	seen     []bool  // per variable: scratch for conflict analysis
+	mark     []bool  // per literal: scratch for deduplication and matching
+	watches  [][]int // per literal: clauses watching it
+	trail    []uint32
+	head     int   // next trail literal for all clauses
+	headCore int   // next trail literal for core clauses
+	units    []int // clauses of one literal (they are watched on it alone)
 
 	buckets []int // hash heads, length a power of two
 	live    int   // clauses in the hash index
@@ -239,6 +240,7 @@ func (d *dratDB) backtrack(to int) {
 	}
 	d.trail = d.trail[:to]
 	d.head = min(d.head, to)
+	d.headCore = min(d.headCore, to)
 }
 
 // isReason reports whether clause c is the reason of a current assignment.
@@ -317,60 +319,86 @@ func (d *dratDB) detach(c int) {
 }
 
 // propagate runs unit propagation from d.head; on a conflict it sets
-// d.conflict and returns false.
+// d.conflict and returns false. Clauses already marked core are propagated
+// first (drat-trim does the same): every other clause waits until the core
+// ones are exhausted, which keeps the set of clauses a check uses, and so
+// the core, small.
 func (d *dratDB) propagate() bool {
-	for d.head < len(d.trail) {
-		f := d.trail[d.head] ^ 1 // the literal that just became false
-		d.head++
-		d.propagations++
-		ws := d.watches[f]
-		i, j := 0, 0
-		for i < len(ws) {
-			c := ws[i]
-			i++
-			cl := &d.cls[c]
-			ls := d.arena[cl.off : cl.off+int(cl.n)]
-			if len(ls) == 1 {
-				ws[j] = c
-				j++
-				d.conflict = c
-				copy(ws[j:], ws[i:])
-				d.watches[f] = ws[:j+len(ws)-i]
+	for {
+		for d.headCore < len(d.trail) {
+			f := d.trail[d.headCore] ^ 1
+			d.headCore++
+			if !d.propagateLit(f, true) {
 				return false
 			}
-			if ls[0] == f {
-				ls[0], ls[1] = ls[1], ls[0]
-			}
-			if d.vals[ls[0]] == 1 {
-				ws[j] = c
-				j++
-				continue
-			}
-			moved := false
-			for k := 2; k < len(ls); k++ {
-				if d.vals[ls[k]] != -1 {
-					ls[1], ls[k] = ls[k], ls[1]
-					d.watches[ls[1]] = append(d.watches[ls[1]], c)
-					moved = true
-					break
-				}
-			}
-			if moved {
-				continue
-			}
+		}
+		if d.head >= len(d.trail) {
+			return true
+		}
+		f := d.trail[d.head] ^ 1
+		d.head++
+		d.propagations++
+		if !d.propagateLit(f, false) {
+			return false
+		}
+	}
+}
+
+// propagateLit visits the clauses watching f (just made false) whose core
+// flag equals core.
+func (d *dratDB) propagateLit(f uint32, core bool) bool {
+	ws := d.watches[f]
+	i, j := 0, 0
+	for i < len(ws) {
+		c := ws[i]
+		i++
+		cl := &d.cls[c]
+		if (cl.flags&flagCore != 0) != core {
 			ws[j] = c
 			j++
-			if d.vals[ls[0]] == 0 {
-				d.assign(ls[0], c)
-				continue
-			}
+			continue
+		}
+		ls := d.arena[cl.off : cl.off+int(cl.n)]
+		if len(ls) == 1 {
+			ws[j] = c
+			j++
 			d.conflict = c
 			copy(ws[j:], ws[i:])
 			d.watches[f] = ws[:j+len(ws)-i]
 			return false
 		}
-		d.watches[f] = ws[:j]
+		if ls[0] == f {
+			ls[0], ls[1] = ls[1], ls[0]
+		}
+		if d.vals[ls[0]] == 1 {
+			ws[j] = c
+			j++
+			continue
+		}
+		moved := false
+		for k := 2; k < len(ls); k++ {
+			if d.vals[ls[k]] != -1 {
+				ls[1], ls[k] = ls[k], ls[1]
+				d.watches[ls[1]] = append(d.watches[ls[1]], c)
+				moved = true
+				break
+			}
+		}
+		if moved {
+			continue
+		}
+		ws[j] = c
+		j++
+		if d.vals[ls[0]] == 0 {
+			d.assign(ls[0], c)
+			continue
+		}
+		d.conflict = c
+		copy(ws[j:], ws[i:])
+		d.watches[f] = ws[:j+len(ws)-i]
+		return false
 	}
+	d.watches[f] = ws[:j]
 	return true
 }
 
@@ -381,7 +409,7 @@ func (d *dratDB) propagate() bool {
 func (d *dratDB) unassignFrom(k int) bool {
 	back := append([]uint32(nil), d.trail[k:]...)
 	d.backtrack(k)
-	d.head = k
+	d.head, d.headCore = k, k
 	for _, x := range back {
 		if d.vals[x] != 0 {
 			continue
@@ -424,7 +452,7 @@ func (d *dratDB) unassignFrom(k int) bool {
 // from scratch.
 func (d *dratDB) resetTopLevel() bool {
 	d.backtrack(0)
-	d.head = 0
+	d.head, d.headCore = 0, 0
 	d.conflict = noClause
 	for _, c := range d.units {
 		cl := &d.cls[c]

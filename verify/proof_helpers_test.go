@@ -3,8 +3,8 @@ package verify
 import (
 	"bytes"
 	"compress/gzip"
-	"io"
 	"context"
+	"io"
 	"os"
 	"os/exec"
 	"path/filepath"

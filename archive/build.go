@@ -11,6 +11,7 @@ import (
 	"io"
 	"os"
 	"slices"
+	"strings"
 
 	"quire/cert"
 	"quire/dimacs"
@@ -159,9 +160,13 @@ func Build(ctx context.Context, ev *Evidence, enc Encoder, tmpDir string) (*Mani
 		m.Planarity = &PlanarityEntry{Member: memberPlanarity, Planar: ev.Planarity.Planar}
 	}
 	for _, s := range srcs {
-		m.Members = append(m.Members, s.Name)
+		sum, err := hashSource(ctx, s)
+		if err != nil {
+			return nil, nil, err
+		}
+		m.Members = append(m.Members, MemberEntry{Name: s.Name, Size: s.Size, SHA256: sum})
 	}
-	slices.Sort(m.Members)
+	slices.SortFunc(m.Members, func(a, b MemberEntry) int { return strings.Compare(a.Name, b.Name) })
 	if err := m.Validate(); err != nil {
 		return nil, nil, fmt.Errorf("archive: the manifest would be invalid: %w", err)
 	}

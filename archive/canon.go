@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"io"
 	"runtime/debug"
+	"sync"
 
 	"github.com/klauspost/compress/zstd"
 )
@@ -45,8 +46,17 @@ type canon struct {
 
 const maxCanonLag = 16 << 20
 
+// canonEncoders keeps encoders for reuse: making one at the best level
+// costs far more than checking a small bundle.
+var canonEncoders sync.Pool
+
 func newCanon() *canon {
 	c := &canon{}
+	if zw, ok := canonEncoders.Get().(*zstd.Encoder); ok {
+		zw.Reset(canonSink{c})
+		c.zw = zw
+		return c
+	}
 	zw, err := zstd.NewWriter(canonSink{c}, encoderOptions()...)
 	if err != nil {
 		c.diff = true
@@ -54,6 +64,16 @@ func newCanon() *canon {
 	}
 	c.zw = zw
 	return c
+}
+
+// release closes the encoder and returns it to the pool.
+func (c *canon) release() {
+	if c.zw != nil {
+		zw := c.zw
+		zw.Close()
+		canonEncoders.Put(zw)
+		c.zw = nil
+	}
 }
 
 type canonSink struct{ c *canon }
@@ -104,19 +124,13 @@ func (c *canon) match() {
 func (c *canon) fail() {
 	c.diff = true
 	c.src, c.enc = nil, nil
-	if c.zw != nil {
-		c.zw.Close()
-		c.zw = nil
-	}
+	c.release()
 }
 
 // finish flushes the re-encoding and reports whether it matched the file,
 // and else the offset of the first difference.
 func (c *canon) finish() (bool, int64) {
-	if c.zw != nil {
-		c.zw.Close()
-		c.zw = nil
-	}
+	c.release()
 	if c.diff {
 		return false, c.matched
 	}

@@ -114,3 +114,5 @@ func bundleBytes(t testing.TB, ev *Evidence) []byte {
 func verifyBytes(b []byte, opt VerifyOptions) *Report {
 	return Verify(context.Background(), bytes.NewReader(b), "test.quire.tar.zst", opt)
 }
+
+func readAllFile(p string) ([]byte, error) { return os.ReadFile(p) }

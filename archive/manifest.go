@@ -59,7 +59,14 @@ type Manifest struct {
 	Layout        *LayoutRecord   `json:"layout,omitempty"`     // at_most and exact
 	Refutation    *Refutation     `json:"refutation,omitempty"` // at_least and exact
 	Planarity     *PlanarityEntry `json:"planarity,omitempty"`
-	Members       []string        `json:"members"` // every member but manifest.json and SHA256SUMS, sorted
+	Members       []MemberEntry   `json:"members"` // every member but manifest.json and SHA256SUMS, sorted by name
+}
+
+// MemberEntry binds a member's contents to the manifest.
+type MemberEntry struct {
+	Name   string `json:"name"`
+	Size   int64  `json:"size"`
+	SHA256 string `json:"sha256"`
 }
 
 // Compression records the compressor that wrote the bundle.
@@ -402,11 +409,15 @@ func (m *Manifest) Validate() error {
 	if p := m.Planarity; p != nil {
 		name("planarity.member", p.Member)
 	}
-	if !slices.IsSorted(m.Members) {
-		bad("members are not sorted")
+	if !slices.IsSortedFunc(m.Members, func(a, b MemberEntry) int { return strings.Compare(a.Name, b.Name) }) {
+		bad("members are not sorted by name")
 	}
 	listed := map[string]bool{}
-	for _, n := range m.Members {
+	for i, e := range m.Members {
+		n := e.Name
+		if !isHex64(e.SHA256) || e.Size < 0 {
+			bad("members[%d]: a size >= 0 and a sha256 of 64 lowercase hex digits are required", i)
+		}
 		if listed[n] {
 			bad("members lists %q twice", n)
 		}

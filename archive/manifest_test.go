@@ -24,7 +24,7 @@ func sampleManifest() *Manifest {
 			Runs:    []Run{{Backend: "cadical", Version: "1.5.3", Answer: "unsat", Seconds: 0.5}},
 			Proofs:  []Proof{{Member: "proofs/refutation.drat", Format: "drat-binary", Size: 10, SHA256: zeroHash, Checker: "quire drat", Result: ResultVerified}},
 		},
-		Members: []string{"graph/canonical.txt", "graph/input.txt", "layout.json", "proofs/refutation.drat"},
+		Members: []MemberEntry{{"graph/canonical.txt", 1, zeroHash}, {"graph/input.txt", 1, zeroHash}, {"layout.json", 1, zeroHash}, {"proofs/refutation.drat", 10, zeroHash}},
 	}
 }
 
@@ -64,7 +64,7 @@ func TestManifestRejects(t *testing.T) {
 		{name: "no refutation", edit: func(m *Manifest) { m.Refutation = nil }, want: "refutation is required"},
 		{name: "proof hash", edit: func(m *Manifest) { m.Refutation.Proofs[0].SHA256 = "ABC" }, want: "proofs[0].sha256"},
 		{name: "unlisted", edit: func(m *Manifest) { m.Members = m.Members[1:] }, want: `names "graph/canonical.txt", which is not in members`},
-		{name: "extra", edit: func(m *Manifest) { m.Members = append(m.Members, "z") }, want: `lists "z", which no field`},
+		{name: "extra", edit: func(m *Manifest) { m.Members = append(m.Members, MemberEntry{"z", 0, zeroHash}) }, want: `lists "z", which no field`},
 		{name: "unsafe", edit: func(m *Manifest) { m.Layout.Member = "../x" }, want: "layout.member"},
 		{name: "foreign no member", edit: func(m *Manifest) { m.Refutation.CNF.Source = CNFForeign }, want: "foreign CNF must be included"},
 		{name: "unknown field", raw: `{"format":"quire-bundle","extra":1}`, want: `unknown field "extra"`},

@@ -164,7 +164,7 @@ func (v *verifier) member(m Member, r io.Reader) error {
 	}
 	p := v.m.Refutation.Proofs[i]
 	if p.SHA256 != m.SHA256 || p.Size != m.Size {
-		v.rep.add("proof "+m.Name, StatusFail, "the manifest records size %d and SHA-256 %s, the member has size %d and SHA-256 %s", p.Size, p.SHA256, m.Size, m.SHA256)
+		v.rep.add("proof record "+m.Name, StatusFail, "the manifest records size %d and SHA-256 %s, the member has size %d and SHA-256 %s", p.Size, p.SHA256, m.Size, m.SHA256)
 		return nil
 	}
 	against := v.target
@@ -386,15 +386,7 @@ func (v *verifier) finish(c *Contents, walkErr error) {
 	if m == nil {
 		return
 	}
-	var got []string
-	for _, mem := range c.Members {
-		if mem.Name != ManifestName {
-			got = append(got, mem.Name)
-		}
-	}
-	if !slices.Equal(got, m.Members) {
-		v.rep.add("members", StatusFail, "the archive holds %s, the manifest lists %s", strings.Join(got, ", "), strings.Join(m.Members, ", "))
-	}
+	v.checkMembers(c)
 	switch {
 	case m.Compression.Version != CompressVersion() || m.Compression.Settings != Settings || m.Compression.Module != CompressModule:
 		v.rep.add("compression", StatusNote, "written with %s %s, this quire has %s: the compressed bytes were not compared with a re-compression", m.Compression.Module, m.Compression.Version, CompressVersion())
@@ -419,6 +411,39 @@ func (v *verifier) finish(c *Contents, walkErr error) {
 		}
 	}
 	v.rep.Verified = need > 0 && have == need && len(v.rep.Failures()) == 0
+}
+
+// checkMembers compares the archive's members with the manifest's list.
+func (v *verifier) checkMembers(c *Contents) {
+	want := map[string]MemberEntry{}
+	for _, e := range v.m.Members {
+		want[e.Name] = e
+	}
+	ok := true
+	for _, mem := range c.Members {
+		if mem.Name == ManifestName {
+			continue
+		}
+		e, listed := want[mem.Name]
+		delete(want, mem.Name)
+		switch {
+		case !listed:
+			v.rep.add("members", StatusFail, "%s is in the archive but not in the manifest", mem.Name)
+			ok = false
+		case e.SHA256 != mem.SHA256 || e.Size != mem.Size:
+			v.rep.add("members", StatusFail, "%s: the manifest records size %d and SHA-256 %s, the member has size %d and SHA-256 %s", mem.Name, e.Size, e.SHA256, mem.Size, mem.SHA256)
+			ok = false
+		}
+	}
+	for _, e := range v.m.Members {
+		if _, missing := want[e.Name]; missing {
+			v.rep.add("members", StatusFail, "%s is in the manifest but not in the archive", e.Name)
+			ok = false
+		}
+	}
+	if ok {
+		v.rep.add("members", StatusPass, "every member the manifest lists is present with the size and SHA-256 it records")
+	}
 }
 
 // finishProofs reports the proof outcomes, re-solves if asked and needed,
@@ -485,11 +510,12 @@ func (v *verifier) finishProofs() bool {
 		}
 		if d != nil {
 			d.Resolved = true
-			// The drift was overcome: it no longer fails the bundle.
-			for i := range v.rep.Checks {
-				if v.rep.Checks[i].Name == "encoder drift" || v.rep.Checks[i].Name == "cnf" {
-					v.rep.Checks[i].Status = StatusNote
-				}
+		}
+		// The stored proof's CNF no longer matters: the claim stands on the new proof.
+		for i, c := range v.rep.Checks {
+			if c.Status == StatusFail && (c.Name == "encoder drift" || c.Name == "cnf") {
+				v.rep.Checks[i].Status = StatusNote
+				v.rep.Checks[i].Detail += " (superseded by re-solving)"
 			}
 		}
 		v.rep.add("resolve", StatusPass, "re-established: the current encoder's CNF was solved again (unsat) and the new proof passed: %s", describe(out))

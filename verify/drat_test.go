@@ -168,3 +168,30 @@ func TestRejectNamesLemma(t *testing.T) {
 		t.Fatalf("err %v, result %+v", err, res)
 	}
 }
+
+// deletionFormula: 1 follows from (1 2), (1 -2); then (-1 3) makes 3 a unit
+// whose reason is (-1 3); the last four clauses say 3 is false. Hand-made.
+const deletionFormula = "p cnf 5 7\n1 2 0\n1 -2 0\n-1 3 0\n-3 4 5 0\n-3 4 -5 0\n-3 -4 5 0\n-3 -4 -5 0\n"
+
+// Deleting the reason of a unit is ignored (as drat-trim does in its
+// default mode): the proof below needs (-1 3) after deleting it. Deleting
+// a clause that is no reason takes effect. The backward pass takes back the
+// unit (1), the reason of 1.
+func TestDeletions(t *testing.T) {
+	f := parseCNF(t, deletionFormula)
+	for _, forward := range []bool{false, true} {
+		var lrat bytes.Buffer
+		// (-3 4) already makes propagation conflict: (-3) and 0 are not checked
+		res, err := checkText(t, f, "1 0\nd -1 3 0\nd 7 8 0\n-3 4 0\n-3 0\n0\n", DRATOptions{Forward: forward, LRAT: &lrat})
+		if err != nil || res.IgnoredDeletions != 1 || res.MissingDeletions != 1 || res.CoreLemmas != 2 {
+			t.Fatalf("forward=%v: %v %+v", forward, err, res)
+		}
+		if _, err := CheckLRAT(context.Background(), f, &lrat, "lrat"); err != nil {
+			t.Fatalf("forward=%v: LRAT: %v\n%s", forward, err, lrat.String())
+		}
+		res, err = checkText(t, f, "1 0\nd -3 4 5 0\n-3 4 0\n-3 0\n0\n", DRATOptions{Forward: forward})
+		if !errors.Is(err, ErrProofRejected) || res.FailedLemma != 3 {
+			t.Fatalf("forward=%v: deletion did not take effect: %v", forward, err)
+		}
+	}
+}

@@ -7,7 +7,6 @@ import (
 	"io"
 	"os"
 	"path/filepath"
-	"slices"
 	"strconv"
 	"strings"
 )
@@ -214,19 +213,14 @@ func looksDIMACS(rest []byte) bool {
 // labels. The first other label moves everything into a Builder.
 func readEdgeList(br *bufio.Reader, name string, res *ReadResult) (*Graph, error) {
 	st := &edgeListReader{name: name, maxv: -1}
-	buf := make([]byte, 1<<20)
-	fill, line := 0, 0
-	for eof := false; !eof; {
-		nr, err := io.ReadFull(br, buf[fill:])
-		fill += nr
-		switch err {
-		case nil:
-		case io.EOF, io.ErrUnexpectedEOF:
-			eof = true
-		default:
+	line := 0
+	for {
+		// Work on the reader's own buffer: no copy of the input is made.
+		data, err := br.Peek(br.Size())
+		eof := err == io.EOF
+		if err != nil && !eof {
 			return nil, &ParseError{File: name, Line: line + 1, Msg: err.Error()}
 		}
-		data := buf[:fill]
 		end := len(data)
 		if !eof {
 			end = bytes.LastIndexByte(data, '\n') + 1
@@ -238,7 +232,10 @@ func readEdgeList(br *bufio.Reader, name string, res *ReadResult) (*Graph, error
 		if line, perr = st.chunk(data[:end], line); perr != nil {
 			return nil, perr
 		}
-		fill = copy(buf, data[end:])
+		if eof {
+			break
+		}
+		_, _ = br.Discard(end)
 	}
 	g, rep := st.build()
 	res.Warnings = append(res.Warnings, duplicateWarnings(name, rep)...)
@@ -253,8 +250,9 @@ const edgeListFast = 1 << 24
 type edgeListReader struct {
 	name    string
 	b       *Builder
-	pairs   []uint64   // u<<32|v label values while b is nil, the current block
+	pairs   []uint64   // u<<32|v label values, u < v, while b is nil: the current block
 	full    [][]uint64 // earlier blocks of pairs
+	cu, cv  []int32    // cu[x], cv[x]: pairs with smaller, larger value x
 	singles []uint32   // labels of one-label lines while b is nil
 	maxv    int
 }
@@ -302,11 +300,7 @@ func (st *edgeListReader) chunk(d []byte, line int) (int, error) {
 					if u == v {
 						return line, &ParseError{File: st.name, Line: line, Col: vstart - p + 1, Msg: fmt.Sprintf("self-loop at vertex %q (quire graphs are simple)", strconv.Itoa(u))}
 					}
-					st.maxv = max(st.maxv, u, v)
-					if len(st.pairs) == cap(st.pairs) {
-						st.newBlock()
-					}
-					st.pairs = append(st.pairs, uint64(u)<<32|uint64(v))
+					st.addNum(u, v)
 					p = q + 1
 					continue
 				}
@@ -375,13 +369,28 @@ func (st *edgeListReader) general(raw []byte, line int) error {
 		st.maxv = max(st.maxv, num[0])
 		st.singles = append(st.singles, uint32(num[0]))
 	default:
-		st.maxv = max(st.maxv, num[0], num[1])
-		if len(st.pairs) == cap(st.pairs) {
-			st.newBlock()
-		}
-		st.pairs = append(st.pairs, uint64(num[0])<<32|uint64(num[1]))
+		st.addNum(num[0], num[1])
 	}
 	return nil
+}
+
+// addNum adds the edge between the numeric labels u != v.
+func (st *edgeListReader) addNum(u, v int) {
+	if u > v {
+		u, v = v, u
+	}
+	if v >= len(st.cu) {
+		k := max(2*len(st.cu), v+1, 1024)
+		st.cu = append(st.cu, make([]int32, k-len(st.cu))...)
+		st.cv = append(st.cv, make([]int32, k-len(st.cv))...)
+	}
+	st.cu[u]++
+	st.cv[v]++
+	st.maxv = max(st.maxv, v)
+	if len(st.pairs) == cap(st.pairs) {
+		st.newBlock()
+	}
+	st.pairs = append(st.pairs, uint64(u)<<32|uint64(v))
 }
 
 // edgeBlock is the size of the blocks pairs are collected in: growing one
@@ -441,16 +450,17 @@ func (st *edgeListReader) build() (*Graph, BuildReport) {
 	st.full, st.pairs = nil, nil
 	// rank[x] is the vertex of label x: numbers in increasing order are in
 	// canonical label order.
+	cu, cv := st.cu, st.cv
 	rank := make([]int32, st.maxv+1)
 	for _, s := range st.singles {
 		rank[s] = 1
 	}
 	m := 0
-	for _, b := range blocks {
-		m += len(b)
-		for _, p := range b {
-			rank[p>>32], rank[p&0xffffffff] = 1, 1
+	for x := range min(len(cu), len(rank)) {
+		if cu[x] != 0 || cv[x] != 0 {
+			rank[x] = 1
 		}
+		m += int(cu[x])
 	}
 	var digits []byte
 	var ends []int
@@ -470,56 +480,41 @@ func (st *edgeListReader) build() (*Graph, BuildReport) {
 	for i, e := range ends {
 		labels[i], prev = all[prev:e], e
 	}
-	// Bucket the edges by smaller end (counting sort), then sort each
-	// bucket by larger end and drop repeats.
-	start := make([]int32, n+1)
-	for _, b := range blocks {
-		for i, p := range b {
-			u, v := uint64(rank[p>>32]), uint64(rank[p&0xffffffff])
-			if u > v {
-				u, v = v, u
-			}
-			b[i] = u<<32 | v
-			start[u+1]++
-		}
+	// Sort the pairs by (smaller, larger) value with two counting sorts, by
+	// larger value into tmp, then stably by smaller value into edges, and
+	// number the vertices; then drop repeats.
+	sumU, sumV := int32(0), int32(0)
+	for x := range cu {
+		cu[x], sumU = sumU, sumU+cu[x]
+		cv[x], sumV = sumV, sumV+cv[x]
 	}
-	for u := int32(0); u < n; u++ {
-		start[u+1] += start[u]
-	}
-	edges := make([]Edge, m)
-	fill := slices.Clone(start[:n])
+	tmp := make([]uint64, m)
 	for k, b := range blocks {
 		for _, p := range b {
-			u := p >> 32
-			edges[fill[u]] = Edge{int32(u), int32(p & 0xffffffff)}
-			fill[u]++
+			v := p & 0xffffffff
+			tmp[cv[v]] = p
+			cv[v]++
 		}
 		blocks[k] = nil
 	}
+	edges := make([]Edge, m)
+	for _, p := range tmp {
+		u := p >> 32
+		edges[cu[u]] = Edge{rank[u], rank[p&0xffffffff]}
+		cu[u]++
+	}
 	var rep BuildReport
 	w := 0
-	for u := int32(0); u < n; u++ {
-		seg := edges[start[u]:start[u+1]]
-		if len(seg) <= 12 {
-			for i := 1; i < len(seg); i++ {
-				for j := i; j > 0 && seg[j].V < seg[j-1].V; j-- {
-					seg[j], seg[j-1] = seg[j-1], seg[j]
-				}
+	for _, e := range edges {
+		if w > 0 && edges[w-1] == e {
+			rep.Duplicates++
+			if len(rep.Examples) < 10 {
+				rep.Examples = append(rep.Examples, [2]string{labels[e.U], labels[e.V]})
 			}
-		} else {
-			slices.SortFunc(seg, func(a, b Edge) int { return int(a.V - b.V) })
+			continue
 		}
-		for i, e := range seg {
-			if i > 0 && seg[i-1].V == e.V {
-				rep.Duplicates++
-				if len(rep.Examples) < 10 {
-					rep.Examples = append(rep.Examples, [2]string{labels[e.U], labels[e.V]})
-				}
-				continue
-			}
-			edges[w] = e
-			w++
-		}
+		edges[w] = e
+		w++
 	}
 	return newGraph(labels, edges[:w]), rep
 }

@@ -73,7 +73,9 @@ func TestEncoderDrift(t *testing.T) {
 	})
 	t.Run("resolve sat", func(t *testing.T) {
 		r := verifyBytes(b, VerifyOptions{Encoder: changedEncoder{"quire-enc-999", noRot},
-			Resolve: func(ctx context.Context, cnf *dimacs.CNF) (*Resolution, error) { return &Resolution{Answer: "sat"}, nil }})
+			Resolve: func(ctx context.Context, cnf *dimacs.CNF) (*Resolution, error) {
+				return &Resolution{Answer: "sat"}, nil
+			}})
 		if r.Verified || !strings.Contains(failNames(r), "satisfiable") {
 			t.Fatalf("verified=%v\n%s", r.Verified, failNames(r))
 		}

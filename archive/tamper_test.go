@@ -175,7 +175,12 @@ func TestTamperManifestFields(t *testing.T) {
 		edit func(m *Manifest)
 		want []string
 	}{
-		{"k up", func(m *Manifest) { m.Claim.K = 4; m.Layout.Pages = 4; m.Refutation.Pages = 3; m.Refutation.PageKinds = append(m.Refutation.PageKinds, "stack") }, []string{"cnf", "do not describe"}},
+		{"k up", func(m *Manifest) {
+			m.Claim.K = 4
+			m.Layout.Pages = 4
+			m.Refutation.Pages = 3
+			m.Refutation.PageKinds = append(m.Refutation.PageKinds, "stack")
+		}, []string{"cnf", "do not describe"}},
 		{"k up with options", func(m *Manifest) {
 			m.Claim.K = 4
 			m.Layout.Pages = 4

@@ -1,0 +1,48 @@
+package archive
+
+import (
+	"context"
+	"path/filepath"
+	"testing"
+
+	"quire/cert"
+)
+
+// The bundles in testdata/bundles hold evidence for published values and
+// must keep verifying with the current encoder and checkers:
+//   - bt(K7) = ceil(7/2) = 4 (Bernhart and Kainen, "The book thickness of a
+//     graph", JCTB 27, 1979);
+//   - bt(Petersen) = 3: not planar, and bt <= 2 iff subhamiltonian planar
+//     (Bernhart and Kainen 1979);
+//   - bt(Goldner-Harary) = 3: maximal planar and not Hamiltonian (Goldner
+//     and Harary 1975), so not subhamiltonian (Bernhart and Kainen 1979).
+func TestPublishedBundles(t *testing.T) {
+	want := []struct {
+		bundle, graph string
+		k             int
+	}{
+		{"k7.quire.tar.zst", "k7.txt", 4},
+		{"petersen.quire.tar.zst", "petersen.txt", 3},
+		{"goldner-harary.quire.tar.zst", "goldner-harary.txt", 3},
+	}
+	dir := filepath.Join("..", "testdata", "bundles")
+	for _, w := range want {
+		t.Run(w.bundle, func(t *testing.T) {
+			r := VerifyFile(context.Background(), filepath.Join(dir, w.bundle), VerifyOptions{})
+			if !r.Verified {
+				t.Fatalf("not verified:\n%s", failNames(r))
+			}
+			m := r.Manifest
+			if m.Claim.Bound != Exact || m.Claim.K != w.k || m.Claim.Kind != "stack" {
+				t.Fatalf("claim %s, want stack exactly %d", r.Claim, w.k)
+			}
+			res, err := cert.ReadGraphFile(filepath.Join(dir, w.graph), cert.FormatAuto)
+			if err != nil {
+				t.Fatal(err)
+			}
+			if id := res.Graphs[0].ID(); id != m.Claim.GraphID {
+				t.Fatalf("bundle is about graph %s, %s is %s", m.Claim.GraphID, w.graph, id)
+			}
+		})
+	}
+}

@@ -32,7 +32,8 @@ type dratDB struct {
 	asm      []bool  // per variable: belongs to the clause being checked
 	seen     []bool  // per variable: scratch for conflict analysis
 	mark     []bool  // per literal: scratch for deduplication and matching
-	watches  [][]int // per literal: clauses watching it
+	watches  [][]int // per literal: non-core clauses watching it
+	cwatches [][]int // per literal: core clauses watching it
 	trail    []uint32
 	head     int   // next trail literal for all clauses
 	headCore int   // next trail literal for core clauses
@@ -79,6 +80,7 @@ func (d *dratDB) ensureVar(v int) {
 		d.vals = append(d.vals, 0, 0)
 		d.mark = append(d.mark, false, false)
 		d.watches = append(d.watches, nil, nil)
+		d.cwatches = append(d.cwatches, nil, nil)
 	}
 }
 
@@ -253,6 +255,30 @@ func (d *dratDB) isReason(c int) bool {
 	return d.vals[l] == 1 && d.reason[l>>1] == c
 }
 
+// wl returns the watch lists that hold clause c.
+func (d *dratDB) wl(c int) [][]int {
+	if d.cls[c].flags&flagCore != 0 {
+		return d.cwatches
+	}
+	return d.watches
+}
+
+// markCore marks clause c core and moves its watches to the core lists.
+func (d *dratDB) markCore(c int) {
+	cl := &d.cls[c]
+	if cl.flags&flagCore != 0 {
+		return
+	}
+	if cl.flags&flagActive != 0 {
+		ls := d.lits(c)
+		for i := 0; i < len(ls) && i < 2; i++ {
+			d.watches[ls[i]] = removeWatch(d.watches[ls[i]], c)
+			d.cwatches[ls[i]] = append(d.cwatches[ls[i]], c)
+		}
+	}
+	cl.flags |= flagCore
+}
+
 func removeWatch(ws []int, c int) []int {
 	for i, w := range ws {
 		if w == c {
@@ -291,9 +317,10 @@ func (d *dratDB) attach(c int) bool {
 			k++
 		}
 	}
-	d.watches[ls[0]] = append(d.watches[ls[0]], c)
+	w := d.wl(c)
+	w[ls[0]] = append(w[ls[0]], c)
 	if len(ls) > 1 {
-		d.watches[ls[1]] = append(d.watches[ls[1]], c)
+		w[ls[1]] = append(w[ls[1]], c)
 	}
 	switch {
 	case k == 0:
@@ -310,11 +337,12 @@ func (d *dratDB) detach(c int) {
 	cl := &d.cls[c]
 	cl.flags &^= flagActive
 	ls := d.lits(c)
+	w := d.wl(c)
 	if len(ls) > 0 {
-		d.watches[ls[0]] = removeWatch(d.watches[ls[0]], c)
+		w[ls[0]] = removeWatch(w[ls[0]], c)
 	}
 	if len(ls) > 1 {
-		d.watches[ls[1]] = removeWatch(d.watches[ls[1]], c)
+		w[ls[1]] = removeWatch(w[ls[1]], c)
 	}
 }
 
@@ -347,24 +375,23 @@ func (d *dratDB) propagate() bool {
 // propagateLit visits the clauses watching f (just made false) whose core
 // flag equals core.
 func (d *dratDB) propagateLit(f uint32, core bool) bool {
-	ws := d.watches[f]
+	wl := d.watches
+	if core {
+		wl = d.cwatches
+	}
+	ws := wl[f]
 	i, j := 0, 0
 	for i < len(ws) {
 		c := ws[i]
 		i++
 		cl := &d.cls[c]
-		if (cl.flags&flagCore != 0) != core {
-			ws[j] = c
-			j++
-			continue
-		}
 		ls := d.arena[cl.off : cl.off+int(cl.n)]
 		if len(ls) == 1 {
 			ws[j] = c
 			j++
 			d.conflict = c
 			copy(ws[j:], ws[i:])
-			d.watches[f] = ws[:j+len(ws)-i]
+			wl[f] = ws[:j+len(ws)-i]
 			return false
 		}
 		if ls[0] == f {
@@ -379,7 +406,7 @@ func (d *dratDB) propagateLit(f uint32, core bool) bool {
 		for k := 2; k < len(ls); k++ {
 			if d.vals[ls[k]] != -1 {
 				ls[1], ls[k] = ls[k], ls[1]
-				d.watches[ls[1]] = append(d.watches[ls[1]], c)
+				wl[ls[1]] = append(wl[ls[1]], c)
 				moved = true
 				break
 			}
@@ -395,10 +422,10 @@ func (d *dratDB) propagateLit(f uint32, core bool) bool {
 		}
 		d.conflict = c
 		copy(ws[j:], ws[i:])
-		d.watches[f] = ws[:j+len(ws)-i]
+		wl[f] = ws[:j+len(ws)-i]
 		return false
 	}
-	d.watches[f] = ws[:j]
+	wl[f] = ws[:j]
 	return true
 }
 
@@ -411,41 +438,48 @@ func (d *dratDB) unassignFrom(k int) bool {
 	d.backtrack(k)
 	d.head, d.headCore = k, k
 	for _, x := range back {
-		if d.vals[x] != 0 {
-			continue
+		if d.vals[x] == 0 {
+			d.rescan(x, d.cwatches)
 		}
-		for _, c := range d.watches[x] {
-			if d.vals[x] != 0 {
-				break
-			}
-			ls := d.lits(c)
-			if len(ls) == 1 {
-				d.assign(x, c)
-				break
-			}
-			if ls[1] == x {
-				ls[0], ls[1] = ls[1], ls[0]
-			}
-			o := ls[1]
-			if d.vals[o] != -1 {
-				continue
-			}
-			moved := false
-			for i := 2; i < len(ls); i++ {
-				if d.vals[ls[i]] != -1 {
-					d.watches[o] = removeWatch(d.watches[o], c)
-					ls[1], ls[i] = ls[i], ls[1]
-					d.watches[ls[1]] = append(d.watches[ls[1]], c)
-					moved = true
-					break
-				}
-			}
-			if !moved {
-				d.assign(x, c)
-			}
+		if d.vals[x] == 0 {
+			d.rescan(x, d.watches)
 		}
 	}
 	return d.propagate()
+}
+
+// rescan re-examines the clauses in w watching x, which was just
+// unassigned: a clause whose other watch is false either gets a new watch or
+// implies x again.
+func (d *dratDB) rescan(x uint32, w [][]int) {
+	for _, c := range w[x] {
+		ls := d.lits(c)
+		if len(ls) == 1 {
+			d.assign(x, c)
+			return
+		}
+		if ls[1] == x {
+			ls[0], ls[1] = ls[1], ls[0]
+		}
+		o := ls[1]
+		if d.vals[o] != -1 {
+			continue
+		}
+		moved := false
+		for i := 2; i < len(ls); i++ {
+			if d.vals[ls[i]] != -1 {
+				w[o] = removeWatch(w[o], c)
+				ls[1], ls[i] = ls[i], ls[1]
+				w[ls[1]] = append(w[ls[1]], c)
+				moved = true
+				break
+			}
+		}
+		if !moved {
+			d.assign(x, c)
+			return
+		}
+	}
 }
 
 // resetTopLevel clears every assignment and propagates the active formula
@@ -476,7 +510,7 @@ func (d *dratDB) resetTopLevel() bool {
 // the conflict clause last. Variables flagged asm are assumptions: their
 // reasons are not followed.
 func (d *dratDB) analyze(confl int, hints []int, wantHints bool) []int {
-	d.cls[confl].flags |= flagCore
+	d.markCore(confl)
 	pending := 0
 	for _, l := range d.lits(confl) {
 		v := l >> 1
@@ -497,7 +531,7 @@ func (d *dratDB) analyze(confl int, hints []int, wantHints bool) []int {
 		if r == noClause {
 			continue
 		}
-		d.cls[r].flags |= flagCore
+		d.markCore(r)
 		if wantHints {
 			hints = append(hints, r)
 		}

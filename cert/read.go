@@ -111,8 +111,10 @@ func ReadGraphs(r io.Reader, name string, f Format) (*ReadResult, error) {
 // A recognised extension (.g6 .graph6, .s6 .sparse6, .dimacs .col .clq,
 // .edges .el) decides unless the content contradicts it; otherwise the
 // content decides: a >>graph6<< or >>sparse6<< header, a line starting with
-// ':' or ';' (sparse6), DIMACS 'p edge'/'c' lines, a line that is a
-// well-formed graph6 string, else an edge list.
+// ':' or ';' (sparse6), a digraph6 line ('&', given to the graph6 reader,
+// which rejects it), DIMACS 'p edge'/'c' lines, a line that is a
+// well-formed graph6 string (or, if it runs past the inspected head, could
+// start one), else an edge list.
 func DetectFormat(head []byte, name string) Format {
 	content := detectContent(head)
 	switch strings.ToLower(filepath.Ext(name)) {

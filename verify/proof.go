@@ -132,3 +132,10 @@ func CheckDRAT(ctx context.Context, cnf *dimacs.CNF, proof io.Reader, opt DRATOp
 	res.Accepted = true
 	return res, nil
 }
+
+// WriteLRAT checks proof like CheckDRAT and writes the checked proof to w
+// in LRAT text. Nothing useful is in w unless the error is nil.
+func WriteLRAT(ctx context.Context, cnf *dimacs.CNF, proof io.Reader, w io.Writer, opt DRATOptions) (*ProofResult, error) {
+	opt.LRAT = w
+	return CheckDRAT(ctx, cnf, proof, opt)
+}

@@ -9,6 +9,8 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/klauspost/compress/zstd"
+
 	"quire/dimacs"
 )
 
@@ -277,5 +279,81 @@ func TestCompressedProof(t *testing.T) {
 	res, err := CheckDRAT(context.Background(), f, &b, DRATOptions{})
 	if err != nil || !res.Accepted || res.Format != ProofDRAT {
 		t.Fatalf("gzip proof: %v %+v", err, res)
+	}
+	// zstd (klauspost/compress), binary inside: a -2, a 1, a (empty)
+	var z bytes.Buffer
+	enc, err := zstd.NewWriter(&z)
+	if err != nil {
+		t.Fatal(err)
+	}
+	enc.Write([]byte("a\x05\x00a\x02\x00a\x00"))
+	enc.Close()
+	res, err = CheckDRAT(context.Background(), f, &z, DRATOptions{})
+	if err != nil || !res.Accepted || res.Format != ProofDRATBinary {
+		t.Fatalf("zstd proof: %v %+v", err, res)
+	}
+}
+
+// Mutated cadical proofs of random 3-SAT instances (a line dropped, a
+// literal flipped, a deletion of a formula clause inserted): whenever the
+// DRAT checker accepts one, in either mode, the LRAT it writes must pass the
+// separate LRAT checker. The two checkers share no code, so this catches a
+// DRAT checker that accepts what it should not.
+func TestMutantsAgreeWithLRAT(t *testing.T) {
+	rng := rand.New(rand.NewPCG(7, 7))
+	accepted, rejected := 0, 0
+	for inst := 0; inst < 40 && accepted+rejected < 200; inst++ {
+		f := proofRandom3SAT(rng, 40, 175)
+		proof, isUnsat := cadicalMaybeProof(t, f)
+		if !isUnsat {
+			continue
+		}
+		steps, err := fuzzSteps(proof, ProofDRATBinary)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for range 8 {
+			mut := append([]string{}, steps...)
+			i := rng.IntN(len(mut))
+			switch rng.IntN(3) {
+			case 0:
+				mut = append(mut[:i], mut[i+1:]...)
+			case 1:
+				fl := strings.Fields(mut[i])
+				j := rng.IntN(len(fl))
+				if fl[j] != "0" && fl[j] != "d" {
+					if strings.HasPrefix(fl[j], "-") {
+						fl[j] = fl[j][1:]
+					} else {
+						fl[j] = "-" + fl[j]
+					}
+				}
+				mut[i] = strings.Join(fl, " ")
+			case 2:
+				c := f.Clauses[rng.IntN(len(f.Clauses))]
+				del := "d " + strings.Trim(fmt.Sprint(c), "[]") + " 0"
+				mut = append(mut[:i], append([]string{del}, mut[i:]...)...)
+			}
+			text := strings.Join(mut, "\n") + "\n"
+			for _, forward := range []bool{false, true} {
+				var lrat bytes.Buffer
+				_, err := CheckDRAT(context.Background(), f, strings.NewReader(text), DRATOptions{Forward: forward, LRAT: &lrat})
+				if err != nil {
+					if !errors.Is(err, ErrProofRejected) {
+						t.Fatal(err)
+					}
+					rejected++
+					continue
+				}
+				accepted++
+				if _, err := CheckLRAT(context.Background(), f, &lrat, "lrat"); err != nil {
+					t.Fatalf("forward=%v: accepted mutant, LRAT fails: %v", forward, err)
+				}
+			}
+		}
+	}
+	t.Logf("%d accepted, %d rejected", accepted, rejected)
+	if accepted == 0 || rejected == 0 {
+		t.Fatalf("mutants: %d accepted, %d rejected; want some of each", accepted, rejected)
 	}
 }

@@ -17,11 +17,11 @@ type Family int
 
 // The constraint families of both formulations.
 const (
-	FamOrder     Family = iota // spine order: transitivity (and asymmetry in the baseline)
-	FamPage                    // every edge on some page
-	FamSamePage                // same-page variables
-	FamBetween                 // betweenness variables: c lies between the ends of e
-	FamConflict                // forbidden crossings (stack) and nestings (queue)
+	FamOrder    Family = iota // spine order: transitivity (and asymmetry in the baseline)
+	FamPage                   // every edge on some page
+	FamSamePage               // same-page variables
+	FamBetween                // betweenness variables: c lies between the ends of e
+	FamConflict               // forbidden crossings (stack) and nestings (queue)
 	numFamilies
 )
 

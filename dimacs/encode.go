@@ -152,6 +152,16 @@ func (e *Encoding) VisitClauses(v Visitor) error {
 // encodeDefault splits the graph into parts and encodes each one.
 func (e *Encoding) encodeDefault() {
 	g, o := e.g, &e.opt
+	if len(e.kinds) == 0 {
+		if g.M() > 0 {
+			e.f.add(FamPage) // no page for the edges: the empty clause
+		}
+		e.isolated = make([]int32, g.N())
+		for v := range e.isolated {
+			e.isolated[v] = int32(v)
+		}
+		return
+	}
 	stack := allStack(e.kinds)
 	if stack && !o.NoBlocks {
 		e.blocks = true

@@ -189,6 +189,9 @@ func bruteNumber(g *cert.Graph, kind cert.Kind) int {
 	if m == 0 {
 		return 0
 	}
+	if m > 63 {
+		panic("bruteNumber: too many edges")
+	}
 	edges := g.Edges()
 	perm := make([]int, n)
 	for i := range perm {
@@ -200,35 +203,106 @@ func bruteNumber(g *cert.Graph, kind cert.Kind) int {
 	for i := range conflict {
 		conflict[i] = make([]bool, m)
 	}
-	colour := make([]int, m)
-	var colourable func(e, k int) bool
-	colourable = func(e, k int) bool {
-		if e == m {
+	side := make([]int, m)
+	queue := make([]int, 0, m)
+	// bipartite reports whether the conflict graph is 2-colourable (BFS).
+	bipartite := func() bool {
+		for i := range side {
+			side[i] = -1
+		}
+		for s := 0; s < m; s++ {
+			if side[s] >= 0 {
+				continue
+			}
+			side[s] = 0
+			queue = append(queue[:0], s)
+			for len(queue) > 0 {
+				x := queue[0]
+				queue = queue[1:]
+				for y := 0; y < m; y++ {
+					if !conflict[x][y] {
+						continue
+					}
+					if side[y] < 0 {
+						side[y] = 1 - side[x]
+						queue = append(queue, y)
+					} else if side[y] == side[x] {
+						return false
+					}
+				}
+			}
+		}
+		return true
+	}
+	adj := make([]uint64, m)
+	class := make([]uint64, m)
+	// colourable tries to colour the uncoloured edges (mask left) with k
+	// colours, always branching on the edge with the most distinct colours
+	// around it (DSATUR order).
+	var colourable func(left uint64, used, k int) bool
+	colourable = func(left uint64, used, k int) bool {
+		if left == 0 {
 			return true
 		}
-		used := 0
-		for c := 0; c < k; c++ {
-			ok := true
-			for f := 0; f < e; f++ {
-				if colour[f] == c && conflict[e][f] {
-					ok = false
-					break
+		pick, bestSat := -1, -1
+		for x := 0; x < m; x++ {
+			if left&(1<<x) == 0 {
+				continue
+			}
+			sat := 0
+			for c := 0; c < used; c++ {
+				if adj[x]&class[c] != 0 {
+					sat++
 				}
 			}
-			if ok {
-				colour[e] = c
-				if colourable(e+1, k) {
-					return true
-				}
-			}
-			if c > used {
-				break // colours above the highest used are interchangeable
-			}
-			if c == used {
-				used++
+			if sat > bestSat {
+				pick, bestSat = x, sat
 			}
 		}
+		if bestSat >= k {
+			return false
+		}
+		for c := 0; c < min(used+1, k); c++ {
+			if adj[pick]&class[c] != 0 {
+				continue
+			}
+			class[c] |= 1 << pick
+			nu := used
+			if c == used {
+				nu++
+			}
+			if colourable(left&^(1<<pick), nu, k) {
+				class[c] &^= 1 << pick
+				return true
+			}
+			class[c] &^= 1 << pick
+		}
 		return false
+	}
+	fits := func(k int) bool {
+		switch k {
+		case 1:
+			for x := 0; x < m; x++ {
+				for y := x + 1; y < m; y++ {
+					if conflict[x][y] {
+						return false
+					}
+				}
+			}
+			return true
+		case 2:
+			return bipartite()
+		}
+		for x := 0; x < m; x++ {
+			adj[x] = 0
+			for y := 0; y < m; y++ {
+				if conflict[x][y] {
+					adj[x] |= 1 << y
+				}
+			}
+		}
+		clear(class)
+		return colourable(1<<m-1, 0, k)
 	}
 	var rec func(i int) bool
 	rec = func(i int) bool {
@@ -247,7 +321,7 @@ func bruteNumber(g *cert.Graph, kind cert.Kind) int {
 					}
 				}
 			}
-			for best > 1 && colourable(0, best-1) {
+			for best > 1 && fits(best-1) {
 				best--
 			}
 			return best == 1

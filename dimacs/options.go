@@ -67,7 +67,7 @@ func (o *Options) reductions(kinds []cert.Kind) []string {
 		return nil
 	}
 	var r []string
-	stack := allStack(kinds)
+	stack := o.Kind == cert.Stack || (len(kinds) > 0 && allStack(kinds))
 	if stack && !o.NoBlocks {
 		r = append(r, "blocks")
 	}

@@ -1,0 +1,145 @@
+package dimacs
+
+import (
+	"fmt"
+	"io"
+	"math/rand/v2"
+	"os"
+	"os/exec"
+	"path/filepath"
+	"testing"
+	"time"
+
+	"quire/cert"
+	"quire/internal/testtools"
+)
+
+type benchCase struct {
+	name  string
+	g     *cert.Graph
+	pages int
+}
+
+// benchGraphs are the graphs of the size table: K_9 on 4 pages, a random
+// 100-vertex maximal planar graph on 2 and 3 pages, and the 200-vertex
+// Kleetope of a random 68-vertex triangulation on 2 pages.
+func benchGraphs() []benchCase {
+	r := rand.New(rand.NewPCG(2015, 9))
+	planar := randomTriangulation(r, 100, 1000).graph()
+	klee := randomTriangulation(r, 68, 700).kleetope()
+	return []benchCase{
+		{"K9_p4", completeGraph(9), 4},
+		{"planar100_p2", planar, 2},
+		{"planar100_p3", planar, 3},
+		{"kleetope200_p2", klee, 2},
+	}
+}
+
+// TestBenchGraphs checks the generators: maximal planar graphs have 3n-6 edges.
+func TestBenchGraphs(t *testing.T) {
+	for _, c := range benchGraphs()[1:] {
+		if c.g.M() != 3*c.g.N()-6 {
+			t.Errorf("%s: n=%d m=%d, want m=3n-6", c.name, c.g.N(), c.g.M())
+		}
+	}
+}
+
+// BenchmarkEncodeSize encodes the table graphs and reports their sizes.
+func BenchmarkEncodeSize(b *testing.B) {
+	for _, c := range benchGraphs() {
+		for _, base := range []bool{false, true} {
+			name := "default"
+			if base {
+				name = "baseline"
+			}
+			b.Run(c.name+"/"+name, func(b *testing.B) {
+				var st Stats
+				for i := 0; i < b.N; i++ {
+					e, err := Encode(c.g, Options{Kind: cert.Stack, Pages: c.pages, Baseline: base})
+					if err != nil {
+						b.Fatal(err)
+					}
+					st = e.Stats()
+				}
+				b.ReportMetric(float64(st.Vars), "vars")
+				b.ReportMetric(float64(st.Clauses), "clauses")
+				b.ReportMetric(float64(st.Literals), "literals")
+			})
+		}
+	}
+}
+
+// BenchmarkSolve runs Debian's cadical on the table graphs (limit set by
+// QUIRE_BENCH_SOLVE_LIMIT seconds, default 300) and reports its time.
+func BenchmarkSolve(b *testing.B) {
+	bin := testtools.Require(b, "cadical", "cadical")
+	limit := "300"
+	if s := os.Getenv("QUIRE_BENCH_SOLVE_LIMIT"); s != "" {
+		limit = s
+	}
+	for _, c := range benchGraphs() {
+		for _, base := range []bool{false, true} {
+			name := "default"
+			if base {
+				name = "baseline"
+			}
+			b.Run(c.name+"/"+name, func(b *testing.B) {
+				e, err := Encode(c.g, Options{Kind: cert.Stack, Pages: c.pages, Baseline: base})
+				if err != nil {
+					b.Fatal(err)
+				}
+				path := filepath.Join(b.TempDir(), "f.cnf")
+				f, _ := os.Create(path)
+				e.WriteTo(f)
+				f.Close()
+				b.ResetTimer()
+				for i := 0; i < b.N; i++ {
+					start := time.Now()
+					cmd := exec.Command(bin, "-q", "-n", "-t", limit, path)
+					out, _ := cmd.Output()
+					code := cmd.ProcessState.ExitCode()
+					status := map[int]string{10: "sat", 20: "unsat"}[code]
+					if status == "" {
+						status = "timeout"
+					}
+					b.ReportMetric(time.Since(start).Seconds(), "s/solve")
+					b.Logf("%s %s: %s in %v (%d bytes of output)", c.name, name, status, time.Since(start).Round(time.Millisecond), len(out))
+				}
+			})
+		}
+	}
+}
+
+// BenchmarkWrite measures the CNF writing speed.
+func BenchmarkWrite(b *testing.B) {
+	c := benchGraphs()[2]
+	e, err := Encode(c.g, Options{Kind: cert.Stack, Pages: c.pages})
+	if err != nil {
+		b.Fatal(err)
+	}
+	n, _ := e.WriteTo(io.Discard)
+	b.SetBytes(n)
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		e.WriteTo(io.Discard)
+	}
+}
+
+// BenchmarkEncode300 encodes a 300-vertex maximal planar graph on 3 pages.
+func BenchmarkEncode300(b *testing.B) {
+	g := randomTriangulation(rand.New(rand.NewPCG(300, 3)), 300, 3000).graph()
+	for i := 0; i < b.N; i++ {
+		e, err := Encode(g, Options{Kind: cert.Stack, Pages: 3})
+		if err != nil {
+			b.Fatal(err)
+		}
+		if i == 0 {
+			st := e.Stats()
+			b.ReportMetric(float64(st.Clauses), "clauses")
+			n, _ := e.WriteTo(io.Discard)
+			b.ReportMetric(float64(n)/1e6, "MB")
+		}
+	}
+}
+
+var _ = fmt.Sprint

@@ -1,6 +1,10 @@
 package dimacs
 
-import "quire/cert"
+import (
+	"fmt"
+
+	"quire/cert"
+)
 
 // baseMap records the variable numbering of the baseline formulation.
 type baseMap struct {
@@ -60,6 +64,10 @@ func (e *Encoding) encodeBaseline() {
 	n, m, k := g.N(), g.M(), len(e.kinds)
 	b := &baseMap{n: n, k: k}
 	e.base = b
+	if int64(n)*int64(n-1)+int64(m)*int64(k)+int64(m)*int64(m) > maxVar {
+		f.err = fmt.Errorf("dimacs: %w: baseline for %d vertices and %d edges", ErrTooLarge, n, m)
+		return
+	}
 	for i := 0; i < n*(n-1); i++ {
 		f.newVar(FamOrder)
 	}

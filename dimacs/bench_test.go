@@ -1,7 +1,6 @@
 package dimacs
 
 import (
-	"fmt"
 	"io"
 	"math/rand/v2"
 	"os"
@@ -142,4 +141,26 @@ func BenchmarkEncode300(b *testing.B) {
 	}
 }
 
-var _ = fmt.Sprint
+// TestSizeRatio checks the size target of the default encoding: at most half
+// the clauses of the baseline on the smaller table graphs (the Kleetope is
+// measured by BenchmarkEncodeSize only, to keep the test quick).
+func TestSizeRatio(t *testing.T) {
+	if testing.Short() {
+		t.Skip("encodes 100-vertex graphs")
+	}
+	for _, c := range benchGraphs()[:3] {
+		d, err := Encode(c.g, Options{Kind: cert.Stack, Pages: c.pages})
+		if err != nil {
+			t.Fatal(err)
+		}
+		b, err := Encode(c.g, Options{Kind: cert.Stack, Pages: c.pages, Baseline: true})
+		if err != nil {
+			t.Fatal(err)
+		}
+		dc, bc := d.Stats().Clauses, b.Stats().Clauses
+		t.Logf("%s: default %d clauses, baseline %d (%.2f)", c.name, dc, bc, float64(dc)/float64(bc))
+		if 2*dc > bc {
+			t.Errorf("%s: default %d clauses > half of baseline %d", c.name, dc, bc)
+		}
+	}
+}

@@ -1,6 +1,10 @@
 package dimacs
 
-import "quire/cert"
+import (
+	"fmt"
+
+	"quire/cert"
+)
 
 // part is one separately encoded piece of the graph: a block, or the whole
 // graph less the dropped vertices. Local vertex i is verts[i]; local edge j
@@ -43,10 +47,11 @@ type partEncoder struct {
 	e       *Encoding
 	p       *part
 	kinds   []cert.Kind
-	memo    map[int64]int // (c, j) -> index into aux
+	memo    []int32 // c*m + j -> 1 + index into aux, 0 if none
 	aux     []auxBetween
 	isAux   map[int32]int // variable -> index into aux
 	scratch [][]int32
+	buf     []int32
 }
 
 // addPart encodes the part on the sorted vertices vs with the sorted edges es.
@@ -64,6 +69,10 @@ func (e *Encoding) addPart(vs, es []int32) {
 	}
 	e.parts = append(e.parts, p)
 	n := p.n
+	if int64(n)*int64(n-1)/2+int64(len(es))*int64(len(e.kinds)) > maxVar || int64(n)*int64(len(es)) > 1<<31 {
+		f.err = fmt.Errorf("dimacs: %w: a part with %d vertices and %d edges", ErrTooLarge, n, len(es))
+		return
+	}
 	stack := allStack(e.kinds)
 	rotation := stack && !o.NoRotation
 	// Reflection fixes one pair: the two smallest vertices not fixed by rotation.
@@ -130,7 +139,7 @@ func (e *Encoding) addPart(vs, es []int32) {
 	for j := range es {
 		f.add(FamPage, p.page[j]...)
 	}
-	pe := &partEncoder{e: e, p: p, kinds: e.kinds, memo: map[int64]int{}, isAux: map[int32]int{}}
+	pe := &partEncoder{e: e, p: p, kinds: e.kinds, memo: make([]int32, n*len(es)), isAux: map[int32]int{}}
 	for j := range es {
 		for k := j + 1; k < len(es); k++ {
 			if p.eu[j] == p.eu[k] || p.eu[j] == p.ev[k] || p.ev[j] == p.eu[k] || p.ev[j] == p.ev[k] {
@@ -172,12 +181,12 @@ func (pe *partEncoder) between(c int32, j int) between {
 	if pe.e.opt.NoBetweenness {
 		return between{x: x, y: y}
 	}
-	key := int64(c)<<32 | int64(j)
-	if i, ok := pe.memo[key]; ok {
-		return between{lit: pe.aux[i].v}
+	key := int(c)*len(p.edges) + j
+	if i := pe.memo[key]; i > 0 {
+		return between{lit: pe.aux[i-1].v}
 	}
 	v := pe.e.f.newVar(FamBetween)
-	pe.memo[key] = len(pe.aux)
+	pe.memo[key] = int32(len(pe.aux) + 1)
 	pe.isAux[v] = len(pe.aux)
 	pe.aux = append(pe.aux, auxBetween{v: v, x: x, y: y})
 	return between{lit: v}
@@ -280,13 +289,15 @@ func (pe *partEncoder) emit(j, k int, pages []int, cls [][]int32) {
 			f.add(FamSamePage, -p.page[j][pg], -p.page[k][pg], s)
 		}
 		for _, cl := range live {
-			f.add(FamConflict, append([]int32{-s}, cl...)...)
+			pe.buf = append(append(pe.buf[:0], -s), cl...)
+			f.add(FamConflict, pe.buf...)
 		}
 		return
 	}
 	for _, pg := range pages {
 		for _, cl := range live {
-			f.add(FamConflict, append([]int32{-p.page[j][pg], -p.page[k][pg]}, cl...)...)
+			pe.buf = append(append(pe.buf[:0], -p.page[j][pg], -p.page[k][pg]), cl...)
+			f.add(FamConflict, pe.buf...)
 		}
 	}
 }

@@ -282,10 +282,11 @@ func sparse6Bits(n uint64) uint {
 
 // parseSparse6 decodes the part after ':' per formats.txt: a sequence of
 // (b, x) pairs, b one bit and x k bits, read with v = 0 as: if b = 1 then
-// v++; if x > v then v = x else {x, v} is an edge. Trailing padding may
-// carry v or x past n-1 (such pairs are ignored, as the decoder in nauty
-// does); outside the last byte that is an error. An incomplete pair at the
-// end is discarded. Repeated edges are merged and reported in the warning.
+// v++; if x > v then v = x else {x, v} is an edge. The padding (at most
+// five bits) may carry v or x past n-1; such pairs are ignored, as the
+// decoder in nauty does, but a pair that starts before the last five bits
+// and names a vertex beyond n-1 is an error. An incomplete pair at the end
+// is discarded. Repeated edges are merged and reported in the warning.
 func parseSparse6(b []byte, col int) (*Graph, string, *ParseError) {
 	n, w, err := decodeN(b, col)
 	if err != nil {

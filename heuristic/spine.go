@@ -14,6 +14,7 @@ type spines struct {
 	rng  *rand.Rand
 	off  []int32 // CSR offsets of the adjacency (neighbours of v: adj[off[v]:off[v+1]])
 	adj  []int32
+	rot  *rotation // planar embedding for queue layouts, or nil
 }
 
 func newSpines(g *cert.Graph, kind cert.Kind, seed int64) *spines {
@@ -26,7 +27,11 @@ func newSpines(g *cert.Graph, kind cert.Kind, seed int64) *spines {
 	for v := 0; v < n; v++ {
 		copy(adj[off[v]:], g.Neighbors(int32(v)))
 	}
-	return &spines{g: g, kind: kind, rng: rand.New(rand.NewPCG(uint64(seed), 0x9e3779b97f4a7c15)), off: off, adj: adj}
+	s := &spines{g: g, kind: kind, rng: rand.New(rand.NewPCG(uint64(seed), 0x9e3779b97f4a7c15)), off: off, adj: adj}
+	if kind == cert.Queue {
+		s.rot = planarEmbedding(g)
+	}
+	return s
 }
 
 // candidate returns the i-th spine order. For stack layouts candidate 0 is
@@ -36,11 +41,19 @@ func newSpines(g *cert.Graph, kind cert.Kind, seed int64) *spines {
 // input order, and the rest Warnsdorff DFS from random roots with shuffled
 // ties. For queue layouts 0 is a BFS in input order from vertex 0, 1 the
 // input order, 2 a BFS with neighbours by ascending degree from a far
-// vertex, and the rest BFS with shuffled neighbours from random roots.
+// vertex, and the rest BFS with shuffled neighbours from random roots. For
+// queue layouts of planar graphs an embedding-guided BFS (leftBFS) from a
+// vertex far from vertex 0 comes first and the others follow.
 func (s *spines) candidate(i int) []int32 {
 	n := s.g.N()
 	if n == 0 {
 		return nil
+	}
+	if s.rot != nil {
+		if i == 0 {
+			return s.planarQueue()
+		}
+		i--
 	}
 	switch {
 	case i == 1 && s.kind == cert.Stack:
@@ -62,6 +75,44 @@ func (s *spines) candidate(i int) []int32 {
 	}
 	s.shuffle()
 	return s.traverse(int32(s.rng.IntN(n)), s.kind == cert.Stack)
+}
+
+// planarQueue returns the best of the embedding-guided BFS orders from a
+// vertex far from vertex 0 (found by a first BFS), with the root's rotation
+// starting at each of its first few slots.
+func (s *spines) planarQueue() []int32 {
+	far := s.rot.leftBFS(0, 0)
+	root := far[s.componentEnd(far)]
+	var best []int32
+	bestK := int32(-1)
+	for j := 0; j < min(planarStarts, s.g.Degree(root)); j++ {
+		order := s.rot.leftBFS(root, int32(j))
+		if _, k := queuePages(s.g, order); bestK < 0 || k < bestK {
+			best, bestK = order, k
+		}
+	}
+	if best == nil {
+		best = far
+	}
+	return best
+}
+
+// planarStarts bounds the root slots planarQueue tries.
+const planarStarts = 4
+
+// componentEnd returns the index in a BFS order of the last vertex of the
+// component of its first vertex.
+func (s *spines) componentEnd(order []int32) int {
+	seen := make([]bool, s.g.N())
+	seen[order[0]] = true
+	last := 0
+	for i := 0; i < len(order) && seen[order[i]]; i++ {
+		last = i
+		for _, w := range s.adj[s.off[order[i]]:s.off[order[i]+1]] {
+			seen[w] = true
+		}
+	}
+	return last
 }
 
 func (s *spines) minDegree() int32 {

@@ -1,8 +1,10 @@
 package cert
 
 import (
+	"cmp"
 	"errors"
 	"fmt"
+	"slices"
 )
 
 // ErrPlanar is returned (wrapped) by FindKuratowski when the graph is planar.
@@ -25,10 +27,17 @@ var ErrPlanar = errors.New("graph is planar")
 // order, so the first prefix found is a small region of the graph when the
 // obstruction is local.
 func FindKuratowski(g *Graph) (*Kuratowski, error) {
-	if IsPlanar(g) {
+	r := lrTest(lrOf(g), false)
+	if r.planar {
 		return nil, fmt.Errorf("cert: no Kuratowski subgraph: %w", ErrPlanar)
 	}
-	ks := newKurSearch(g)
+	return kuratowskiFrom(g, r.fail)
+}
+
+// kuratowskiFrom runs the search on the non-planar g, starting the first
+// breadth-first order at fail (or vertex 0 when fail is -1).
+func kuratowskiFrom(g *Graph, fail int32) (*Kuratowski, error) {
+	ks := newKurSearch(g, max(fail, 0))
 	ks.run()
 	return ks.readOff()
 }
@@ -45,12 +54,12 @@ type kurSearch struct {
 	required []int32
 	work     []int32
 
-	vmap, vstamp []int32 // vertex renumbering for tests
-	epoch        int32
-	tests        int
+	vmap, vstamp  []int32 // vertex renumbering for tests
+	epoch         int32
+	tests, rounds int
 }
 
-func newKurSearch(g *Graph) *kurSearch {
+func newKurSearch(g *Graph, center int32) *kurSearch {
 	m := g.M()
 	ks := &kurSearch{g: g, ea: make([]int32, m), eb: make([]int32, m), into: make([]int32, m),
 		alive: make([]bool, m), req: make([]bool, m),
@@ -60,12 +69,14 @@ func newKurSearch(g *Graph) *kurSearch {
 		ks.alive[i] = true
 		ks.into[i] = -1
 	}
-	ks.work = bfsEdgeOrder(g)
+	ks.work = bfsEdgeOrder(g, center)
 	return ks
 }
 
-// bfsEdgeOrder lists the edges of g by the later breadth-first rank of their ends.
-func bfsEdgeOrder(g *Graph) []int32 {
+// bfsEdgeOrder lists the edges of g by the later breadth-first rank of their
+// ends, the search starting at center (the vertex where the planarity test
+// found its conflict) and then at the other components.
+func bfsEdgeOrder(g *Graph, center int32) []int32 {
 	n := g.N()
 	rank := make([]int32, n)
 	for i := range rank {
@@ -73,8 +84,12 @@ func bfsEdgeOrder(g *Graph) []int32 {
 	}
 	next := int32(0)
 	queue := make([]int32, 0, n)
-	for s := int32(0); int(s) < n; s++ {
-		if rank[s] >= 0 {
+	for i := int32(-1); int(i) < n; i++ {
+		s := i
+		if i < 0 {
+			s = center
+		}
+		if n == 0 || rank[s] >= 0 {
 			continue
 		}
 		rank[s] = next
@@ -163,7 +178,53 @@ func (ks *kurSearch) run() {
 		ks.required = append(ks.required, s)
 		ks.work = ks.work[:hi-1]
 		ks.reduce()
+		ks.rounds++
+		ks.reorder()
 	}
+}
+
+// reorder sorts the candidates by breadth-first distance from the ends of
+// the required edges, so that the next prefix search looks near them first.
+func (ks *kurSearch) reorder() {
+	if len(ks.required) == 0 || len(ks.work) == 0 {
+		return
+	}
+	adj := make(map[int32][]int32)
+	for _, list := range [2][]int32{ks.required, ks.work} {
+		for _, s := range list {
+			a, b := ks.ea[s], ks.eb[s]
+			adj[a] = append(adj[a], b)
+			adj[b] = append(adj[b], a)
+		}
+	}
+	dist := make(map[int32]int32, len(adj))
+	var queue []int32
+	for _, s := range ks.required {
+		for _, v := range [2]int32{ks.ea[s], ks.eb[s]} {
+			if _, ok := dist[v]; !ok {
+				dist[v] = 0
+				queue = append(queue, v)
+			}
+		}
+	}
+	for h := 0; h < len(queue); h++ {
+		v := queue[h]
+		for _, w := range adj[v] {
+			if _, ok := dist[w]; !ok {
+				dist[w] = dist[v] + 1
+				queue = append(queue, w)
+			}
+		}
+	}
+	key := func(s int32) int32 {
+		da, okA := dist[ks.ea[s]]
+		db, okB := dist[ks.eb[s]]
+		if !okA || !okB {
+			return 1 << 30
+		}
+		return max(da, db)
+	}
+	slices.SortStableFunc(ks.work, func(x, y int32) int { return cmp.Compare(key(x), key(y)) })
 }
 
 func (ks *kurSearch) newSuper(a, b, x, y int32) int32 {

@@ -126,10 +126,13 @@ func IsMaximalPlanar(g *Graph) bool {
 // embedding, or a subdivision of K5 or K3,3. The certificate is not checked
 // here; CheckPlanarCert does that independently of this code.
 func Planarity(g *Graph) (*PlanarityResult, error) {
-	if emb, ok := PlanarEmbedding(g); ok {
+	lg := lrOf(g)
+	r := lrTest(lg, true)
+	if r.planar {
+		emb := embeddingFromLR(g.N(), lg, r)
 		return &PlanarityResult{Planar: true, Cert: &PlanarCert{Planar: true, Embedding: emb}}, nil
 	}
-	k, err := FindKuratowski(g)
+	k, err := kuratowskiFrom(g, r.fail)
 	if err != nil {
 		return nil, err
 	}

@@ -20,6 +20,9 @@ type lrGraph struct {
 // lrResult is the outcome of the test; rot is set when planar and asked for.
 type lrResult struct {
 	planar bool
+	// fail is the vertex whose edge could not be placed (when not planar by
+	// a conflict), or -1.
+	fail int32
 	// first[v] is a half-edge at v (or -1), next[h] the clockwise successor of
 	// half-edge h around its vertex. Half-edge 2e lies at eu[e], 2e+1 at ev[e].
 	first []int32
@@ -57,20 +60,20 @@ func (st *lrState) target(e int32) int32 { return st.g.eu[e] ^ st.g.ev[e] ^ st.s
 func lrTest(g *lrGraph, embed bool) lrResult {
 	n, m := g.n, len(g.eu)
 	if n >= 3 && m > 3*n-6 {
-		return lrResult{}
+		return lrResult{fail: lrNone}
 	}
 	if n < 3 && m > n*(n-1)/2 {
-		return lrResult{}
+		return lrResult{fail: lrNone}
 	}
 	st := &lrState{g: g, m: m}
 	st.buildIncidence()
 	st.orient()
 	st.sortOut(false)
-	if !st.testAll() {
-		return lrResult{}
+	if fail := st.testAll(); fail != lrNone {
+		return lrResult{fail: fail}
 	}
 	if !embed {
-		return lrResult{planar: true}
+		return lrResult{planar: true, fail: lrNone}
 	}
 	return st.embed()
 }
@@ -230,8 +233,9 @@ func (st *lrState) lowest(p lrPair) int32 {
 	return min(st.lowpt[p.l.low], st.lowpt[p.r.low])
 }
 
-// testAll is the second DFS; it reports whether the graph is planar.
-func (st *lrState) testAll() bool {
+// testAll is the second DFS; it returns -1 when the graph is planar, else
+// the vertex at which a conflict was found.
+func (st *lrState) testAll() int32 {
 	n, m := st.g.n, st.m
 	st.ref = make([]int32, m)
 	st.lowptEdge = make([]int32, m)
@@ -260,7 +264,7 @@ func (st *lrState) testAll() bool {
 				st.lowptEdge[ei] = ei
 				st.s = append(st.s, lrPair{l: lrInterval{lrNone, lrNone}, r: lrInterval{ei, ei}})
 				if !st.integrate(v, ei) {
-					return false
+					return v
 				}
 				idx[v]++
 				continue
@@ -273,12 +277,12 @@ func (st *lrState) testAll() bool {
 			u := st.src[e]
 			st.removeBackEdges(e)
 			if !st.integrate(u, e) {
-				return false
+				return u
 			}
 			idx[u]++
 		}
 	}
-	return true
+	return lrNone
 }
 
 // integrate adds the return edges of the out-edge ei of v to the constraints.
@@ -491,5 +495,5 @@ func (st *lrState) embed() lrResult {
 			}
 		}
 	}
-	return lrResult{planar: true, first: first, next: next}
+	return lrResult{planar: true, fail: lrNone, first: first, next: next}
 }

@@ -23,16 +23,15 @@ type dratStep struct {
 // dratChecker checks one proof against one formula.
 type dratChecker struct {
 	*dratDB
-	opt    DRATOptions
-	res    *ProofResult
-	pr     *proofReader
-	nOrig  int
-	steps  []dratStep // backward mode only
-	buf    []uint32
-	hints  []int
-	lrat   *lratLog
-	maxVar int
-	ctx    context.Context
+	opt   DRATOptions
+	res   *ProofResult
+	pr    *proofReader
+	nOrig int
+	steps []dratStep // backward mode only
+	buf   []uint32
+	hints []int
+	lrat  *lratLog
+	ctx   context.Context
 }
 
 // reject records the first failing step and returns ErrProofRejected.
@@ -53,15 +52,15 @@ func (k *dratChecker) clauseText(c int) string {
 	ext := make([]int32, 0, len(ls))
 	if k.cls[c].flags&flagLemma != 0 && len(ls) > 0 {
 		p := k.cls[c].pivot
-		ext = append(ext, extLit(p))
+		ext = append(ext, k.extLit(p))
 		for _, l := range ls {
 			if l != p {
-				ext = append(ext, extLit(l))
+				ext = append(ext, k.extLit(l))
 			}
 		}
 	} else {
 		for _, l := range ls {
-			ext = append(ext, extLit(l))
+			ext = append(ext, k.extLit(l))
 		}
 	}
 	return formatStep(false, ext)
@@ -72,9 +71,6 @@ func (k *dratChecker) clauseText(c int) string {
 func (k *dratChecker) loadFormula(clauses [][]int32) bool {
 	ok := true
 	for _, ext := range clauses {
-		for _, x := range ext {
-			k.ensureVar(int(max(x, -x)))
-		}
 		ls, taut := k.normalize(ext, k.buf)
 		k.buf = ls
 		c := k.add(ls, taut, false)
@@ -167,7 +163,7 @@ func (k *dratChecker) checkLemma(c int) string {
 		var ok bool
 		hints, ok = k.checkResolvent(d, p, hints, want)
 		if !ok {
-			return fmt.Sprintf("not implied by unit propagation (RUP), and not RAT on its first literal %d: the resolvent with clause %s is not implied by unit propagation", extLit(p), k.describe(d))
+			return fmt.Sprintf("not implied by unit propagation (RUP), and not RAT on its first literal %d: the resolvent with clause %s is not implied by unit propagation", k.extLit(p), k.describe(d))
 		}
 	}
 	k.hints = hints
@@ -279,13 +275,6 @@ func (k *dratChecker) readSteps(forward bool) (conflictStep int64, err error) {
 		if conflictStep >= 0 {
 			continue // after the refutation: read, do not check
 		}
-		for _, x := range ext {
-			v := int(max(x, -x))
-			if v > k.maxVar {
-				return 0, k.reject(step, formatStep(del, ext), k.pr.where(), fmt.Sprintf("variable %d is beyond the limit for this formula (%d)", v, k.maxVar))
-			}
-			k.ensureVar(v)
-		}
 		ls, taut := k.normalize(ext, k.buf)
 		k.buf = ls
 		if del {
@@ -320,7 +309,7 @@ func (k *dratChecker) readSteps(forward bool) (conflictStep int64, err error) {
 		}
 		c := k.add(ls, taut, true)
 		if len(ext) > 0 {
-			k.cls[c].pivot = lit(ext[0])
+			k.cls[c].pivot = k.lit(ext[0])
 		}
 		if forward {
 			k.res.CoreLemmas++

@@ -43,13 +43,20 @@ type dratDB struct {
 	live    int   // clauses in the hash index
 	wasted  int   // arena words of clauses removed for good (forward mode)
 
+	// Variables 1..dense are their own index; a larger one (inputs may name
+	// any variable up to 2^31-1) gets the next index after dense, so memory
+	// follows the variables used, not their numbers.
+	dense  int
+	extVar []int32       // extVar[i] is the variable of index dense+1+i
+	intern map[int32]int // variable -> index, beyond dense
+
 	conflict     int
 	propagations uint64
 }
 
-func newDratDB(vars int) *dratDB {
-	d := &dratDB{conflict: noClause}
-	d.ensureVar(vars)
+// newDratDB makes a database whose variables up to dense are kept in place.
+func newDratDB(dense int) *dratDB {
+	d := &dratDB{conflict: noClause, dense: dense, intern: map[int32]int{}}
 	d.buckets = make([]int, 1024)
 	for i := range d.buckets {
 		d.buckets[i] = noClause
@@ -57,18 +64,38 @@ func newDratDB(vars int) *dratDB {
 	return d
 }
 
-func lit(x int32) uint32 {
+// lit encodes the literal x of the input (|x| <= 2^31-1).
+func (d *dratDB) lit(x int32) uint32 {
+	v := int(x)
 	if x < 0 {
-		return uint32(-x)<<1 | 1
+		v = -v
 	}
-	return uint32(x) << 1
+	if v > d.dense {
+		i, ok := d.intern[int32(v)]
+		if !ok {
+			d.extVar = append(d.extVar, int32(v))
+			i = d.dense + len(d.extVar)
+			d.intern[int32(v)] = i
+		}
+		v = i
+	}
+	d.ensureVar(v)
+	if x < 0 {
+		return uint32(v)<<1 | 1
+	}
+	return uint32(v) << 1
 }
 
-func extLit(l uint32) int32 {
-	if l&1 == 1 {
-		return -int32(l >> 1)
+// extLit decodes l to the literal of the input.
+func (d *dratDB) extLit(l uint32) int32 {
+	v := int32(l >> 1)
+	if int(v) > d.dense {
+		v = d.extVar[int(v)-d.dense-1]
 	}
-	return int32(l >> 1)
+	if l&1 == 1 {
+		return -v
+	}
+	return v
 }
 
 func (d *dratDB) ensureVar(v int) {
@@ -114,7 +141,7 @@ func (d *dratDB) normalize(ext []int32, buf []uint32) ([]uint32, bool) {
 	buf = buf[:0]
 	taut := false
 	for _, x := range ext {
-		l := lit(x)
+		l := d.lit(x)
 		if d.mark[l] {
 			continue
 		}

@@ -195,3 +195,25 @@ func TestDeletions(t *testing.T) {
 		}
 	}
 }
+
+// Variable numbers up to 2^31-1 cost memory by use, not by number (a
+// formula naming variable 2147483647 would otherwise need gigabytes).
+func TestHugeVariables(t *testing.T) {
+	f := parseCNF(t, "p cnf 2147483647 4\n2147483647 5 0\n-2147483647 5 0\n2147483647 -5 0\n-2147483647 -5 0\n")
+	// 2000000000 is new: (2000000000 -5) is RAT on it; then (-5) and 0
+	proof := "2000000000 -5 0\n-5 0\n0\n"
+	for _, forward := range []bool{false, true} {
+		var lrat bytes.Buffer
+		res, err := checkText(t, f, proof, DRATOptions{Forward: forward, LRAT: &lrat})
+		if err != nil || !res.Accepted {
+			t.Fatalf("forward=%v: %v", forward, err)
+		}
+		if _, err := CheckLRAT(context.Background(), f, &lrat, "lrat"); err != nil {
+			t.Fatalf("forward=%v: LRAT %v\n%s", forward, err, lrat.String())
+		}
+	}
+	res, err := checkText(t, f, "-2147483647 0\n2147483647 0\n", DRATOptions{})
+	if !errors.Is(err, ErrProofRejected) || res.FailedText != "" {
+		t.Fatalf("no empty clause: %v %+v", err, res)
+	}
+}

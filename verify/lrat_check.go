@@ -13,6 +13,7 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"math"
 	"strconv"
 	"strings"
 
@@ -33,20 +34,25 @@ type LRATResult struct {
 
 type lratState struct {
 	cls   map[int64][]int32
-	val   []int8 // per variable: 1 true, -1 false
+	val   []int8         // per variable below dense: 1 true, -1 false
+	far   map[int32]int8 // the same for variables from dense on
+	dense int
 	undo  []int32
-	limit int
 }
 
 func (s *lratState) value(l int32) int8 {
 	v := int(max(l, -l))
-	if v >= len(s.val) {
-		return 0
+	var x int8
+	switch {
+	case v >= s.dense:
+		x = s.far[int32(v)]
+	case v < len(s.val):
+		x = s.val[v]
 	}
 	if l < 0 {
-		return -s.val[v]
+		return -x
 	}
-	return s.val[v]
+	return x
 }
 
 // set makes l true; it reports false when l is already false.
@@ -58,12 +64,17 @@ func (s *lratState) set(l int32) bool {
 		return false
 	}
 	v := int(max(l, -l))
-	for len(s.val) <= v {
-		s.val = append(s.val, 0)
-	}
-	s.val[v] = 1
+	x := int8(1)
 	if l < 0 {
-		s.val[v] = -1
+		x = -1
+	}
+	if v >= s.dense {
+		s.far[int32(v)] = x
+	} else {
+		for len(s.val) <= v {
+			s.val = append(s.val, 0)
+		}
+		s.val[v] = x
 	}
 	s.undo = append(s.undo, int32(v))
 	return true
@@ -71,7 +82,11 @@ func (s *lratState) set(l int32) bool {
 
 func (s *lratState) reset(to int) {
 	for _, v := range s.undo[to:] {
-		s.val[v] = 0
+		if int(v) >= s.dense {
+			delete(s.far, v)
+		} else {
+			s.val[v] = 0
+		}
 	}
 	s.undo = s.undo[:to]
 }
@@ -202,7 +217,7 @@ func CheckLRAT(ctx context.Context, cnf *dimacs.CNF, r io.Reader, name string) (
 		return nil, fmt.Errorf("verify: %s: %w", name, err)
 	}
 	defer dr.Close()
-	s := &lratState{cls: make(map[int64][]int32, len(cnf.Clauses)), limit: 2*cnf.Vars + 1<<20}
+	s := &lratState{cls: make(map[int64][]int32, len(cnf.Clauses)), far: map[int32]int8{}, dense: min(cnf.Vars, 2*cnf.Literals()+1<<16) + 1}
 	for i, c := range cnf.Clauses {
 		s.cls[int64(i+1)] = c
 	}
@@ -263,8 +278,8 @@ func CheckLRAT(ctx context.Context, cnf *dimacs.CNF, r io.Reader, name string) (
 		}
 		lits := make([]int32, len(nums))
 		for i, n := range nums {
-			if n > int64(s.limit) || -n > int64(s.limit) {
-				return reject(text, fmt.Sprintf("literal %d is beyond the variable limit %d", n, s.limit))
+			if n > math.MaxInt32 || -n > math.MaxInt32 {
+				return nil, parseErr("literal %d out of range (variables are at most %d)", n, math.MaxInt32)
 			}
 			lits[i] = int32(n)
 		}

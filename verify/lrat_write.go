@@ -57,11 +57,11 @@ func (g *lratLog) appendLits(k *dratChecker, c int) {
 	ls := k.lits(c)
 	if len(ls) > 0 {
 		p := k.cls[c].pivot
-		g.line = strconv.AppendInt(g.line, int64(extLit(p)), 10)
+		g.line = strconv.AppendInt(g.line, int64(k.extLit(p)), 10)
 		g.line = append(g.line, ' ')
 		for _, l := range ls {
 			if l != p {
-				g.line = strconv.AppendInt(g.line, int64(extLit(l)), 10)
+				g.line = strconv.AppendInt(g.line, int64(k.extLit(l)), 10)
 				g.line = append(g.line, ' ')
 			}
 		}

@@ -94,8 +94,10 @@ func CheckDRAT(ctx context.Context, cnf *dimacs.CNF, proof io.Reader, opt DRATOp
 	if opt.Forward {
 		res.Mode = "forward"
 	}
-	k := &dratChecker{dratDB: newDratDB(cnf.Vars), opt: opt, res: res, pr: pr, ctx: ctx}
-	k.maxVar = 2*cnf.Vars + 1<<20
+	// variables are kept in place up to a bound set by the size of the
+	// formula, whatever its header says
+	dense := min(cnf.Vars, 2*cnf.Literals()+1<<16)
+	k := &dratChecker{dratDB: newDratDB(dense), opt: opt, res: res, pr: pr, ctx: ctx}
 	k.loadFormula(cnf.Clauses)
 	if opt.LRAT != nil {
 		k.lrat = newLRATLog(opt.LRAT, opt.Forward, k.nOrig)

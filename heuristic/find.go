@@ -23,11 +23,17 @@ type Options struct {
 	TimeLimit time.Duration
 }
 
-func (o Options) candidates() int {
-	if o.Candidates <= 0 {
+// candidates returns the spine orders to try: Candidates, or by default 8;
+// for stack layouts of more than 2·10^5 edges fewer (at least 3), so that
+// the default work grows about linearly with the size of the graph.
+func (o Options) candidates(kind cert.Kind, m int) int {
+	if o.Candidates > 0 {
+		return o.Candidates
+	}
+	if kind == cert.Queue {
 		return 8
 	}
-	return o.Candidates
+	return max(3, min(8, 8*200_000/max(m, 1)))
 }
 
 // Find returns a layout of kind cert.Stack or cert.Queue for g.
@@ -69,7 +75,8 @@ func search(g *cert.Graph, kind cert.Kind, opts Options) *cert.Layout {
 	if g.M() == 0 {
 		lower = 0
 	}
-	n := opts.candidates()
+	n := opts.candidates(kind, g.M())
+	checked := false // whether g was tested for outerplanarity
 	for i := 0; i < n; i++ {
 		if i > 0 && past(deadline) {
 			break
@@ -88,8 +95,34 @@ func search(g *cert.Graph, kind cert.Kind, opts Options) *cert.Layout {
 		if bestK <= lower {
 			break
 		}
+		if bestK == 2 && lower == 1 && kind == cert.Stack && !checked {
+			checked = true
+			if !outerplanar(g) {
+				break
+			}
+		}
 	}
 	return newLayout(kind, bestOrder, best, bestK)
+}
+
+// outerplanar reports whether g has a 1-page stack layout: whether g plus a
+// vertex joined to every vertex is planar (G. Chartrand and F. Harary,
+// "Planar permutation graphs", Ann. Inst. H. Poincaré B 3, 1967; a graph is
+// outerplanar exactly when this apex graph is planar; from memory).
+func outerplanar(g *cert.Graph) bool {
+	n := g.N()
+	if g.M() > 2*n-3 {
+		return false
+	}
+	edges := make([][2]int, 0, g.M()+n)
+	for _, e := range g.Edges() {
+		edges = append(edges, [2]int{int(e.U), int(e.V)})
+	}
+	for v := 0; v < n; v++ {
+		edges = append(edges, [2]int{v, n})
+	}
+	a, err := cert.NewNumbered(n+1, 0, edges)
+	return err == nil && cert.IsPlanar(a)
 }
 
 func newLayout(kind cert.Kind, order, page []int32, k int32) *cert.Layout {

@@ -56,7 +56,7 @@ func TestRotationFaces(t *testing.T) {
 func TestGridOneQueue(t *testing.T) {
 	for _, wh := range [][2]int{{3, 3}, {5, 4}, {10, 10}, {30, 7}, {1, 9}} {
 		g := grid(t, wh[0], wh[1])
-		l := Queue(g, Options{Candidates: 1})
+		l := Queue(g, Options{Candidates: 2})
 		if k := checkLayout(t, g, l); k != 1 {
 			t.Errorf("grid %v: %d queues, want 1", wh, k)
 		}

@@ -27,11 +27,7 @@ func newSpines(g *cert.Graph, kind cert.Kind, seed int64) *spines {
 	for v := 0; v < n; v++ {
 		copy(adj[off[v]:], g.Neighbors(int32(v)))
 	}
-	s := &spines{g: g, kind: kind, rng: rand.New(rand.NewPCG(uint64(seed), 0x9e3779b97f4a7c15)), off: off, adj: adj}
-	if kind == cert.Queue {
-		s.rot = planarEmbedding(g)
-	}
-	return s
+	return &spines{g: g, kind: kind, rng: rand.New(rand.NewPCG(uint64(seed), 0x9e3779b97f4a7c15)), off: off, adj: adj}
 }
 
 // candidate returns the i-th spine order. For stack layouts candidate 0 is
@@ -43,17 +39,22 @@ func newSpines(g *cert.Graph, kind cert.Kind, seed int64) *spines {
 // input order, 2 a BFS with neighbours by ascending degree from a far
 // vertex, and the rest BFS with shuffled neighbours from random roots. For
 // queue layouts of planar graphs an embedding-guided BFS (leftBFS) from a
-// vertex far from vertex 0 comes first and the others follow.
+// vertex far from vertex 0 comes second and the others follow.
 func (s *spines) candidate(i int) []int32 {
 	n := s.g.N()
 	if n == 0 {
 		return nil
 	}
-	if s.rot != nil {
-		if i == 0 {
-			return s.planarQueue()
+	if s.kind == cert.Queue && i >= 1 {
+		if i == 1 {
+			s.rot = planarEmbedding(s.g)
 		}
-		i--
+		if s.rot != nil {
+			if i == 1 {
+				return s.planarQueue()
+			}
+			i--
+		}
 	}
 	switch {
 	case i == 1 && s.kind == cert.Stack:

@@ -18,18 +18,29 @@ import (
 func stackPages(g *cert.Graph, order []int32, deadline time.Time, rng *rand.Rand, bestK int32) ([]int32, int32) {
 	n := g.N()
 	ls, rs := spans(g, order)
-	page, k := sweepStack(ls, rs, n)
-	if k <= 1 {
+	limit := int32(math.MaxInt32)
+	if bestK > 0 {
+		limit = 2 * bestK
+	}
+	page, k := sweepStack(ls, rs, n, limit)
+	if k <= 1 || page == nil {
 		return page, k
 	}
-	if bestK > 0 && k > 2*bestK {
-		return nil, k
+	// The improvement passes below cost O(m·k·log n) each; their number is
+	// bounded by a fixed amount of work so that large graphs spend their
+	// time on the sweep, and results stay independent of the clock.
+	passes := improveWork / (int64(len(ls)) * int64(k))
+	if passes < 1 {
+		return page, k
 	}
-	if p2, k2 := firstFit(ls, rs, n, byLength(ls, rs, n), k-1); k2 < k {
+	if p2, k2 := firstFit(ls, rs, n, byLength(ls, rs, n), k-1, deadline); k2 < k {
 		page, k = p2, k2
 	}
-	for stale := 0; stale < 3 && k > 1 && !past(deadline); {
-		p2, k2 := firstFit(ls, rs, n, byClass(page, k, ls, rs, n, rng), k)
+	for stale := 0; stale < 3 && k > 1 && passes > 0 && !past(deadline); passes-- {
+		p2, k2 := firstFit(ls, rs, n, byClass(page, k, ls, rs, n, rng), k, deadline)
+		if p2 == nil {
+			break
+		}
 		if k2 < k {
 			page, k, stale = p2, k2, 0
 			continue
@@ -45,6 +56,10 @@ func stackPages(g *cert.Graph, order []int32, deadline time.Time, rng *rand.Rand
 	}
 	return page, k
 }
+
+// improveWork bounds the edge-page probes of the improvement passes per
+// spine candidate (a fraction of a second of work).
+const improveWork = 20_000_000
 
 func past(deadline time.Time) bool { return !deadline.IsZero() && time.Now().After(deadline) }
 
@@ -98,8 +113,9 @@ func byLength(ls, rs []int32, n int) []int32 {
 // sweepStack is the one-pass first fit: edges by left end ascending and
 // right end descending; each page is a stack of the right ends of its open
 // arcs, and an edge fits a page when, after closed arcs are popped, the top
-// arc contains it.
-func sweepStack(ls, rs []int32, n int) ([]int32, int32) {
+// arc contains it. It gives up (nil, limit+1) when more than limit pages
+// would be needed.
+func sweepStack(ls, rs []int32, n int, limit int32) ([]int32, int32) {
 	sorted := sortByLeft(ls, rs, n, true)
 	page := make([]int32, len(ls))
 	var stacks [][]int32
@@ -117,6 +133,9 @@ func sweepStack(ls, rs []int32, n int) ([]int32, int32) {
 			}
 		}
 		if p == len(stacks) {
+			if int32(p) == limit {
+				return nil, limit + 1
+			}
 			stacks = append(stacks, nil)
 		}
 		stacks[p] = append(stacks[p], r)
@@ -128,12 +147,15 @@ func sweepStack(ls, rs []int32, n int) ([]int32, int32) {
 // firstFit puts the edges, in the given order, each on the lowest page it
 // does not cross; each page is a segment tree answering whether an edge
 // would cross the page. It gives up (nil, limit+1) when more than limit
-// pages would be needed.
-func firstFit(ls, rs []int32, n int, sorted []int32, limit int32) ([]int32, int32) {
+// pages would be needed or the deadline passes.
+func firstFit(ls, rs []int32, n int, sorted []int32, limit int32, deadline time.Time) ([]int32, int32) {
 	m := len(ls)
 	page := make([]int32, m)
 	var trees []*segTree
-	for _, e := range sorted {
+	for i, e := range sorted {
+		if i&(1<<14-1) == 1<<14-1 && past(deadline) {
+			return nil, limit + 1
+		}
 		l, r := ls[e], rs[e]
 		p := 0
 		for ; p < len(trees); p++ {

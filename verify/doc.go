@@ -44,7 +44,8 @@
 // that the conflict and the checks of core lemmas used, and checks only the
 // core lemmas. Forward mode checks every lemma in proof order and keeps no
 // record of the steps; deleted clauses are freed. Memory is linear in the
-// clauses of the formula and the proof; counters are 64-bit. A RAT check
+// clauses of the formula and the proof, and follows the variables used, not
+// their numbers (any variable up to 2^31-1 is allowed); counters are 64-bit. A RAT check
 // scans the current clauses for the negated pivot, so proofs with many RAT
 // lemmas cost time proportional to their number times the formula size.
 //

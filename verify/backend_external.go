@@ -137,6 +137,9 @@ func (e *External) Solve(ctx context.Context, cnf *dimacs.CNF, limit time.Durati
 	start := time.Now()
 	runErr := cmd.Run()
 	res.Elapsed = time.Since(start)
+	if ps := cmd.ProcessState; ps != nil {
+		res.CPU = ps.UserTime() + ps.SystemTime()
+	}
 	if cmd.Process != nil {
 		// Whatever the program left behind in its group goes too.
 		_ = syscall.Kill(-cmd.Process.Pid, syscall.SIGKILL)

@@ -55,6 +55,7 @@ type Result struct {
 	Proof       string        `json:"proof,omitempty"`        // path of the proof file (only for Unsat from a proof-writing backend)
 	ProofFormat string        `json:"proof_format,omitempty"` // one of the Proof* constants
 	Elapsed     time.Duration `json:"elapsed_ns"`
+	CPU         time.Duration `json:"cpu_ns,omitempty"` // user+system time of a solver process (external backends)
 	Detail      string        `json:"detail,omitempty"` // why the answer is Unknown, or other notes
 	// Suspect is set when the backend said something provably false (a
 	// model that violates a clause) or inconsistent (exit code against its

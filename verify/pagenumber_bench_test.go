@@ -1,0 +1,107 @@
+package verify
+
+import (
+	"context"
+	"os"
+	"testing"
+	"time"
+
+	"quire/cert"
+	"quire/dimacs"
+	"quire/internal/testtools"
+)
+
+// benchLimit is the time limit per solver run in the K_9 benchmarks
+// (QUIRE_BENCH_LIMIT, a Go duration; default 10m).
+func benchLimit(b *testing.B) time.Duration {
+	if s := os.Getenv("QUIRE_BENCH_LIMIT"); s != "" {
+		d, err := time.ParseDuration(s)
+		if err != nil {
+			b.Fatal(err)
+		}
+		return d
+	}
+	return 10 * time.Minute
+}
+
+// BenchmarkPageNumberK9 measures quire's page number of K_9 (5, Bernhart &
+// Kainen 1979): with the solver-free bounds (the edge count gives 5), and
+// with the lower bound proved by a checked UNSAT for 4 pages using cadical
+// and minisat as the two backends (cadical's proof is checked).
+func BenchmarkPageNumberK9(b *testing.B) {
+	g := complete(b, 9)
+	b.Run("bounds", func(b *testing.B) {
+		for b.Loop() {
+			res, err := PageNumber(context.Background(), g, PageNumberOptions{Kind: cert.Stack, Solvers: []Solver{Gini{}}})
+			if err != nil || res.PageNumber != 5 {
+				b.Fatalf("%v %+v", err, res)
+			}
+		}
+	})
+	b.Run("unsat-lower", func(b *testing.B) {
+		solvers := []Solver{externalForBench(b, "cadical"), externalForBench(b, "minisat")}
+		for b.Loop() {
+			res, err := PageNumber(context.Background(), g, PageNumberOptions{Kind: cert.Stack, Solvers: solvers, UnsatLower: true, Limit: benchLimit(b)})
+			if err != nil || res.PageNumber != 5 || res.Lower.Source != SourceUnsat {
+				b.Fatalf("%v %+v", err, res)
+			}
+		}
+	})
+}
+
+func externalForBench(b *testing.B, name string) Solver {
+	testtools.Require(b, name, name)
+	s, err := ByName(name, ChildCommand{})
+	if err != nil {
+		b.Fatal(err)
+	}
+	return s
+}
+
+// BenchmarkK9FourPages measures each backend alone on "K_9 has a 4-page
+// stack layout" (unsatisfiable, Bernhart & Kainen 1979), in the default
+// encoding and in the published baseline formulation. A run that hits the
+// time limit fails the benchmark with the limit in its message.
+func BenchmarkK9FourPages(b *testing.B) {
+	g := complete(b, 9)
+	for _, enc := range []struct {
+		name string
+		opt  dimacs.Options
+	}{
+		{"default", dimacs.Options{Kind: cert.Stack, Pages: 4}},
+		{"baseline", dimacs.Options{Kind: cert.Stack, Pages: 4, Baseline: true}},
+	} {
+		e, err := dimacs.Encode(g, enc.opt)
+		if err != nil {
+			b.Fatal(err)
+		}
+		cnf := e.CNF()
+		for _, name := range []string{"gophersat", "gini", "cadical", "minisat"} {
+			b.Run(enc.name+"/"+name, func(b *testing.B) {
+				var s Solver
+				switch name {
+				case "gophersat":
+					s = gophersatForTest(b)
+				case "gini":
+					s = Gini{}
+				default:
+					s = externalForBench(b, name)
+				}
+				var cpu time.Duration
+				for b.Loop() {
+					r, err := s.Solve(context.Background(), cnf, benchLimit(b), "")
+					if err != nil {
+						b.Fatal(err)
+					}
+					cpu += r.CPU
+					if r.Answer != Unsat {
+						b.Fatalf("%s: %s after %v (%s)", name, r.Answer, r.Elapsed, r.Detail)
+					}
+				}
+				if cpu > 0 {
+					b.ReportMetric(cpu.Seconds()/float64(b.N), "cpu-s/op")
+				}
+			})
+		}
+	}
+}

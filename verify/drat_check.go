@@ -346,10 +346,14 @@ func (k *dratChecker) readSteps(forward bool) (conflictStep int64, err error) {
 	return conflictStep, nil
 }
 
+// compactMin is the least waste (in literals) worth a compaction; 0
+// compacts at every deletion (for tests).
+var compactMin = 1 << 20
+
 // compact rewrites the arena without the clauses deleted for good (forward
 // mode), once they waste more than half of it.
 func (k *dratChecker) compact() {
-	if k.wasted < 1<<20 || 2*k.wasted < len(k.arena) {
+	if compactMin > 0 && (k.wasted < compactMin || 2*k.wasted < len(k.arena)) {
 		return
 	}
 	arena := make([]uint32, 0, len(k.arena)-k.wasted)

@@ -357,3 +357,33 @@ func TestMutantsAgreeWithLRAT(t *testing.T) {
 		t.Fatalf("mutants: %d accepted, %d rejected; want some of each", accepted, rejected)
 	}
 }
+
+// Forward mode frees deleted clauses by compacting its clause store; with
+// compaction forced at every chance, cadical's proofs still check and their
+// LRAT still re-checks.
+func TestForwardCompaction(t *testing.T) {
+	old := compactMin
+	compactMin = 0
+	defer func() { compactMin = old }()
+	rng := rand.New(rand.NewPCG(9, 9))
+	checked := 0
+	for range 10 {
+		f := proofRandom3SAT(rng, 60, 256)
+		proof, isUnsat := cadicalMaybeProof(t, f)
+		if !isUnsat {
+			continue
+		}
+		var lrat bytes.Buffer
+		res, err := CheckDRAT(context.Background(), f, bytes.NewReader(proof), DRATOptions{Forward: true, LRAT: &lrat})
+		if err != nil || res.Deletions == 0 {
+			t.Fatalf("%v (%d deletions)", err, res.Deletions)
+		}
+		if _, err := CheckLRAT(context.Background(), f, &lrat, "lrat"); err != nil {
+			t.Fatal(err)
+		}
+		checked++
+	}
+	if checked == 0 {
+		t.Fatal("no UNSAT instance")
+	}
+}

@@ -11,12 +11,13 @@ import (
 // Encoding is the CNF for one layout claim about one graph, with what is
 // needed to turn a model back into a layout of that graph.
 type Encoding struct {
-	g     *cert.Graph
-	opt   Options
-	kinds []cert.Kind
-	f     formula
-	parts []*part
-	base  *baseMap
+	g       *cert.Graph
+	opt     Options
+	version string
+	kinds   []cert.Kind
+	f       formula
+	parts   []*part
+	base    *baseMap
 
 	// How the parts are put back together (default formulation).
 	blocks   bool
@@ -37,7 +38,7 @@ func Encode(g *cert.Graph, opt Options) (*Encoding, error) {
 	if !opt.Baseline && opt.Kind != cert.Mixed {
 		opt.PageKinds = nil
 	}
-	e := &Encoding{g: g, opt: opt, kinds: kinds}
+	e := &Encoding{g: g, opt: opt, kinds: kinds, version: EncoderVersion}
 	if opt.Baseline {
 		e.encodeBaseline()
 	} else {
@@ -48,6 +49,30 @@ func Encode(g *cert.Graph, opt Options) (*Encoding, error) {
 	}
 	return e, nil
 }
+
+// EncodeVersion is Encode as encoder version wrote it: EncoderVersion, or an
+// earlier one listed by EncoderVersions, so that a CNF recorded with an older
+// quire can be reproduced byte for byte. quire-enc-1 had no twin symmetry
+// breaking: it is Encode with NoTwins set (the returned Options say so) and
+// its own version in the header.
+func EncodeVersion(g *cert.Graph, opt Options, version string) (*Encoding, error) {
+	switch version {
+	case EncoderVersion:
+		return Encode(g, opt)
+	case legacyVersion:
+		opt.NoTwins = true
+		e, err := Encode(g, opt)
+		if err != nil {
+			return nil, err
+		}
+		e.version = legacyVersion
+		return e, nil
+	}
+	return nil, fmt.Errorf("dimacs: %w %q (this encoder writes %s)", ErrUnknownVersion, version, strings.Join(EncoderVersions(), ", "))
+}
+
+// Version returns the encoder version the CNF is written as.
+func (e *Encoding) Version() string { return e.version }
 
 // Graph returns the graph the encoding is about.
 func (e *Encoding) Graph() *cert.Graph { return e.g }
@@ -85,7 +110,7 @@ func (e *Encoding) Comments() []string {
 	}
 	return []string{
 		"quire layout claim as CNF: satisfiable if and only if the claim holds",
-		"encoder " + EncoderVersion,
+		"encoder " + e.version,
 		fmt.Sprintf("graph %s n=%d m=%d", e.g.ID(), e.g.N(), e.g.M()),
 		"claim " + claim,
 		"options " + desc,

@@ -51,13 +51,14 @@ func checkLayout(g *cert.Graph, kinds []cert.Kind, l *cert.Layout) error {
 }
 
 // stackConfigs lists the option combinations checked for stack claims:
-// every combination of the three symmetry breakers with each way of
-// splitting the graph, then the other toggles one at a time, and the baseline.
+// every combination of the four symmetry breakers (rotation, reflection,
+// page symmetry, twins) with each way of splitting the graph, then the
+// other toggles one at a time, and the baseline.
 func stackConfigs() []Options {
 	var out []Options
-	for mask := 0; mask < 8; mask++ {
+	for mask := 0; mask < 16; mask++ {
 		for split := 0; split < 3; split++ {
-			o := Options{Kind: cert.Stack, NoRotation: mask&1 != 0, NoReflection: mask&2 != 0, NoPageSymmetry: mask&4 != 0}
+			o := Options{Kind: cert.Stack, NoRotation: mask&1 != 0, NoReflection: mask&2 != 0, NoPageSymmetry: mask&4 != 0, NoTwins: mask&8 != 0}
 			switch split {
 			case 1:
 				o.NoBlocks = true
@@ -75,8 +76,8 @@ func stackConfigs() []Options {
 
 func queueConfigs() []Options {
 	var out []Options
-	for mask := 0; mask < 8; mask++ {
-		out = append(out, Options{Kind: cert.Queue, NoReflection: mask&1 != 0, NoPageSymmetry: mask&2 != 0, NoIsolated: mask&4 != 0})
+	for mask := 0; mask < 16; mask++ {
+		out = append(out, Options{Kind: cert.Queue, NoReflection: mask&1 != 0, NoPageSymmetry: mask&2 != 0, NoIsolated: mask&4 != 0, NoTwins: mask&8 != 0})
 	}
 	return append(out,
 		Options{Kind: cert.Queue, NoBetweenness: true},

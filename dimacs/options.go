@@ -11,7 +11,20 @@ import (
 // EncoderVersion names the encoder's output. It changes whenever the CNF
 // written for some graph and options changes, so a CNF file (whose header
 // records it) can always be reproduced or rejected as foreign.
-const EncoderVersion = "quire-enc-1"
+// quire-enc-2 added twin symmetry breaking (Options.NoTwins); without it
+// the clauses are those of quire-enc-1, which EncodeVersion still writes.
+const EncoderVersion = "quire-enc-2"
+
+// legacyVersion is the encoder before twin symmetry breaking.
+const legacyVersion = "quire-enc-1"
+
+// EncoderVersions returns the encoder versions whose output Encode and
+// EncodeVersion reproduce, oldest first; the last is EncoderVersion.
+func EncoderVersions() []string { return []string{legacyVersion, EncoderVersion} }
+
+// ErrUnknownVersion is returned (wrapped) by EncodeVersion for a version
+// this encoder cannot reproduce.
+var ErrUnknownVersion = errors.New("unknown encoder version")
 
 // ErrTooLarge is returned when an encoding would need more variables than
 // a DIMACS CNF can name.
@@ -37,6 +50,7 @@ type Options struct {
 	NoIsolated     bool // keep isolated vertices in the encoding
 	NoBetweenness  bool // expand conflicts over order variables instead of betweenness variables
 	NoDirect       bool // always use same-page variables, even where direct clauses are fewer
+	NoTwins        bool // do not put twin vertices in increasing order on the spine (since quire-enc-2)
 }
 
 // normalize checks the options and returns the page kinds.
@@ -82,6 +96,9 @@ func (o *Options) reductions(kinds []cert.Kind) []string {
 	}
 	if !o.NoReflection {
 		r = append(r, "reflection")
+	}
+	if !o.NoTwins {
+		r = append(r, "twins")
 	}
 	if !o.NoPageSymmetry {
 		r = append(r, "page-symmetry")

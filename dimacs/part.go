@@ -75,27 +75,13 @@ func (e *Encoding) addPart(vs, es []int32) {
 	}
 	stack := allStack(e.kinds)
 	rotation := stack && !o.NoRotation
-	// Reflection fixes one pair: the two smallest vertices not fixed by rotation.
-	rx, ry := int32(-1), int32(-1)
-	if !o.NoReflection {
-		switch {
-		case rotation && n >= 3:
-			rx, ry = 1, 2
-		case !rotation && n >= 2:
-			rx, ry = 0, 1
-		}
-	}
+	fix := newOrderFix(p, rotation, !o.NoReflection, !o.NoTwins)
 	// Order variables, lexicographic in (u, v).
 	p.ord = make([]int32, n*(n-1)/2)
 	for u := 0; u < n; u++ {
 		for v := u + 1; v < n; v++ {
-			var l int32
-			switch {
-			case rotation && u == 0:
-				l = litTrue
-			case int32(u) == rx && int32(v) == ry:
-				l = litTrue
-			default:
+			l := litTrue
+			if !fix.fixed(int32(u), int32(v)) {
 				l = f.newVar(FamOrder)
 			}
 			p.ord[triIndex(n, u, v)] = l

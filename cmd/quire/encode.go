@@ -37,6 +37,7 @@ func (f *encodeClaimFlags) add(cmd *cobra.Command) {
 	fl.BoolVar(&f.opt.NoIsolated, "no-isolated", false, "keep isolated vertices in the encoding")
 	fl.BoolVar(&f.opt.NoBetweenness, "no-betweenness", false, "expand conflicts over order variables instead of betweenness variables")
 	fl.BoolVar(&f.opt.NoDirect, "no-direct", false, "always use same-page variables")
+	fl.BoolVar(&f.opt.NoTwins, "no-twins", false, "do not put twin vertices (same neighbours) in a fixed order on the spine")
 }
 
 // options checks the claim flags and returns the encoder options.

@@ -8,7 +8,9 @@ import (
 	"quire/dimacs"
 )
 
-// Encode the claim "K4 has a 2-page stack layout" and print its size.
+// Encode the claim "K4 has a 2-page stack layout" and print its size, with
+// the default options (all four vertices are twins, so the spine order is
+// fixed) and without twin symmetry breaking.
 func ExampleEncode() {
 	g, _ := cert.NewNumbered(4, 0, [][2]int{{0, 1}, {0, 2}, {0, 3}, {1, 2}, {1, 3}, {2, 3}})
 	enc, err := dimacs.Encode(g, dimacs.Options{Kind: cert.Stack, Pages: 2})
@@ -18,7 +20,16 @@ func ExampleEncode() {
 	}
 	st := enc.Stats()
 	fmt.Println(st.Vars, st.Clauses)
-	// Output: 13 13
+	enc, err = dimacs.Encode(g, dimacs.Options{Kind: cert.Stack, Pages: 2, NoTwins: true})
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	st = enc.Stats()
+	fmt.Println(st.Vars, st.Clauses)
+	// Output:
+	// 10 7
+	// 13 13
 }
 
 // Write a small CNF.

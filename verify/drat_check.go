@@ -314,6 +314,7 @@ func (k *dratChecker) readSteps(forward bool) (conflictStep int64, err error) {
 		if forward {
 			k.res.CoreLemmas++
 			if why := k.checkLemma(c); why != "" {
+				k.res.FailedLemmas = 1
 				return 0, k.reject(step, formatStep(false, ext), k.pr.where(), why)
 			}
 			if k.lrat != nil {
@@ -372,8 +373,16 @@ func (k *dratChecker) compact() {
 }
 
 // backward verifies, from the conflict back to the first step, the lemmas
-// marked core.
+// marked core. A lemma that fails does not stop the walk, so that the
+// failure reported is the first in proof order among the lemmas checked.
+// dratFailure is a lemma that failed its check.
+type dratFailure struct {
+	step           int64
+	text, pos, why string
+}
+
 func (k *dratChecker) backward(conflictStep int64) error {
+	var failed *dratFailure
 	final := k.analyze(k.conflict, nil, k.lrat != nil)
 	if k.lrat != nil {
 		k.lrat.final = final
@@ -424,8 +433,17 @@ func (k *dratChecker) backward(conflictStep int64) error {
 		}
 		k.res.CoreLemmas++
 		if why := k.checkLemma(c); why != "" {
-			return k.reject(i+1, k.clauseText(c), k.posText(s.pos), why)
+			// keep going: the failure reported is the first in proof order
+			k.res.FailedLemmas++
+			failed = &dratFailure{i + 1, k.clauseText(c), k.posText(s.pos), why}
 		}
+	}
+	if failed != nil {
+		why := failed.why
+		if n := k.res.FailedLemmas - 1; n > 0 {
+			why += fmt.Sprintf(" (and %d more failing lemmas after it)", n)
+		}
+		return k.reject(failed.step, failed.text, failed.pos, why)
 	}
 	if k.opt.Progress != nil {
 		k.opt.Progress(DRATProgress{Phase: "checking", Steps: total, Total: total, Checked: k.res.CoreLemmas})

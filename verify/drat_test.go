@@ -217,3 +217,20 @@ func TestHugeVariables(t *testing.T) {
 		t.Fatalf("no empty clause: %v %+v", err, res)
 	}
 }
+
+// Backward checking reports the first failing lemma in proof order even
+// though it meets the later one first, and counts both.
+func TestFirstFailureInProofOrder(t *testing.T) {
+	f := parseCNF(t, ratFormula)
+	// (1) is RUP through the chain (1 5), (-5 6), (1 -6), and each link of
+	// the chain is neither RUP nor RAT on its first literal
+	proof := "1 5 0\n-5 6 0\n1 -6 0\n1 0\n0\n"
+	res, err := checkText(t, f, proof, DRATOptions{})
+	if !errors.Is(err, ErrProofRejected) {
+		t.Fatalf("accepted: %v", err)
+	}
+	if res.FailedLemma != 1 || res.FailedText != "1 5 0" || res.FailedLemmas != 3 {
+		t.Fatalf("failed at step %d %q (%d failures); want step 1", res.FailedLemma, res.FailedText, res.FailedLemmas)
+	}
+	t.Logf("%v", err)
+}

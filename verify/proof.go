@@ -62,13 +62,17 @@ type ProofResult struct {
 	MissingDeletions uint64 `json:"missing_deletions"`
 	Propagations     uint64 `json:"propagations"`
 	// FailedLemma is the 1-based step number (additions and deletions
-	// counted) of the first lemma that failed, 0 when the proof failed as a
-	// whole (no empty clause) or was accepted. FailedPos is its line (text)
+	// counted) of the first lemma in proof order that failed, 0 when the
+	// proof failed as a whole (no empty clause) or was accepted. Backward
+	// checking checks only the lemmas the refutation needs and goes on past
+	// a failure; FailedLemmas counts the failures (forward checking stops at
+	// the first). FailedPos is its line (text)
 	// or byte offset (binary), FailedText its literals.
-	FailedLemma int64  `json:"failed_step,omitempty"`
-	FailedPos   string `json:"failed_at,omitempty"`
-	FailedText  string `json:"failed_text,omitempty"`
-	Reason      string `json:"reason,omitempty"`
+	FailedLemma  int64  `json:"failed_step,omitempty"`
+	FailedLemmas uint64 `json:"failed_lemmas,omitempty"`
+	FailedPos    string `json:"failed_at,omitempty"`
+	FailedText   string `json:"failed_text,omitempty"`
+	Reason       string `json:"reason,omitempty"`
 }
 
 // CheckDRAT checks that proof (DRAT text or binary, plain, gzip or zstd)

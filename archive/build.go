@@ -88,7 +88,9 @@ func proofExt(format string) string {
 // cert.Validate; the CNF is made by enc from the graph and the recorded
 // options (or, for a foreign CNF, compared with that encoding by hash); the
 // proof is checked with CheckProof. Evidence that fails returns an error
-// wrapping ErrRejected. tmpDir holds temporary LRAT files ("" = default).
+// wrapping ErrRejected. tmpDir holds temporary files: LRAT output, and the
+// binary form of a text proof, which the returned members read, so the
+// caller removes tmpDir only after writing the bundle.
 func Build(ctx context.Context, ev *Evidence, enc Encoder, tmpDir string) (*Manifest, []Source, error) {
 	g := ev.Graph
 	m := &Manifest{
@@ -264,7 +266,16 @@ func buildRefutation(ctx context.Context, ev *Evidence, enc Encoder, tmpDir stri
 			return nil, nil, err
 		}
 	}
-	f, err := os.Open(in.Proof)
+	proofPath, converted := in.Proof, ""
+	if format == verify.ProofDRAT {
+		// Store text proofs as binary DRAT: smaller, and compresses better.
+		bin, err := convertProof(in.Proof, tmpDir)
+		if err != nil {
+			return nil, nil, err
+		}
+		proofPath, format, converted = bin, verify.ProofDRATBinary, verify.ProofDRAT
+	}
+	f, err := os.Open(proofPath)
 	if err != nil {
 		return nil, nil, fmt.Errorf("archive: %w", err)
 	}
@@ -284,7 +295,7 @@ func buildRefutation(ctx context.Context, ev *Evidence, enc Encoder, tmpDir stri
 	if _, err := io.Copy(psum, f); err != nil {
 		return nil, nil, fmt.Errorf("archive: %w", err)
 	}
-	src, err := FileSource("proofs/refutation."+proofExt(format), in.Proof)
+	src, err := FileSource("proofs/refutation."+proofExt(format), proofPath)
 	if err != nil {
 		return nil, nil, err
 	}
@@ -294,7 +305,7 @@ func buildRefutation(ctx context.Context, ev *Evidence, enc Encoder, tmpDir stri
 		checker = CheckerLRAT
 	}
 	r.Proofs = []Proof{{Member: src.Name, Format: format, Size: src.Size, SHA256: hex.EncodeToString(psum.Sum(nil)),
-		Checker: checker, Result: ResultVerified}}
+		Checker: checker, Result: ResultVerified, ConvertedFrom: converted}}
 	return r, srcs, nil
 }
 
@@ -323,4 +334,31 @@ func isLRATHead(b []byte) bool {
 		}
 	}
 	return zeros >= 2
+}
+
+// convertProof writes the binary form of a DRAT text proof to a temporary
+// file in tmpDir and returns its path.
+func convertProof(path, tmpDir string) (string, error) {
+	in, err := os.Open(path)
+	if err != nil {
+		return "", fmt.Errorf("archive: %w", err)
+	}
+	defer in.Close()
+	out, err := os.CreateTemp(tmpDir, "quire-proof-*.drat")
+	if err != nil {
+		return "", fmt.Errorf("archive: %w", err)
+	}
+	dr, err := dimacs.Decompress(in)
+	if err == nil {
+		err = DRATToBinary(dr, out, path)
+		dr.Close()
+	}
+	if cerr := out.Close(); err == nil {
+		err = cerr
+	}
+	if err != nil {
+		os.Remove(out.Name())
+		return "", err
+	}
+	return out.Name(), nil
 }

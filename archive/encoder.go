@@ -20,8 +20,25 @@ type Encoder interface {
 	Encode(g *cert.Graph, opt dimacs.Options) (*dimacs.CNF, error)
 }
 
+// VersionedEncoder is an Encoder that can also reproduce the output of
+// earlier versions. EncodeAs returns an error wrapping
+// dimacs.ErrUnknownVersion for a version it cannot reproduce.
+type VersionedEncoder interface {
+	Encoder
+	EncodeAs(g *cert.Graph, opt dimacs.Options, version string) (*dimacs.CNF, error)
+}
+
 // CurrentEncoder is the encoder built into this program.
 type CurrentEncoder struct{}
+
+// EncodeAs calls dimacs.EncodeVersion.
+func (CurrentEncoder) EncodeAs(g *cert.Graph, opt dimacs.Options, version string) (*dimacs.CNF, error) {
+	e, err := dimacs.EncodeVersion(g, opt, version)
+	if err != nil {
+		return nil, err
+	}
+	return e.CNF(), nil
+}
 
 // Version returns dimacs.EncoderVersion.
 func (CurrentEncoder) Version() string { return dimacs.EncoderVersion }
@@ -63,6 +80,7 @@ type encoderOptionsJSON struct {
 	NoIsolated     bool     `json:"no_isolated"`
 	NoBetweenness  bool     `json:"no_betweenness"`
 	NoDirect       bool     `json:"no_direct"`
+	NoTwins        bool     `json:"no_twins"`
 }
 
 // MarshalEncoderOptions returns the manifest form of opt.
@@ -71,7 +89,7 @@ func MarshalEncoderOptions(opt dimacs.Options) (json.RawMessage, error) {
 		Kind: opt.Kind.String(), Pages: opt.Pages,
 		Baseline: opt.Baseline, NoRotation: opt.NoRotation, NoReflection: opt.NoReflection,
 		NoPageSymmetry: opt.NoPageSymmetry, NoBlocks: opt.NoBlocks, NoLeaves: opt.NoLeaves,
-		NoIsolated: opt.NoIsolated, NoBetweenness: opt.NoBetweenness, NoDirect: opt.NoDirect,
+		NoIsolated: opt.NoIsolated, NoBetweenness: opt.NoBetweenness, NoDirect: opt.NoDirect, NoTwins: opt.NoTwins,
 	}
 	for _, k := range opt.PageKinds {
 		j.PageKinds = append(j.PageKinds, k.String())
@@ -99,7 +117,7 @@ func UnmarshalEncoderOptions(raw json.RawMessage) (dimacs.Options, error) {
 		Kind: k, Pages: j.Pages,
 		Baseline: j.Baseline, NoRotation: j.NoRotation, NoReflection: j.NoReflection,
 		NoPageSymmetry: j.NoPageSymmetry, NoBlocks: j.NoBlocks, NoLeaves: j.NoLeaves,
-		NoIsolated: j.NoIsolated, NoBetweenness: j.NoBetweenness, NoDirect: j.NoDirect,
+		NoIsolated: j.NoIsolated, NoBetweenness: j.NoBetweenness, NoDirect: j.NoDirect, NoTwins: j.NoTwins,
 	}
 	for _, s := range j.PageKinds {
 		pk, err := cert.ParseKind(s)

@@ -145,6 +145,9 @@ type Proof struct {
 	SHA256  string `json:"sha256"`
 	Checker string `json:"checker"`
 	Result  string `json:"result"`
+	// ConvertedFrom is "drat" when the proof was given as DRAT text and
+	// stored as the equivalent binary DRAT (the stored form was checked).
+	ConvertedFrom string `json:"converted_from,omitempty"`
 }
 
 // PlanarityEntry names a planarity certificate member.
@@ -400,6 +403,9 @@ func (m *Manifest) Validate() error {
 			}
 			if !isHex64(p.SHA256) {
 				bad("%s.sha256 %q is not 64 lowercase hex digits", f, p.SHA256)
+			}
+			if p.ConvertedFrom != "" && (p.ConvertedFrom != "drat" || p.Format != "drat-binary") {
+				bad("%s.converted_from %q: only drat text converted to drat-binary is recorded", f, p.ConvertedFrom)
 			}
 			if p.Checker == "" || !slices.Contains(results, p.Result) {
 				bad("%s: checker and result (verified or rejected) are required", f)

@@ -241,14 +241,14 @@ func m0(files map[string][]byte) string {
 // A valid archive whose proof refutes some other formula: every hash is
 // consistent, the proof is rejected against the claim's CNF.
 func TestForeignProof(t *testing.T) {
-	files := members(t, k5Exact(t))
+	// bt(Petersen) = 3 (REFERENCES: not planar, Bernhart and Kainen 1979);
+	// the foreign proof refutes K6 on 2 pages, a different formula.
+	files := members(t, bundleBytes(t, evidence(t, petersen(t), "Petersen", cert.Stack, nil, AtLeast, 3)))
 	other, err := CurrentEncoder{}.Encode(complete(t, 6), dimacs.Options{Kind: cert.Stack, Pages: 2})
 	if err != nil {
 		t.Fatal(err)
 	}
-	proof := proofByCadical(t, other)
-	pb := readFile(t, proof)
-	files["proofs/refutation.drat"] = pb
+	files["proofs/refutation.drat"] = readFile(t, proofByCadical(t, other))
 	editManifest(t, files, func(m *Manifest) { syncHashes(m, files) })
 	mustFail(t, repack(t, files), "proof proofs/refutation.drat", "rejected")
 }

@@ -345,6 +345,25 @@ func (v *verifier) prepareRefutation() {
 	}
 	d := &Drift{BundleEncoder: r.Encoder.Version, CurrentEncoder: enc.Version(), VersionChanged: !sameVersion, CNFChanged: true}
 	v.rep.Drift = d
+	if ve, ok := enc.(VersionedEncoder); ok && !sameVersion {
+		old, err := ve.EncodeAs(v.g, opts, r.Encoder.Version)
+		if err == nil {
+			d.OldEncoderAvailable = true
+			_, oldSum, err := CNFText(old)
+			if err == nil && oldSum == r.CNF.SHA256 {
+				v.target = old
+				d.Summary = fmt.Sprintf("encoder changed since the bundle was made (bundle %s, this quire %s; the claim's CNF is now SHA-256 %s); %s is still available and rebuilds the recorded CNF (SHA-256 %s), so the proof is checked against it", r.Encoder.Version, enc.Version(), curSum, r.Encoder.Version, oldSum)
+				v.rep.add("cnf", StatusPass, "re-encoded the claim with %s as recorded: SHA-256 %s", r.Encoder.Version, oldSum)
+				v.rep.add("encoder drift", StatusNote, "%s", d.Summary)
+				return
+			}
+			if err == nil {
+				d.Summary = fmt.Sprintf("encoder changed since the bundle was made (bundle %s, this quire %s), and %s as this quire reproduces it gives SHA-256 %s, not the recorded %s: the bundle was altered or the old encoder is not reproduced faithfully", r.Encoder.Version, enc.Version(), r.Encoder.Version, oldSum, r.CNF.SHA256)
+				v.rep.add("encoder drift", StatusFail, "%s", d.Summary)
+				return
+			}
+		}
+	}
 	if sameVersion {
 		d.Summary = fmt.Sprintf("the CNF recorded (SHA-256 %s) is not what encoder %s gives for this claim (SHA-256 %s): the encoder's output changed without a version change, or the bundle was altered", r.CNF.SHA256, enc.Version(), curSum)
 	} else {

@@ -104,7 +104,11 @@ func runShow(cmd *cobra.Command, o *showOptions) error {
 			fmt.Fprintf(w, "run:      %s (%s): %s in %.3f s\n", run.Backend, v, run.Answer, run.Seconds)
 		}
 		for _, p := range r.Proofs {
-			fmt.Fprintf(w, "proof:    %s, %s, %d bytes, SHA-256 %s: %s by %s when bundled\n", p.Member, p.Format, p.Size, p.SHA256, p.Result, p.Checker)
+			conv := ""
+			if p.ConvertedFrom != "" {
+				conv = " (given as " + p.ConvertedFrom + " text)"
+			}
+			fmt.Fprintf(w, "proof:    %s, %s%s, %d bytes, SHA-256 %s: %s by %s when bundled\n", p.Member, p.Format, conv, p.Size, p.SHA256, p.Result, p.Checker)
 		}
 	}
 	if p := m.Planarity; p != nil {

@@ -199,15 +199,12 @@ func verifyPrint(w io.Writer, s *verifySummary) {
 		for _, c := range r.Checks {
 			fmt.Fprintf(w, "  %-4s %s: %s\n", c.Status, c.Name, c.Detail)
 		}
-		if d := r.Drift; d != nil {
-			fmt.Fprintf(w, "  encoder drift: %s\n", d.Summary)
+		if d := r.Drift; d != nil && !r.Verified {
 			if d.StoredCNFChecked {
 				fmt.Fprintf(w, "    the proof was checked against the CNF stored in the bundle (not derived from the claim by this quire)\n")
 			}
-			if d.Resolved {
-				fmt.Fprintf(w, "    the claim was re-established by re-solving with %s\n", d.CurrentEncoder)
-			} else if d.CNFChanged {
-				fmt.Fprintf(w, "    not re-solved (use --resolve to re-establish the claim with the current encoder)\n")
+			if d.CNFChanged && !d.Resolved {
+				fmt.Fprintf(w, "  encoder drift: not re-solved (use --resolve to re-establish the claim with the current encoder)\n")
 			}
 		}
 	}

@@ -1,0 +1,159 @@
+package archive
+
+import (
+	"bytes"
+	"context"
+	"fmt"
+	"io"
+	"math/rand/v2"
+	"os"
+	"os/exec"
+	"path/filepath"
+	"sync"
+	"testing"
+
+	"quire/cert"
+	"quire/dimacs"
+	"quire/internal/testtools"
+)
+
+// benchLarge enables the benchmarks that need a large proof (minutes of
+// cadical time): QUIRE_BENCH_LARGE=1.
+func benchLarge(b *testing.B) {
+	if os.Getenv("QUIRE_BENCH_LARGE") != "1" {
+		b.Skip("set QUIRE_BENCH_LARGE=1 to run (needs minutes of solver time)")
+	}
+}
+
+// textProofBundle refutes K_n on pages stack pages with cadical writing a
+// text proof (--no-binary), bundles it, and returns the text proof's size
+// and the bundle. bt(K_n) = ceil(n/2) (Bernhart and Kainen 1979), so
+// pages < ceil(n/2) is unsatisfiable.
+func textProofBundle(b *testing.B, n, pages int) (int64, []byte) {
+	b.Helper()
+	cad := testtools.Require(b, "cadical", "cadical")
+	g := complete(b, n)
+	opt := dimacs.Options{Kind: cert.Stack, Pages: pages}
+	cnf, err := CurrentEncoder{}.Encode(g, opt)
+	if err != nil {
+		b.Fatal(err)
+	}
+	dir := b.TempDir()
+	text, _, _ := CNFText(cnf)
+	cnfPath, proof := filepath.Join(dir, "f.cnf"), filepath.Join(dir, "f.drat.txt")
+	os.WriteFile(cnfPath, text, 0o644)
+	if err := exec.Command(cad, "-q", "--no-binary", cnfPath, proof).Run(); err != nil {
+		if ee, ok := err.(*exec.ExitError); !ok || ee.ExitCode() != 20 {
+			b.Fatalf("cadical: %v", err)
+		}
+	}
+	fi, err := os.Stat(proof)
+	if err != nil {
+		b.Fatal(err)
+	}
+	ev := &Evidence{Graph: g, Name: fmt.Sprintf("K%d", n), Input: edgeListBytes(b, g), InputFormat: cert.FormatEdgeList,
+		Kind: cert.Stack, Bound: AtLeast, K: pages + 1, QuireVersion: "bench", Tool: "archive benchmark",
+		Refutation: &RefutationInput{Options: opt, Proof: proof}}
+	_, srcs, err := Build(context.Background(), ev, CurrentEncoder{}, dir)
+	if err != nil {
+		b.Fatal(err)
+	}
+	var buf bytes.Buffer
+	if err := Write(context.Background(), &buf, srcs); err != nil {
+		b.Fatal(err)
+	}
+	return fi.Size(), buf.Bytes()
+}
+
+func reportSize(b *testing.B, text int64, bundle []byte) {
+	b.ReportMetric(float64(text), "text-proof-bytes")
+	b.ReportMetric(float64(len(bundle)), "bundle-bytes")
+	b.ReportMetric(100*float64(len(bundle))/float64(text), "%-of-text")
+}
+
+// BenchmarkBundleSize measures a bundle against the text proof it holds
+// (bt(K8) >= 4: no 3-page layout), and the time to verify it.
+func BenchmarkBundleSize(b *testing.B) {
+	text, bundle := textProofBundle(b, 8, 3)
+	reportSize(b, text, bundle)
+	for b.Loop() {
+		if r := verifyBytes(bundle, VerifyOptions{}); !r.Verified {
+			b.Fatal(failNames(r))
+		}
+	}
+}
+
+var (
+	largeOnce   sync.Once
+	largeText   int64
+	largeBundle []byte
+)
+
+// BenchmarkVerifyLargeProof verifies a bundle for bt(K9) >= 5 whose proof
+// (cadical, text) is about 87 MB.
+func BenchmarkVerifyLargeProof(b *testing.B) {
+	benchLarge(b)
+	largeOnce.Do(func() { largeText, largeBundle = textProofBundle(b, 9, 4) })
+	reportSize(b, largeText, largeBundle)
+	b.ReportAllocs()
+	for b.Loop() {
+		if r := verifyBytes(largeBundle, VerifyOptions{}); !r.Verified {
+			b.Fatal(failNames(r))
+		}
+	}
+}
+
+// BenchmarkVerifyJobs verifies four bundles one at a time and two at a time.
+func BenchmarkVerifyJobs(b *testing.B) {
+	paths, _ := filepath.Glob(filepath.Join("..", "testdata", "bundles", "*.quire.tar.zst"))
+	if len(paths) == 0 {
+		b.Skip("no bundles in testdata/bundles")
+	}
+	k7 := filepath.Join("..", "testdata", "bundles", "k7.quire.tar.zst")
+	list := []string{k7, k7, k7, k7}
+	for _, jobs := range []int{1, 2} {
+		b.Run(fmt.Sprintf("jobs=%d", jobs), func(b *testing.B) {
+			for b.Loop() {
+				next := make(chan string)
+				var wg sync.WaitGroup
+				for range jobs {
+					wg.Add(1)
+					go func() {
+						defer wg.Done()
+						for p := range next {
+							if r := VerifyFile(context.Background(), p, VerifyOptions{}); !r.Verified {
+								b.Error(failNames(r))
+							}
+						}
+					}()
+				}
+				for _, p := range list {
+					next <- p
+				}
+				close(next)
+				wg.Wait()
+			}
+		})
+	}
+}
+
+// BenchmarkWalk measures the container alone on a 32 MiB member of
+// incompressible bytes: decompression, hashing and the canonical check.
+func BenchmarkWalk(b *testing.B) {
+	data := make([]byte, 32<<20)
+	rng := rand.New(rand.NewPCG(1, 2))
+	for i := range data {
+		data[i] = byte(rng.Uint32())
+	}
+	bundle := writeBytes(b, []Source{BytesSource("proofs/p.drat", data)})
+	b.SetBytes(int64(len(data)))
+	for b.Loop() {
+		c, err := Walk(context.Background(), bytes.NewReader(bundle), "bench", DefaultLimits(), func(m Member, r io.Reader) error {
+			_, err := io.Copy(io.Discard, r)
+			return err
+		})
+		if err != nil || !c.Canonical {
+			b.Fatal(err)
+		}
+	}
+}

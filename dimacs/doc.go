@@ -17,8 +17,7 @@
 // input and never allocates more than the input justifies.
 //
 // Writer writes the same format; CNF.WriteTo writes a whole formula.
-package dimacs
-
+//
 // # The claim and the two formulations
 //
 // Encode(g, opt) builds a CNF that is satisfiable if and only if g has a
@@ -93,7 +92,70 @@ package dimacs
 //   - reflection: reversing the spine maps crossings to crossings and
 //     nestings to nestings; so one pair may be fixed (vertices 0 < 1, or
 //     with rotation 1 < 2: reverse, then rotate vertex 0 back to the front,
-//     which reverses the order of the others).
+//     which reverses the order of the others). With twins on, the pair is
+//     chosen differently (see below).
+//   - twins (since quire-enc-2): u and v are twins when N(u)∖{v} =
+//     N(v)∖{u} in the part's graph (false twins: same open neighbourhood,
+//     not adjacent; true twins: same closed neighbourhood, adjacent). The
+//     exchange (u v) is then an automorphism, and an automorphism σ maps a
+//     valid layout (order π, pages p) to a valid one (order σ∘π, edge σ(e)
+//     on page p(e)): crossing and nesting depend only on the positions of
+//     the ends, which σ keeps. Being a twin is an equivalence relation (no
+//     vertex has both a false and a true twin: w ∈ N(v) = N(u) would put u
+//     in N[w] = N[v]), so the twin classes are disjoint and every
+//     permutation of each class, all at once, is an automorphism. So each
+//     class may be sorted: its members appear on the spine in increasing
+//     order. Twins are those of the part's graph (a block, or the graph
+//     less the dropped vertices), whose CNF stands on its own for "this
+//     graph has a layout". In K_n all vertices are one class and no order
+//     variable is left; K_9 on 4 pages becomes a small colouring problem.
+//
+// The symmetry breakers fix order literals together, and they are sound
+// together, not only one by one. Let L be a valid layout of a part, stack
+// with rotation (the other cases below); we find a valid layout that
+// satisfies every fixed literal, by operations that each keep validity:
+//
+//  1. rotate so that vertex 0 is first;
+//  2. sort every twin class: the automorphism that gives the class's i-th
+//     position (left to right) its i-th smallest member. Vertex 0 is the
+//     smallest vertex, so the smallest of its class, and the first position
+//     of its class is position 0: vertex 0 stays first;
+//  3. reflection: call x self-mirrored when it is the middle member of its
+//     effective class (its class less vertex 0; a vertex without twins is
+//     its own class and self-mirrored), and let rx < ry be the two smallest
+//     self-mirrored vertices other than 0 (none if there are fewer than
+//     two; a class has one middle, so rx and ry are in different classes).
+//     If ry precedes rx, apply ρ: reverse the positions 1..n-1
+//     (reverse, then rotate 0 back to the front), then sort the classes as
+//     in step 2. ρ keeps 0 first and the classes sorted. The members of an
+//     effective class occupy the mirrored positions in reverse order before
+//     the sort, so the sort puts the member of rank r at the mirror image of
+//     the old position of rank size-1-r; for a self-mirrored vertex r =
+//     size-1-r, so rx and ry each move to the mirror image of their own old
+//     position, and mirroring turns "ry before rx" into "rx before ry";
+//  4. relabel the pages (page symmetry below), which leaves the order alone.
+//
+// Every fixed literal follows from "0 first", "classes sorted" and "rx
+// before ry" by transitivity, so the result satisfies them all. (With
+// twins off, rx, ry are the two smallest vertices other than 0, as before
+// quire-enc-2; every vertex is then its own class, so this is the same
+// argument.) Without rotation (queues, mixed layouts, NoRotation) skip
+// step 1, take effective classes to be the classes and rx < ry the two
+// smallest self-mirrored vertices, and let ρ reverse the whole spine. The
+// reason the pair needs care: reversal turns a sorted class into a reversed
+// one, and re-sorting moves members, so "1 before 2" for members of
+// different classes cannot always be had together with sorted classes (a
+// class pattern B A A B, with 1 ∈ A and 2 ∈ B, sorts to 2 1 3 4 and is its
+// own reverse).
+// The encoder substitutes the transitive closure of the fixed relations:
+// 0 before every vertex, each class member before the later ones, and
+// every member of rx's class up to rx before every member of ry's class
+// from ry on. A test walks all spine orders of every graph on up to 7
+// vertices and checks that the orbit of each under rotations, reversal and
+// exchanges of twins holds an order the encoder admits.
+//
+// The other reductions:
+//
 //   - page symmetry: pages of the same kind are interchangeable; renumber
 //     them within each kind in the order in which edges 0, 1, 2, ... first
 //     use them, then edge i uses one of the first i+1 pages of its kind.
@@ -119,3 +181,12 @@ package dimacs
 // The exhaustive test checks all of this against a brute force over all
 // spine orders for every graph on up to 7 vertices, with the reductions
 // on and off; the CNFs are solved by Debian's cadical.
+//
+// # Versions
+//
+// EncoderVersion is written in every CNF header. EncodeVersion reproduces
+// the output of the earlier versions listed by EncoderVersions, so that a
+// CNF recorded by an older quire (in an evidence bundle, say) can still be
+// re-derived from its claim: quire-enc-1 is the current encoder with
+// NoTwins set and its own name in the header.
+package dimacs

@@ -17,6 +17,7 @@ func init() { register(newDecodeCmd) }
 type decodeOptions struct {
 	graph    graphFlags
 	claim    encodeClaimFlags
+	version  string
 	output   string
 	json     bool
 	graphArg string
@@ -33,8 +34,8 @@ layout of GRAPH, check that layout directly, and write it as JSON.
 
 MODEL is a solver's answer in the SAT competition format ("s SATISFIABLE"
 and "v" lines, as cadical prints them) or a MiniSat result file. Give the
-same claim options as to "quire encode": the encoding is rebuilt to find
-the meaning of every variable. A layout is written only if it passes the
+same claim options (and --encoder-version) as to "quire encode": the
+encoding is rebuilt to find the meaning of every variable. A layout is written only if it passes the
 direct check; a model that does not describe a valid layout is rejected
 (exit 1).`,
 		Args: cobra.ExactArgs(2),
@@ -45,6 +46,7 @@ direct check; a model that does not describe a valid layout is rejected
 	}
 	o.graph.add(cmd)
 	o.claim.add(cmd)
+	addEncoderVersionFlag(cmd, &o.version)
 	cmd.Flags().StringVarP(&o.output, "output", "o", "-", "write the layout to FILE (- for stdout)")
 	cmd.Flags().BoolVar(&o.json, "json", false, "print one JSON object on stdout")
 	return cmd
@@ -53,6 +55,9 @@ direct check; a model that does not describe a valid layout is rejected
 func runDecode(cmd *cobra.Command, o *decodeOptions) error {
 	opt, err := o.claim.options(cmd)
 	if err != nil {
+		return err
+	}
+	if err := checkEncoderVersion(o.version); err != nil {
 		return err
 	}
 	if o.json && o.output == "-" {
@@ -69,7 +74,7 @@ func runDecode(cmd *cobra.Command, o *decodeOptions) error {
 	if status != dimacs.StatusSat {
 		return usageErr(fmt.Errorf("%s: the solver answered %s: there is no model to decode", o.modelArg, status))
 	}
-	enc, err := dimacs.Encode(g, opt)
+	enc, err := dimacs.EncodeVersion(g, opt, o.version)
 	if err != nil {
 		return usageErr(err)
 	}

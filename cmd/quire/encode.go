@@ -4,6 +4,7 @@ import (
 	"bufio"
 	"fmt"
 	"io"
+	"slices"
 	"strings"
 
 	"github.com/spf13/cobra"
@@ -75,6 +76,7 @@ func (f *encodeClaimFlags) options(cmd *cobra.Command) (dimacs.Options, error) {
 type encodeOptions struct {
 	graph    graphFlags
 	claim    encodeClaimFlags
+	version  string
 	output   string
 	stats    bool
 	json     bool
@@ -97,6 +99,10 @@ default sound reductions and symmetry breaking are on (see --no-* flags);
 --baseline writes the published formulation instead. A model of the CNF is
 turned back into a layout with "quire decode" and the same options.
 
+--encoder-version writes the CNF as an earlier encoder version did (for
+re-deriving a CNF recorded by an older quire); the versions known are
+listed in the flag's help.
+
 --stats prints the number of variables, clauses and literals, split by
 constraint family, instead of writing the CNF.`,
 		Args: cobra.ExactArgs(1),
@@ -107,6 +113,7 @@ constraint family, instead of writing the CNF.`,
 	}
 	o.graph.add(cmd)
 	o.claim.add(cmd)
+	addEncoderVersionFlag(cmd, &o.version)
 	cmd.Flags().StringVarP(&o.output, "output", "o", "-", "write the CNF to FILE (- for stdout)")
 	cmd.Flags().BoolVar(&o.stats, "stats", false, "print the size of the encoding instead of writing it")
 	cmd.Flags().BoolVar(&o.json, "json", false, "print one JSON object on stdout")
@@ -118,6 +125,9 @@ func runEncode(cmd *cobra.Command, o *encodeOptions) error {
 	if err != nil {
 		return err
 	}
+	if err := checkEncoderVersion(o.version); err != nil {
+		return err
+	}
 	if o.json && !o.stats && o.output == "-" {
 		return usageErr(fmt.Errorf("--json prints a report on stdout: give the CNF a file with -o FILE, or use --stats"))
 	}
@@ -125,11 +135,11 @@ func runEncode(cmd *cobra.Command, o *encodeOptions) error {
 	if err != nil {
 		return err
 	}
-	enc, err := dimacs.Encode(g, opt)
+	enc, err := dimacs.EncodeVersion(g, opt, o.version)
 	if err != nil {
 		return usageErr(err)
 	}
-	desc, _ := opt.Describe()
+	desc, _ := enc.Options().Describe()
 	st := enc.Stats()
 	out := cmd.OutOrStdout()
 	var written int64
@@ -156,7 +166,7 @@ func runEncode(cmd *cobra.Command, o *encodeOptions) error {
 			Bytes   int64        `json:"bytes,omitempty"`
 			Stats   dimacs.Stats `json:"stats"`
 		}
-		r := result{Graph: g.ID(), Encoder: dimacs.EncoderVersion, Options: desc, Stats: st}
+		r := result{Graph: g.ID(), Encoder: enc.Version(), Options: desc, Stats: st}
 		if !o.stats {
 			r.Output, r.Bytes = o.output, written
 		}
@@ -167,7 +177,7 @@ func runEncode(cmd *cobra.Command, o *encodeOptions) error {
 		return nil
 	}
 	if o.output != "-" {
-		fmt.Fprintf(cmd.ErrOrStderr(), "quire: wrote %s: %d variables, %d clauses (%s)\n", o.output, st.Vars, st.Clauses, dimacs.EncoderVersion)
+		fmt.Fprintf(cmd.ErrOrStderr(), "quire: wrote %s: %d variables, %d clauses (%s)\n", o.output, st.Vars, st.Clauses, enc.Version())
 	}
 	return nil
 }
@@ -175,7 +185,7 @@ func runEncode(cmd *cobra.Command, o *encodeOptions) error {
 func printEncodeStats(w io.Writer, enc *dimacs.Encoding, desc string) {
 	st := enc.Stats()
 	g := enc.Graph()
-	fmt.Fprintf(w, "encoding of %s (n=%d, m=%d), %s\n", short(g.ID()), g.N(), g.M(), dimacs.EncoderVersion)
+	fmt.Fprintf(w, "encoding of %s (n=%d, m=%d), %s\n", short(g.ID()), g.N(), g.M(), enc.Version())
 	fmt.Fprintf(w, "  options: %s\n", desc)
 	fmt.Fprintf(w, "  parts: %d\n", st.Parts)
 	fmt.Fprintf(w, "  variables: %d\n  clauses: %d\n  literals: %d\n", st.Vars, st.Clauses, st.Literals)
@@ -183,4 +193,18 @@ func printEncodeStats(w io.Writer, enc *dimacs.Encoding, desc string) {
 	for _, f := range st.Families {
 		fmt.Fprintf(w, "  %-12s %10d %10d %10d\n", f.Family, f.Vars, f.Clauses, f.Literals)
 	}
+}
+
+// addEncoderVersionFlag registers --encoder-version (encode and decode).
+func addEncoderVersionFlag(cmd *cobra.Command, v *string) {
+	cmd.Flags().StringVar(v, "encoder-version", dimacs.EncoderVersion,
+		"write the CNF as this encoder version did: "+strings.Join(dimacs.EncoderVersions(), ", "))
+}
+
+// checkEncoderVersion rejects a version this quire cannot write.
+func checkEncoderVersion(v string) error {
+	if !slices.Contains(dimacs.EncoderVersions(), v) {
+		return usageErr(fmt.Errorf("--encoder-version: %q is not one of %s", v, strings.Join(dimacs.EncoderVersions(), ", ")))
+	}
+	return nil
 }

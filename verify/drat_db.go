@@ -26,14 +26,14 @@ type clause struct {
 type dratDB struct {
 	arena    []uint32
 	cls      []clause
-	vals     []int8  // per literal: 1 true, -1 false, 0 unassigned
-	reason   []int   // per variable: clause that implied it, noClause for none
-	pos      []int32 // per variable: index in trail
-	asm      []bool  // per variable: belongs to the clause being checked
-	seen     []bool  // per variable: scratch for conflict analysis
-	mark     []bool  // per literal: scratch for deduplication and matching
-	watches  [][]int // per literal: non-core clauses watching it
-	cwatches [][]int // per literal: core clauses watching it
+	vals     []int8    // per literal: 1 true, -1 false, 0 unassigned
+	reason   []int     // per variable: clause that implied it, noClause for none
+	pos      []int32   // per variable: index in trail
+	asm      []bool    // per variable: belongs to the clause being checked
+	seen     []bool    // per variable: scratch for conflict analysis
+	mark     []bool    // per literal: scratch for deduplication and matching
+	watches  [][]watch // per literal: non-core clauses watching it
+	cwatches [][]watch // per literal: core clauses watching it
 	trail    []uint32
 	head     int   // next trail literal for all clauses
 	headCore int   // next trail literal for core clauses
@@ -282,8 +282,26 @@ func (d *dratDB) isReason(c int) bool {
 	return d.vals[l] == 1 && d.reason[l>>1] == c
 }
 
+// watch is a watch-list entry. For a clause of two literals, other is the
+// literal not watched by this entry (always the other watch, since such a
+// clause never moves its watches), so propagation need not load the clause;
+// for other clauses it is 0.
+type watch struct {
+	c     int
+	other uint32
+}
+
+// newWatch is the entry of clause c in the list of its literal l.
+func (d *dratDB) newWatch(c int, l uint32) watch {
+	if d.cls[c].n == 2 {
+		ls := d.lits(c)
+		return watch{c, ls[0] ^ ls[1] ^ l}
+	}
+	return watch{c: c}
+}
+
 // wl returns the watch lists that hold clause c.
-func (d *dratDB) wl(c int) [][]int {
+func (d *dratDB) wl(c int) [][]watch {
 	if d.cls[c].flags&flagCore != 0 {
 		return d.cwatches
 	}
@@ -300,15 +318,15 @@ func (d *dratDB) markCore(c int) {
 		ls := d.lits(c)
 		for i := 0; i < len(ls) && i < 2; i++ {
 			d.watches[ls[i]] = removeWatch(d.watches[ls[i]], c)
-			d.cwatches[ls[i]] = append(d.cwatches[ls[i]], c)
+			d.cwatches[ls[i]] = append(d.cwatches[ls[i]], d.newWatch(c, ls[i]))
 		}
 	}
 	cl.flags |= flagCore
 }
 
-func removeWatch(ws []int, c int) []int {
+func removeWatch(ws []watch, c int) []watch {
 	for i, w := range ws {
-		if w == c {
+		if w.c == c {
 			ws[i] = ws[len(ws)-1]
 			return ws[:len(ws)-1]
 		}
@@ -345,9 +363,9 @@ func (d *dratDB) attach(c int) bool {
 		}
 	}
 	w := d.wl(c)
-	w[ls[0]] = append(w[ls[0]], c)
+	w[ls[0]] = append(w[ls[0]], d.newWatch(c, ls[0]))
 	if len(ls) > 1 {
-		w[ls[1]] = append(w[ls[1]], c)
+		w[ls[1]] = append(w[ls[1]], d.newWatch(c, ls[1]))
 	}
 	switch {
 	case k == 0:
@@ -409,12 +427,32 @@ func (d *dratDB) propagateLit(f uint32, core bool) bool {
 	ws := wl[f]
 	i, j := 0, 0
 	for i < len(ws) {
-		c := ws[i]
+		e := ws[i]
 		i++
+		c := e.c
+		if e.other != 0 { // two literals: no need to load the clause
+			ws[j] = e
+			j++
+			switch d.vals[e.other] {
+			case 1:
+				continue
+			case 0:
+				ls := d.lits(c)
+				if ls[0] != e.other {
+					ls[0], ls[1] = ls[1], ls[0]
+				}
+				d.assign(e.other, c)
+				continue
+			}
+			d.conflict = c
+			copy(ws[j:], ws[i:])
+			wl[f] = ws[:j+len(ws)-i]
+			return false
+		}
 		cl := &d.cls[c]
 		ls := d.arena[cl.off : cl.off+int(cl.n)]
 		if len(ls) == 1 {
-			ws[j] = c
+			ws[j] = e
 			j++
 			d.conflict = c
 			copy(ws[j:], ws[i:])
@@ -425,7 +463,7 @@ func (d *dratDB) propagateLit(f uint32, core bool) bool {
 			ls[0], ls[1] = ls[1], ls[0]
 		}
 		if d.vals[ls[0]] == 1 {
-			ws[j] = c
+			ws[j] = e
 			j++
 			continue
 		}
@@ -433,7 +471,7 @@ func (d *dratDB) propagateLit(f uint32, core bool) bool {
 		for k := 2; k < len(ls); k++ {
 			if d.vals[ls[k]] != -1 {
 				ls[1], ls[k] = ls[k], ls[1]
-				wl[ls[1]] = append(wl[ls[1]], c)
+				wl[ls[1]] = append(wl[ls[1]], watch{c: c})
 				moved = true
 				break
 			}
@@ -441,7 +479,7 @@ func (d *dratDB) propagateLit(f uint32, core bool) bool {
 		if moved {
 			continue
 		}
-		ws[j] = c
+		ws[j] = e
 		j++
 		if d.vals[ls[0]] == 0 {
 			d.assign(ls[0], c)
@@ -478,8 +516,9 @@ func (d *dratDB) unassignFrom(k int) bool {
 // rescan re-examines the clauses in w watching x, which was just
 // unassigned: a clause whose other watch is false either gets a new watch or
 // implies x again.
-func (d *dratDB) rescan(x uint32, w [][]int) {
-	for _, c := range w[x] {
+func (d *dratDB) rescan(x uint32, w [][]watch) {
+	for _, e := range w[x] {
+		c := e.c
 		ls := d.lits(c)
 		if len(ls) == 1 {
 			d.assign(x, c)
@@ -497,7 +536,7 @@ func (d *dratDB) rescan(x uint32, w [][]int) {
 			if d.vals[ls[i]] != -1 {
 				w[o] = removeWatch(w[o], c)
 				ls[1], ls[i] = ls[i], ls[1]
-				w[ls[1]] = append(w[ls[1]], c)
+				w[ls[1]] = append(w[ls[1]], watch{c: c})
 				moved = true
 				break
 			}

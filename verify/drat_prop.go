@@ -292,4 +292,3 @@ func (d *dratDB) resetTopLevel() bool {
 	}
 	return d.propagate()
 }
-

@@ -23,6 +23,26 @@
 // outside its target directory (it writes through an os.Root) and leaves
 // nothing behind when the bundle is bad.
 //
-// The manifest (manifest.json) states the claim and the evidence; its
-// schema is described in manifest.go and checked strictly on reading.
+// The manifest (manifest.json, schema FormatName version FormatVersion, see
+// the Manifest type) states the claim — graph identity (cert.Graph.ID),
+// layout kind, page kinds, and at_most K (evidence: a layout), at_least K
+// (evidence: a refutation of K-1 pages) or exact (both) — and the evidence:
+// encoder version and options, the SHA-256 of the CNF as quire writes it,
+// the solver runs, each proof with its format, size, hash and checker
+// result, and every member with its size and hash. It is read strictly
+// (unknown fields, trailing data and inconsistencies are errors). No
+// wall-clock time is recorded unless the caller gives one (Created); solver
+// run times are recorded as measured, so rebuilding from the same runs gives
+// the same bytes.
+//
+// Verify re-checks a bundle from scratch and streams it once: layouts with
+// cert.Check; proofs (binary DRAT as stored; text DRAT given to Build is
+// converted to binary) with verify.CheckDRAT, whose LRAT output is checked
+// again by verify.CheckLRAT, against the CNF rebuilt from the graph by the
+// current encoder. When the current encoder gives another CNF for the claim
+// (encoder drift), the report says so with both versions; the CNF is then
+// rebuilt with the recorded version if the encoder can still reproduce it
+// (dimacs.EncodeVersion), else the bundle fails unless the caller's Resolve
+// re-solves the current encoding. A proof for a CNF quire did not make
+// (foreign) is checked against that CNF but never establishes the claim.
 package archive

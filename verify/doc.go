@@ -27,8 +27,11 @@
 // current clause containing -p is RUP). A proof is accepted only when it
 // adds the empty clause and the empty clause is RUP where it stands (unit
 // propagation refutes the formula and the lemmas before it); a proof that
-// never states the empty clause is rejected even when propagation alone
-// would refute the formula.
+// never states the empty clause is rejected even when propagation would
+// refute the formula with its lemmas. The one exception is a formula that
+// unit propagation refutes by itself, before any lemma: that is a complete
+// refutation, any proof is accepted for it (solvers write an empty proof
+// then), and the LRAT written for it is the single empty-clause step.
 //
 // Deletions are matched by a hash of the clause's literal set. Like
 // drat-trim in its default mode, the checker ignores a deletion of a clause

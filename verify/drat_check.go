@@ -341,7 +341,7 @@ func (k *dratChecker) readSteps(forward bool) (conflictStep int64, err error) {
 	if conflictStep < 0 {
 		return 0, k.reject(0, "", "", "the proof does not derive the empty clause, and unit propagation does not refute the formula after its last step")
 	}
-	if !sawEmpty {
+	if !sawEmpty && conflictStep > 0 {
 		return 0, k.reject(0, "", "", fmt.Sprintf("the proof never adds the empty clause (unit propagation refutes the formula after step %d, but a refutation must state the empty clause)", conflictStep))
 	}
 	return conflictStep, nil

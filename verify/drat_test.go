@@ -144,6 +144,14 @@ func TestSmallProofs(t *testing.T) {
 		{"3 0\n0\n", false, 2, "empty clause is not implied"},
 		{"-2 0\n-1 0\n0\n", true, 0, ""},
 	}
+	// A formula that unit propagation refutes by itself needs no proof
+	// (common practice, no source: solvers write an empty proof for it).
+	trivial := parseCNF(t, "p cnf 1 2\n1 0\n-1 0\n")
+	for _, forward := range []bool{false, true} {
+		if res, err := checkText(t, trivial, "", DRATOptions{Forward: forward}); err != nil || !res.Accepted {
+			t.Fatalf("empty proof of a formula refuted by propagation: %v %+v", err, res)
+		}
+	}
 	for _, c := range cases {
 		for _, forward := range []bool{false, true} {
 			res, err := checkText(t, f, c.proof, DRATOptions{Forward: forward})

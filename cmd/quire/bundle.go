@@ -209,10 +209,23 @@ func runBundle(cmd *cobra.Command, o *bundleOptions) error {
 	for _, w := range res.Warnings {
 		fmt.Fprintf(cmd.ErrOrStderr(), "quire: warning: %s\n", w)
 	}
-	if len(res.Graphs) != 1 {
-		return usageErr(fmt.Errorf("%s holds %d graphs: a bundle is about one graph; write it to its own file", o.graphArg, len(res.Graphs)))
+	idx := o.graph.index
+	switch {
+	case idx == 0 && len(res.Graphs) != 1:
+		return usageErr(fmt.Errorf("%s holds %d graphs: choose one with --index 1..%d", o.graphArg, len(res.Graphs), len(res.Graphs)))
+	case idx == 0:
+		idx = 1
+	case idx < 0 || idx > len(res.Graphs):
+		return usageErr(fmt.Errorf("%s: --index %d out of range 1..%d", o.graphArg, idx, len(res.Graphs)))
+	case len(res.Graphs) > 1:
+		// The bundle stores the input as given: keep only the chosen graph.
+		var b bytes.Buffer
+		if err := cert.WriteEdgeList(&b, res.Graphs[idx-1]); err != nil {
+			return usageErr(err)
+		}
+		input, res.Format = b.Bytes(), cert.FormatEdgeList
 	}
-	g := res.Graphs[0]
+	g := res.Graphs[idx-1]
 	name := o.name
 	if name == "" {
 		name = bundleBase(o.graphArg)

@@ -1,6 +1,9 @@
 package cert
 
-import "fmt"
+import (
+	"fmt"
+	"slices"
+)
 
 // Validate checks a resolved layout of g: the spine must be a permutation of
 // the vertices, every edge must have a page in 1..l.Pages(), and no page may
@@ -104,30 +107,79 @@ func scanConflicts(g *Graph, l *Layout, pos []int32, r *Report) {
 		left[e], right[e] = a, b
 		idx = append(idx, int32(e))
 	}
+	// Two stable counting sorts: by left end, then by page. Edges of a page
+	// that share a left end are put longest first where the page is scanned.
 	tmp := make([]int32, len(idx))
 	count := make([]int32, max(n, k)+1)
-	// stable counting sorts: right descending, then left ascending, then page
-	countingSort(idx, tmp, count[:n+1], func(e int32) int32 { return int32(n-1) - right[e] })
 	countingSort(idx, tmp, count[:n+1], func(e int32) int32 { return left[e] })
-	countingSort(idx, tmp, count[:k+1], func(e int32) int32 { return l.Page[e] - 1 })
-	tmp = tmp[:0]
+	countingSort(tmp, idx, count[:k+1], func(e int32) int32 { return l.Page[e] - 1 })
+	tmp = nil
+	// The pages are independent: scan them in two halves at once, each half
+	// with its own report, merged in page order so the output is deterministic.
+	type span struct{ from, to int }
+	var pages []span
 	for i := 0; i < len(idx); {
 		p := l.Page[idx[i]]
 		j := i
 		for j < len(idx) && l.Page[idx[j]] == p {
 			j++
 		}
-		page := idx[i:j]
-		if l.PageKinds[p-1] == Queue {
-			scanQueuePage(g, pos, p, page, left, right, r)
-		} else {
-			tmp = scanStackPage(g, pos, p, page, left, right, r, tmp[:0])
+		pages = append(pages, span{i, j})
+		i = j
+	}
+	scan := func(ps []span, rep *Report) {
+		var stack []int32
+		for _, sp := range ps {
+			page := idx[sp.from:sp.to]
+			sortGroupsLongestFirst(page, left, right)
+			p := l.Page[page[0]]
+			if l.PageKinds[p-1] == Queue {
+				scanQueuePage(g, pos, p, page, left, right, rep)
+			} else {
+				stack = scanStackPage(g, pos, p, page, left, right, rep, stack[:0])
+			}
+		}
+	}
+	cut := 0
+	for cut < len(pages) && pages[cut].to <= len(idx)/2 {
+		cut++
+	}
+	if len(idx) < parallelMin || cut == 0 || cut == len(pages) {
+		scan(pages, r)
+		return
+	}
+	var second Report
+	done := make(chan struct{})
+	go func() {
+		scan(pages[cut:], &second)
+		close(done)
+	}()
+	scan(pages[:cut], r)
+	<-done
+	r.merge(&second)
+}
+
+// parallelMin is the number of placed edges from which pages are scanned
+// in two halves at once (a variable so tests can exercise both paths).
+var parallelMin = 1 << 16
+
+// sortGroupsLongestFirst orders each run of edges with the same left end
+// by right end, descending.
+func sortGroupsLongestFirst(page, left, right []int32) {
+	for i := 0; i < len(page); {
+		j := i + 1
+		for j < len(page) && left[page[j]] == left[page[i]] {
+			j++
+		}
+		if j-i > 1 {
+			slices.SortStableFunc(page[i:j], func(a, b int32) int { return int(right[b]) - int(right[a]) })
 		}
 		i = j
 	}
 }
 
-func countingSort(a, tmp, count []int32, key func(int32) int32) {
+// countingSort writes a, stably sorted by key, to out.
+func countingSort(a, out, count []int32, key func(int32) int32) {
 	clear(count)
 	for _, e := range a {
 		count[key(e)+1]++
@@ -137,10 +189,9 @@ func countingSort(a, tmp, count []int32, key func(int32) int32) {
 	}
 	for _, e := range a {
 		k := key(e)
-		tmp[count[k]] = e
+		out[count[k]] = e
 		count[k]++
 	}
-	copy(a, tmp)
 }
 
 func scanStackPage(g *Graph, pos []int32, p int32, page, left, right []int32, r *Report, stack []int32) []int32 {

@@ -117,7 +117,9 @@ func randomLayout(r *rand.Rand, g *Graph, kind Kind, k int) *Layout {
 
 func TestFastCheckerAgreesWithBruteForce(t *testing.T) {
 	r := rand.New(rand.NewPCG(1, 2))
+	defer func(old int) { parallelMin = old }(parallelMin)
 	for trial := 0; trial < 4000; trial++ {
+		parallelMin = []int{1 << 16, 0}[trial%2] // both the serial and the two-half scan
 		n := 2 + r.IntN(12)
 		g := randomLayoutGraph(r, n, r.Float64())
 		kind := Kind(1 + r.IntN(3))

@@ -94,6 +94,22 @@ func (r *Report) add(p Problem) {
 	}
 }
 
+// merge adds the findings of o to r, keeping the per-kind witness limit.
+func (r *Report) merge(o *Report) {
+	for _, p := range o.Problems {
+		r.add(p)
+	}
+	for kind, c := range o.Counts {
+		kept := int64(0)
+		for _, p := range o.Problems {
+			if p.Kind.String() == kind {
+				kept++
+			}
+		}
+		r.Counts[kind] += c - kept
+	}
+}
+
 // Err returns nil when the layout passed, else a *LayoutError summarising the report.
 func (r *Report) Err() error {
 	if r.OK() {

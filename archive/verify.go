@@ -16,6 +16,10 @@ import (
 	"quire/dimacs"
 )
 
+// maxHeld bounds the bytes of members other than proofs that Verify holds
+// in memory (the graph, layout, manifest and a stored CNF).
+const maxHeld = 1 << 30
+
 // Check statuses.
 const (
 	StatusPass = "pass" // checked and found right
@@ -130,6 +134,7 @@ type verifier struct {
 	rep *Report
 
 	files    map[string][]byte // members other than proofs, as read
+	held     int64             // bytes in files
 	sums     map[string]string // member -> SHA-256 from SHA256SUMS
 	prepared bool
 	m        *Manifest
@@ -147,10 +152,15 @@ func (v *verifier) member(m Member, r io.Reader) error {
 	}
 	v.sums[m.Name] = m.SHA256
 	if !strings.HasPrefix(m.Name, "proofs/") {
-		data, err := io.ReadAll(r)
+		// Members other than proofs are held in memory, within a budget.
+		if m.Size > maxHeld-v.held {
+			return &BundleError{Member: m.Name, Kind: ErrTooLarge, Detail: fmt.Sprintf("%d bytes; members other than proofs may hold %d bytes in all", m.Size, int64(maxHeld))}
+		}
+		data, err := io.ReadAll(io.LimitReader(r, m.Size))
 		if err != nil {
 			return err
 		}
+		v.held += int64(len(data))
 		v.files[m.Name] = data
 		return nil
 	}

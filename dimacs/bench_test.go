@@ -43,18 +43,27 @@ func TestBenchGraphs(t *testing.T) {
 	}
 }
 
+// benchVariants are the encodings compared: the default, the default
+// without twin symmetry breaking, and the baseline.
+var benchVariants = []struct {
+	name string
+	opt  Options
+}{
+	{"default", Options{Kind: cert.Stack}},
+	{"no-twins", Options{Kind: cert.Stack, NoTwins: true}},
+	{"baseline", Options{Kind: cert.Stack, Baseline: true}},
+}
+
 // BenchmarkEncodeSize encodes the table graphs and reports their sizes.
 func BenchmarkEncodeSize(b *testing.B) {
 	for _, c := range benchGraphs() {
-		for _, base := range []bool{false, true} {
-			name := "default"
-			if base {
-				name = "baseline"
-			}
-			b.Run(c.name+"/"+name, func(b *testing.B) {
+		for _, v := range benchVariants {
+			b.Run(c.name+"/"+v.name, func(b *testing.B) {
 				var st Stats
 				for i := 0; i < b.N; i++ {
-					e, err := Encode(c.g, Options{Kind: cert.Stack, Pages: c.pages, Baseline: base})
+					o := v.opt
+					o.Pages = c.pages
+					e, err := Encode(c.g, o)
 					if err != nil {
 						b.Fatal(err)
 					}
@@ -77,13 +86,12 @@ func BenchmarkSolve(b *testing.B) {
 		limit = s
 	}
 	for _, c := range benchGraphs() {
-		for _, base := range []bool{false, true} {
-			name := "default"
-			if base {
-				name = "baseline"
-			}
+		for _, v := range benchVariants {
+			name := v.name
 			b.Run(c.name+"/"+name, func(b *testing.B) {
-				e, err := Encode(c.g, Options{Kind: cert.Stack, Pages: c.pages, Baseline: base})
+				o := v.opt
+				o.Pages = c.pages
+				e, err := Encode(c.g, o)
 				if err != nil {
 					b.Fatal(err)
 				}

@@ -1,6 +1,7 @@
 package archive
 
 import (
+	"archive/tar"
 	"bytes"
 	"context"
 	"crypto/sha256"
@@ -264,3 +265,32 @@ func readFile(t *testing.T, p string) []byte {
 
 var _ = io.EOF
 var _ = context.Background
+
+// A member other than a proof that claims more bytes than Verify holds in
+// memory is rejected before it is read.
+func TestVerifyHeldBudget(t *testing.T) {
+	files := members(t, k5Exact(t))
+	var es []rawEntry
+	for _, n := range slices.Sorted(mapsKeys(files)) {
+		es = append(es, reg(n, files[n]))
+	}
+	big := rawEntry{hdr: es[0].hdr}
+	big.hdr.Name, big.hdr.Size = "cnf/claim.cnf", maxHeld+1
+	listed := append([]rawEntry{reg("cnf/claim.cnf", nil)}, es...)
+	// The archive ends right after the big member's header: the claimed
+	// size alone must get it rejected.
+	var tb bytes.Buffer
+	tw := tar.NewWriter(&tb)
+	for _, e := range []rawEntry{sumsFor(listed...), big} {
+		h := e.hdr
+		if err := tw.WriteHeader(&h); err != nil {
+			t.Fatal(err)
+		}
+		tw.Write(e.data)
+	}
+	raw := compress(t, tb.Bytes())
+	r := mustFail(t, raw, "integrity", "cnf/claim.cnf", "size limit exceeded")
+	if r.Unreadable {
+		t.Fatal("reported as unreadable")
+	}
+}

@@ -82,15 +82,27 @@ func DecideLayout(ctx context.Context, g *cert.Graph, opt GraphOptions) (*GraphV
 	if err != nil {
 		return nil, err
 	}
-	hasUnsat := false
+	unsatBy := map[string]bool{}
 	hasSat := false
 	for _, r := range gv.Results {
-		hasUnsat = hasUnsat || r.Answer == Unsat
+		if r.Answer == Unsat {
+			unsatBy[r.Backend] = true
+		}
 		hasSat = hasSat || r.Answer == Sat
 	}
-	// Proofs matter only when there is no model: with a model beside an
-	// UNSAT claim the verdict is a conflict whatever the proof says.
-	if hasUnsat && !hasSat {
+	// Proofs matter only when there is no model (with a model beside an
+	// UNSAT claim the verdict is a conflict whatever the proof says) and
+	// when enough backends said UNSAT for a verdict.
+	switch {
+	case len(unsatBy) == 0 || hasSat:
+	case len(unsatBy) < policy.MinUnsat:
+		for _, r := range gv.Results {
+			if r.Answer == Unsat && r.Proof != "" {
+				gv.Checks = append(gv.Checks, ProofCheck{Backend: r.Backend, Format: r.ProofFormat,
+					Skipped: fmt.Sprintf("too few UNSAT answers for a verdict (%d of %d)", len(unsatBy), policy.MinUnsat)})
+			}
+		}
+	default:
 		enough := policy.MinProofs
 		if opt.AllProofs {
 			enough = 0

@@ -5,6 +5,9 @@ import (
 	"strings"
 	"testing"
 	"time"
+
+	"quire/cert"
+	"quire/dimacs"
 )
 
 // TestPipelinePigeonhole runs the whole UNSAT path on PHP(n+1, n), which is
@@ -70,5 +73,33 @@ func TestPipelineLiars(t *testing.T) {
 	v = Decide(results, checks, DefaultPolicy())
 	if v.Outcome != Undecided || len(v.Missing) == 0 {
 		t.Fatalf("liars decided %s", v.Outcome)
+	}
+}
+
+// TestDecideLayoutSkipsHopelessProofs: with one UNSAT backend no verdict is
+// possible, so its proof is not checked; K4 has no 1-page layout (it is not
+// outerplanar, Bernhart & Kainen 1979).
+func TestDecideLayoutSkipsHopelessProofs(t *testing.T) {
+	gv, err := DecideLayout(context.Background(), complete(t, 4), GraphOptions{
+		Encoding: dimacs.Options{Kind: cert.Stack, Pages: 1},
+		Solvers:  []Solver{gophersatForTest(t)},
+		Limit:    time.Minute,
+	})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if gv.Verdict.Outcome != Undecided || len(gv.Checks) != 1 || gv.Checks[0].Skipped == "" {
+		t.Fatalf("verdict %+v checks %+v", gv.Verdict, gv.Checks)
+	}
+	gv, err = DecideLayout(context.Background(), complete(t, 4), GraphOptions{
+		Encoding: dimacs.Options{Kind: cert.Stack, Pages: 1},
+		Solvers:  inProcess(t),
+		Limit:    time.Minute,
+	})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if gv.Verdict.Outcome != Unsatisfiable || len(gv.Checks) != 1 || !gv.Checks[0].DRAT || !gv.Checks[0].LRAT {
+		t.Fatalf("verdict %+v checks %+v", gv.Verdict, gv.Checks)
 	}
 }

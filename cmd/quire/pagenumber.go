@@ -68,6 +68,7 @@ without a verdict (the bounds found so far are reported).`,
 	fl.BoolVar(&o.enc.NoRotation, "no-rotation", false, "solver steps: stack: do not fix the first vertex on the spine")
 	fl.BoolVar(&o.enc.NoReflection, "no-reflection", false, "solver steps: do not fix the order of one pair of vertices")
 	fl.BoolVar(&o.enc.NoPageSymmetry, "no-page-symmetry", false, "solver steps: do not break the symmetry of pages")
+	fl.BoolVar(&o.enc.NoTwins, "no-twins", false, "solver steps: do not order twin vertices on the spine")
 	return cmd
 }
 

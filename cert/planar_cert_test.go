@@ -229,7 +229,8 @@ func TestPlanarCertBadFiles(t *testing.T) {
 		"bad-both.json":       "no \"kuratowski\"",
 		"bad-type.json":       "expected",
 		"bad-trailing.json":   "end of input",
-		"bad-neighbours.json": "list of vertex labels",
+		"bad-neighbours.json": "list of [vertex, neighbours...] lists",
+		"bad-empty.json":      "is empty",
 	}
 	for _, f := range files {
 		data, err := os.ReadFile(f)

@@ -20,12 +20,12 @@ const PlanarCertVersion = 1
 // WritePlanarCert writes c for g as JSON (format quire-planarity, version 1):
 //
 //	{"format":"quire-planarity","version":1,"graph":ID,"vertices":N,"edges":M,
-//	 "planar":true,"rotation":{"a":["b","c"],...}}
+//	 "planar":true,"rotation":[["a","b","c"],...]}
 //	{"format":"quire-planarity","version":1,"graph":ID,"vertices":N,"edges":M,
 //	 "planar":false,"kuratowski":{"kind":"K3,3","branch":[...],"paths":[[...],...]}}
 //
-// The rotation lists every vertex in vertex order with its neighbours in
-// cyclic order. The output is the same bytes for the same certificate.
+// Each rotation entry is a vertex followed by its neighbours in cyclic order;
+// every vertex has an entry, in vertex order. The output is the same bytes for the same certificate.
 func WritePlanarCert(w io.Writer, g *Graph, c *PlanarCert) error {
 	if c == nil || (c.Planar && c.Embedding == nil) || (!c.Planar && c.Kuratowski == nil) {
 		return errors.New("cert: incomplete planarity certificate")
@@ -53,17 +53,20 @@ func WritePlanarCert(w io.Writer, g *Graph, c *PlanarCert) error {
 		if len(rot) != g.N() {
 			return fmt.Errorf("cert: embedding has %d vertices, graph has %d", len(rot), g.N())
 		}
-		bw.WriteString("  \"planar\": true,\n  \"rotation\": {")
+		bw.WriteString("  \"planar\": true,\n  \"rotation\": [")
 		for v := range rot {
 			if v > 0 {
 				bw.WriteByte(',')
 			}
-			bw.WriteString("\n    ")
+			bw.WriteString("\n    [")
 			str(int32(v))
-			bw.WriteString(": ")
-			list(rot[v])
+			for _, w := range rot[v] {
+				bw.WriteString(", ")
+				str(w)
+			}
+			bw.WriteByte(']')
 		}
-		bw.WriteString("\n  }\n}\n")
+		bw.WriteString("\n  ]\n}\n")
 		return bw.Flush()
 	}
 	k := c.Kuratowski
@@ -200,49 +203,41 @@ func ReadPlanarCert(r io.Reader, name string, g *Graph) (*PlanarCert, error) {
 	return &PlanarCert{Kuratowski: k}, nil
 }
 
-// readRotation reads {"label": ["label", ...], ...} in a streaming way so
-// that repeated vertices are caught.
+// readRotation reads [["vertex", "neighbour", ...], ...].
 func readRotation(raw json.RawMessage, g *Graph, perr func(int64, string, ...any) error) (*Embedding, error) {
-	dec := json.NewDecoder(bytes.NewReader(raw))
-	tok, err := dec.Token()
-	if err != nil || tok != json.Delim('{') {
-		return nil, perr(0, "expected \"rotation\" to be an object of vertex: [neighbours]")
+	var entries [][]string
+	if err := json.Unmarshal(raw, &entries); err != nil {
+		var syn *json.SyntaxError
+		var off int64
+		if errors.As(err, &syn) {
+			off = syn.Offset
+		}
+		return nil, perr(off, "expected \"rotation\" to be a list of [vertex, neighbours...] lists")
 	}
 	rot := make([][]int32, g.N())
 	given := make([]bool, g.N())
-	var nb []string
-	for dec.More() {
-		off := dec.InputOffset()
-		tok, err := dec.Token()
-		if err != nil {
-			return nil, perr(off, "bad rotation entry: %v", err)
+	flat := make([]int32, 0, 2*g.M())
+	for i, e := range entries {
+		if len(e) == 0 {
+			return nil, perr(0, "rotation entry %d is empty (expected a vertex and its neighbours)", i+1)
 		}
-		label, _ := tok.(string)
-		v, ok := g.Index(label)
+		v, ok := g.Index(e[0])
 		if !ok {
-			return nil, perr(off, "rotation names %q, which is not a vertex of the graph", label)
+			return nil, perr(0, "rotation entry %d names %q, which is not a vertex of the graph", i+1, e[0])
 		}
 		if given[v] {
-			return nil, perr(off, "rotation of %q given twice", label)
+			return nil, perr(0, "rotation of %q given twice", e[0])
 		}
 		given[v] = true
-		nb = nb[:0]
-		off = dec.InputOffset()
-		if err := dec.Decode(&nb); err != nil {
-			return nil, perr(off, "expected the rotation of %q as a list of vertex labels", label)
-		}
-		list := make([]int32, len(nb))
-		for i, l := range nb {
+		start := len(flat)
+		for _, l := range e[1:] {
 			w, ok := g.Index(l)
 			if !ok {
-				return nil, perr(off, "rotation of %q names %q, which is not a vertex of the graph", label, l)
+				return nil, perr(0, "rotation of %q names %q, which is not a vertex of the graph", e[0], l)
 			}
-			list[i] = w
+			flat = append(flat, w)
 		}
-		rot[v] = list
-	}
-	if _, err := dec.Token(); err != nil {
-		return nil, perr(dec.InputOffset(), "bad rotation object: %v", err)
+		rot[v] = flat[start:len(flat):len(flat)]
 	}
 	return &Embedding{Rotation: rot}, nil
 }

@@ -217,6 +217,33 @@ func (v *verifier) prepare() {
 	if m.Refutation != nil {
 		v.prepareRefutation()
 	}
+	if m.Planarity != nil {
+		v.checkPlanarity()
+	}
+}
+
+// checkPlanarity re-checks a stored planarity certificate against the graph.
+func (v *verifier) checkPlanarity() {
+	p := v.m.Planarity
+	data, ok := v.files[p.Member]
+	if !ok {
+		v.rep.add("planarity", StatusFail, "member %s is missing", p.Member)
+		return
+	}
+	c, err := cert.ReadPlanarCert(bytes.NewReader(data), p.Member, v.g)
+	if err == nil {
+		err = cert.CheckPlanarCert(v.g, c)
+	}
+	switch {
+	case err != nil:
+		v.rep.add("planarity", StatusFail, "%v", err)
+	case c.Planar != p.Planar:
+		v.rep.add("planarity", StatusFail, "the certificate says planar=%v, the manifest planar=%v", c.Planar, p.Planar)
+	case c.Planar:
+		v.rep.add("planarity", StatusPass, "planar: the embedding in %s was re-checked", p.Member)
+	default:
+		v.rep.add("planarity", StatusPass, "not planar: the Kuratowski subgraph in %s was re-checked", p.Member)
+	}
 }
 
 func (v *verifier) readGraph(member, format string) (*cert.Graph, error) {

@@ -60,3 +60,30 @@ func TestRoundTrip(t *testing.T) {
 		})
 	}
 }
+
+// A planarity certificate stored in a bundle is re-checked. K5 is not
+// planar (Kuratowski 1930); the certificate is a Kuratowski subgraph.
+func TestPlanarityMember(t *testing.T) {
+	g := complete(t, 5)
+	ev := evidence(t, g, "K5", cert.Stack, nil, AtMost, 3)
+	res, err := cert.Planarity(g)
+	if err != nil {
+		t.Fatal(err)
+	}
+	ev.Planarity = res.Cert
+	b := bundleBytes(t, ev)
+	r := verifyBytes(b, VerifyOptions{})
+	if !r.Verified || !strings.Contains(passNames(r), "planarity: not planar") {
+		t.Fatalf("verified=%v\n%s\n%s", r.Verified, failNames(r), passNames(r))
+	}
+}
+
+func passNames(r *Report) string {
+	var s []string
+	for _, c := range r.Checks {
+		if c.Status == StatusPass {
+			s = append(s, c.Name+": "+c.Detail)
+		}
+	}
+	return strings.Join(s, "\n")
+}

@@ -31,6 +31,7 @@ type bundleOptions struct {
 	kind       string
 	pageKinds  string
 	includeCNF bool
+	planarity  bool
 	fromCNF    string
 	fromProof  string
 	output     string
@@ -80,6 +81,7 @@ interrupt. Re-check a bundle with "quire verify".`,
 	fl.StringVar(&o.kind, "kind", "stack", "layout kind: stack, queue or mixed")
 	fl.StringVar(&o.pageKinds, "page-kinds", "", "for --kind mixed: the kind of every page (K for --at-most, K-1 for --at-least)")
 	fl.BoolVar(&o.includeCNF, "include-cnf", false, "store the CNF in the bundle too")
+	fl.BoolVar(&o.planarity, "planarity", false, "store a checked planarity certificate (an embedding or a Kuratowski subgraph)")
 	fl.StringVar(&o.fromCNF, "from-cnf", "", "the CNF a --from-proof proof refutes, if not quire's encoding")
 	fl.StringVar(&o.fromProof, "from-proof", "", "a proof made elsewhere (DRAT text or binary, or LRAT) refuting K-1 pages")
 	fl.StringVarP(&o.output, "output", "o", "", "bundle file (default NAME"+archive.Suffix+" after the graph file)")
@@ -319,6 +321,13 @@ func runBundle(cmd *cobra.Command, o *bundleOptions) error {
 			}
 		}
 		ev.Refutation = ref
+	}
+	if o.planarity {
+		pr, err := cert.Planarity(g)
+		if err != nil {
+			return usageErr(err)
+		}
+		ev.Planarity = pr.Cert
 	}
 	m, srcs, err := archive.Build(ctx, ev, archive.CurrentEncoder{}, tmp)
 	if err != nil {

@@ -56,6 +56,7 @@ func CheckEmbedding(g *Graph, emb *Embedding) error {
 		at[i] = -1
 	}
 	head := make([]int32, 2*m)
+	edgeOf := make([]int32, 2*m)
 	for v := 0; v < n; v++ {
 		for i, w := range emb.Rotation[v] {
 			e := g.EdgeIndex(int32(v), w)
@@ -72,14 +73,14 @@ func CheckEmbedding(g *Graph, emb *Embedding) error {
 			d := start[v] + i
 			at[k] = int32(d)
 			head[d] = w
+			edgeOf[d] = int32(e)
 		}
 	}
 	// Every edge has both darts, since each rotation lists degree-many
 	// distinct neighbours; trace the faces: after arriving at w along v -> w,
 	// leave w along the dart that follows w -> v in the rotation of w.
 	twin := func(d int32, v int32) int32 {
-		w := head[d]
-		e := g.EdgeIndex(v, w)
+		w, e := head[d], edgeOf[d]
 		if v < w {
 			return at[2*e+1]
 		}

@@ -112,7 +112,8 @@ func TestRandom3SATAgree(t *testing.T) {
 		cnfs = append(cnfs, cnf)
 		var first Answer
 		for i, s := range backends {
-			r := solveOK(t, s, cnf, "")
+			r := solveOK(t, s, cnf, filepath.Join(t.TempDir(), "proof"))
+			checkUnsatProof(t, cnf, r)
 			if r.Answer == Unknown {
 				t.Fatalf("seed %d %s: UNKNOWN (%s)", seed+1, s.Name(), r.Detail)
 			}
@@ -142,6 +143,7 @@ func TestRandom3SATAgree(t *testing.T) {
 		s := cadicalForTest(t)
 		for i, cnf := range cnfs {
 			r := solveOK(t, s, cnf, filepath.Join(t.TempDir(), "proof"))
+			checkUnsatProof(t, cnf, r)
 			if r.Answer != want[i] {
 				t.Errorf("seed %d: cadical says %s, in-process backends %s (%s)", i+1, r.Answer, want[i], r.Detail)
 			}
@@ -165,6 +167,19 @@ func TestRandom3SATAgree(t *testing.T) {
 			}
 		}
 	})
+}
+
+// checkUnsatProof requires the proof of an UNSAT result, when the backend
+// wrote one, to pass quire's DRAT checker and the LRAT re-check.
+func checkUnsatProof(t *testing.T, cnf *dimacs.CNF, r *Result) {
+	t.Helper()
+	if r.Answer != Unsat || r.Proof == "" {
+		return
+	}
+	checks := CheckProofs(context.Background(), cnf, []*Result{r}, ProofCheckOptions{})
+	if len(checks) != 1 || !checks[0].DRAT || !checks[0].LRAT {
+		t.Errorf("%s: proof rejected: %+v", r.Backend, checks)
+	}
 }
 
 // satFormula is satisfiable but not by the all-false assignment.

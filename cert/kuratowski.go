@@ -27,11 +27,16 @@ var ErrPlanar = errors.New("graph is planar")
 // order, so the first prefix found is a small region of the graph when the
 // obstruction is local.
 func FindKuratowski(g *Graph) (*Kuratowski, error) {
-	r := lrTest(lrOf(g), false)
+	lg, perm := lrOf(g)
+	r := lrTest(lg, false)
 	if r.planar {
 		return nil, fmt.Errorf("cert: no Kuratowski subgraph: %w", ErrPlanar)
 	}
-	return kuratowskiFrom(g, r.fail)
+	fail := r.fail
+	if fail >= 0 {
+		fail = perm[fail]
+	}
+	return kuratowskiFrom(g, fail)
 }
 
 // kuratowskiFrom runs the search on the non-planar g, starting the first

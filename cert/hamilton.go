@@ -261,6 +261,11 @@ func HamiltonianTwoPage(g *Graph, emb *Embedding, budget int) (*Layout, bool) {
 // twoPageValid checks that no two edges on the same page cross, by a stack
 // scan of each page's edges sorted by left end and then longest first.
 func twoPageValid(g *Graph, pos []int32, page []int32) bool {
+	for _, p := range page {
+		if p != 1 && p != 2 {
+			return false // an edge the rotation system did not place
+		}
+	}
 	type span struct{ l, r int32 }
 	for p := int32(1); p <= 2; p++ {
 		var spans []span

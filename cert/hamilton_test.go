@@ -89,3 +89,23 @@ func TestIsMaximalPlanarSmall(t *testing.T) {
 		t.Fatal("two-vertex cases wrong")
 	}
 }
+
+// A rotation system that is not an embedding of the graph gives no layout.
+func TestHamiltonianTwoPageBadEmbedding(t *testing.T) {
+	g := plGridGraph(4, 4)
+	emb, _ := PlanarEmbedding(g)
+	bad := &Embedding{Rotation: make([][]int32, g.N())}
+	for v, r := range emb.Rotation {
+		bad.Rotation[v] = append([]int32(nil), r...)
+	}
+	r := bad.Rotation[5]
+	r[1] = r[0] // a repeated neighbour; one edge at vertex 5 is never placed
+	if l, ok := HamiltonianTwoPage(g, bad, 100_000); ok {
+		if rep := Validate(g, l); !rep.OK() {
+			t.Fatalf("invalid layout returned: %+v", rep.Problems)
+		}
+	}
+	if _, ok := HamiltonianTwoPage(g, &Embedding{}, 100_000); ok {
+		t.Fatal("layout from an empty rotation system")
+	}
+}

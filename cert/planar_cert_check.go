@@ -36,6 +36,10 @@ func CheckPlanarCert(g *Graph, c *PlanarCert) error {
 // vertex lists each of its neighbours exactly once (so every edge appears in
 // both rotations once), and the faces traced component by component satisfy
 // Euler's formula V − E + F = 2C, an isolated vertex counting one face.
+// The faces are counted over all components at once: each component with
+// V_i, E_i, F_i has V_i − E_i + F_i = 2 − 2γ_i ≤ 2 (γ_i the genus of the
+// surface its rotation system defines), so the sum equals 2C exactly when
+// every component is embedded in the plane.
 func CheckEmbedding(g *Graph, emb *Embedding) error {
 	n, m := g.N(), g.M()
 	if emb == nil || len(emb.Rotation) != n {

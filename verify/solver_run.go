@@ -28,8 +28,9 @@ type Event struct {
 	Backend string
 	Result  *Result     // SolverFinished
 	Check   *ProofCheck // ProofFinished
-	Done    int64       // ProofProgress: lemmas processed so far
-	Total   int64       // ProofProgress: lemmas in the proof (0 when not known yet)
+	Phase   string      // ProofProgress: "reading" (forward pass) or "checking" (backward pass)
+	Done    int64       // ProofProgress: proof steps passed so far in this phase
+	Total   int64       // ProofProgress: steps this phase will pass (0 when not known)
 	Elapsed time.Duration
 }
 

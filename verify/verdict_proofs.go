@@ -73,7 +73,7 @@ func checkOneProof(ctx context.Context, cnf *dimacs.CNF, r *Result, keepLRAT boo
 		LRAT:   lw,
 		Name:   r.Proof,
 		Progress: func(p DRATProgress) {
-			pr.send(Event{Kind: ProofProgress, Backend: r.Backend, Done: int64(p.Steps), Total: int64(p.Total), Elapsed: time.Since(start)})
+			pr.send(Event{Kind: ProofProgress, Backend: r.Backend, Phase: p.Phase, Done: int64(p.Steps), Total: int64(p.Total), Elapsed: time.Since(start)})
 		},
 	})
 	ferr := lw.Flush()

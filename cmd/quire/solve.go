@@ -274,7 +274,7 @@ type solveProgress struct {
 	states map[string]string
 	order  []string
 	bar    *progressbar.ProgressBar
-	proof  string // backend whose proof is being checked
+	proof  string // "backend/phase" of the proof check on display
 	stop   chan struct{}
 	done   sync.WaitGroup
 }
@@ -365,20 +365,22 @@ func (p *solveProgress) event(e verify.Event) {
 	case verify.SolverFinished:
 		p.states[e.Backend] = fmt.Sprintf("%s %s", e.Result.Answer, e.Elapsed.Round(10*time.Millisecond))
 	case verify.ProofProgress:
-		if p.proof != e.Backend {
+		if phase := e.Backend + "/" + e.Phase; p.proof != phase {
 			p.bar.Finish()
-			p.proof = e.Backend
-			p.bar = progressbar.NewOptions64(max(e.Total, 1),
+			p.proof = phase
+			// The total of a phase is known from its first report on, or never.
+			total := e.Total
+			if total <= 0 {
+				total = -1
+			}
+			p.bar = progressbar.NewOptions64(total,
 				progressbar.OptionSetWriter(p.w),
-				progressbar.OptionSetDescription(fmt.Sprintf("%schecking proof from %s (lemmas)", p.prefix, e.Backend)),
+				progressbar.OptionSetDescription(fmt.Sprintf("%s%s proof from %s (steps)", p.prefix, e.Phase, e.Backend)),
 				progressbar.OptionShowCount(),
 				progressbar.OptionClearOnFinish(),
 				progressbar.OptionSetElapsedTime(true),
 				progressbar.OptionThrottle(100*time.Millisecond),
 			)
-		}
-		if e.Total > 0 {
-			p.bar.ChangeMax64(e.Total)
 		}
 		p.bar.Set64(e.Done)
 	case verify.ProofFinished:

@@ -52,8 +52,22 @@ func Stack(g *cert.Graph, opts Options) *cert.Layout {
 	if l := completeStack(g); l != nil {
 		return l
 	}
-	return search(g, cert.Stack, opts)
+	l := search(g, cert.Stack, opts)
+	if l.Pages() > 2 && g.N() >= 3 && g.M() <= 3*g.N()-6 {
+		// A planar graph with a Hamiltonian cycle has a 2-page layout with the
+		// cycle as spine (Bernhart & Kainen 1979); try a bounded search.
+		if emb, ok := cert.PlanarEmbedding(g); ok {
+			if h, ok := cert.HamiltonianTwoPage(g, emb, hamiltonBudget(g)); ok {
+				return h
+			}
+		}
+	}
+	return l
 }
+
+// hamiltonBudget bounds the Hamiltonian cycle search (in path extensions)
+// so that it costs about as much as a few passes over the graph.
+func hamiltonBudget(g *cert.Graph) int { return 20*g.M() + 100_000 }
 
 // Queue returns a queue layout of g.
 func Queue(g *cert.Graph, opts Options) *cert.Layout {

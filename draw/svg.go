@@ -24,6 +24,9 @@ type Options struct {
 	HighlightEdges []int
 	// HighlightVertices are vertices drawn emphasised.
 	HighlightVertices []int32
+	// HighlightLabel names the highlight set in the legend, after
+	// "highlighted: "; empty gives the legend entry "highlighted".
+	HighlightLabel string
 }
 
 // geometry of one drawing, in SVG user units (pixels).
@@ -155,7 +158,7 @@ func writeSVG(w *bufio.Writer, g *cert.Graph, l *cert.Layout, pos []int32, geo *
 	}
 	fmt.Fprintf(w, "<title>%s</title>\n", esc(title))
 	fmt.Fprintf(w, `<rect width="100%%" height="100%%" fill="%s"/>`+"\n", paper)
-	writeLegend(w, g, l, geo, title, len(hiE) > 0)
+	writeLegend(w, g, l, geo, title, len(hiE) > 0 || len(hiV) > 0, opts.HighlightLabel)
 
 	// Arcs: page by page, highlighted edges last so they lie on top.
 	edges := g.Edges()
@@ -192,7 +195,7 @@ func writeSVG(w *bufio.Writer, g *cert.Graph, l *cert.Layout, pos []int32, geo *
 			num(x), num(geo.spineTop), num(r), fill, num(x), num(bottom), num(r), fill)
 		weight := ""
 		if hiV[v] {
-			weight = ` font-weight="bold" fill="` + highlight + `"`
+			weight = ` font-weight="bold" fill="` + highlight + `" data-highlight="1"`
 		}
 		cy := geo.spineTop + geo.band/2
 		if geo.rotate {
@@ -226,15 +229,18 @@ func writeArc(w *bufio.Writer, geo *geometry, e, p int, a, b int32, hi, dim bool
 	if hi {
 		colour, width, opacity = highlight, 2.4, 1
 	}
-	dash := ""
+	extra := ""
 	if st.dash != "" && !hi {
-		dash = ` stroke-dasharray="` + st.dash + `"`
+		extra = ` stroke-dasharray="` + st.dash + `"`
+	}
+	if hi {
+		extra = ` data-highlight="1"`
 	}
 	fmt.Fprintf(w, `<path data-edge="%d" data-page="%d" d="M%s %s A%s %s 0 0 %d %s %s" stroke="%s" stroke-width="%s" stroke-opacity="%s"%s/>`+"\n",
-		e, p, num(x1), num(y), num(rx), num(ry), sweep, num(x2), num(y), colour, num(width), num(opacity), dash)
+		e, p, num(x1), num(y), num(rx), num(ry), sweep, num(x2), num(y), colour, num(width), num(opacity), extra)
 }
 
-func writeLegend(w *bufio.Writer, g *cert.Graph, l *cert.Layout, geo *geometry, title string, hasHighlight bool) {
+func writeLegend(w *bufio.Writer, g *cert.Graph, l *cert.Layout, geo *geometry, title string, hasHighlight bool, label string) {
 	count := make([]int, l.Pages()+1)
 	for _, p := range l.Page {
 		count[p]++
@@ -268,7 +274,11 @@ func writeLegend(w *bufio.Writer, g *cert.Graph, l *cert.Layout, geo *geometry, 
 	if hasHighlight {
 		next()
 		fmt.Fprintf(w, `<line x1="%s" y1="%s" x2="%s" y2="%s" stroke="%s" stroke-width="3"/>`, num(x), num(y-4), num(x+22), num(y-4), highlight)
-		fmt.Fprintf(w, `<text x="%s" y="%s">highlighted</text>`+"\n", num(x+30), num(y))
+		text := "highlighted"
+		if label != "" {
+			text += ": " + label
+		}
+		fmt.Fprintf(w, `<text data-legend-highlight="1" x="%s" y="%s">%s</text>`+"\n", num(x+30), num(y), esc(text))
 	}
 	w.WriteString("</g>\n")
 }

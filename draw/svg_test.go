@@ -158,3 +158,74 @@ func TestSVGShape(t *testing.T) {
 		t.Error("highlight out of range accepted")
 	}
 }
+
+// TestSVGHighlight checks that exactly the highlighted edges and vertices are
+// marked and that the legend names the highlight set.
+func TestSVGHighlight(t *testing.T) {
+	g := complete(t, 6)
+	l := completeLayout(g, cert.Stack)
+	hiE := []int{0, 4, 9}
+	hiV := []int32{1, 5}
+	var buf bytes.Buffer
+	if err := SVG(&buf, g, l, Options{HighlightEdges: hiE, HighlightVertices: hiV, HighlightLabel: "K3,3 <subdivision>"}); err != nil {
+		t.Fatal(err)
+	}
+	edges, labels := map[int]bool{}, map[string]bool{}
+	legend := ""
+	d := xml.NewDecoder(bytes.NewReader(buf.Bytes()))
+	inLegend, inLabel := false, false
+	for {
+		tok, err := d.Token()
+		if err == io.EOF {
+			break
+		}
+		if err != nil {
+			t.Fatalf("not well-formed XML: %v", err)
+		}
+		switch tok := tok.(type) {
+		case xml.StartElement:
+			attr := map[string]string{}
+			for _, a := range tok.Attr {
+				attr[a.Name.Local] = a.Value
+			}
+			if attr["data-highlight"] == "1" && tok.Name.Local == "path" {
+				e, _ := strconv.Atoi(attr["data-edge"])
+				edges[e] = true
+			}
+			inLabel = attr["data-highlight"] == "1" && tok.Name.Local == "text"
+			inLegend = attr["data-legend-highlight"] == "1"
+		case xml.CharData:
+			if inLabel {
+				labels[string(tok)] = true
+			}
+			if inLegend {
+				legend += string(tok)
+			}
+		case xml.EndElement:
+			inLabel, inLegend = false, false
+		}
+	}
+	if len(edges) != len(hiE) {
+		t.Fatalf("highlighted arcs %v, want %v", edges, hiE)
+	}
+	for _, e := range hiE {
+		if !edges[e] {
+			t.Fatalf("edge %d not highlighted (got %v)", e, edges)
+		}
+	}
+	if len(labels) != len(hiV) || !labels[g.Label(1)] || !labels[g.Label(5)] {
+		t.Fatalf("highlighted vertex labels %v, want %q and %q", labels, g.Label(1), g.Label(5))
+	}
+	if legend != "highlighted: K3,3 <subdivision>" {
+		t.Fatalf("legend entry %q", legend)
+	}
+
+	// Without a highlight set there is no legend entry and nothing marked.
+	buf.Reset()
+	if err := SVG(&buf, g, l, Options{}); err != nil {
+		t.Fatal(err)
+	}
+	if bytes.Contains(buf.Bytes(), []byte("data-highlight")) || bytes.Contains(buf.Bytes(), []byte("data-legend-highlight")) {
+		t.Fatal("highlight marks without a highlight set")
+	}
+}

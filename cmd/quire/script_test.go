@@ -1,8 +1,13 @@
 package main
 
 import (
+	"fmt"
 	"os"
+	"os/exec"
+	"strings"
 	"testing"
+
+	"quire/internal/testtools"
 
 	"github.com/rogpeppe/go-internal/testscript"
 )
@@ -19,6 +24,21 @@ func TestMain(m *testing.M) {
 func TestScripts(t *testing.T) {
 	testscript.Run(t, testscript.Params{
 		Dir: "testdata/script",
+		// [tool:NAME] is true when NAME is on PATH; when it is not and
+		// QUIRE_REQUIRE_TOOLS=1, the scenario fails instead of skipping.
+		Condition: func(cond string) (bool, error) {
+			name, ok := strings.CutPrefix(cond, "tool:")
+			if !ok {
+				return false, fmt.Errorf("unknown condition %q", cond)
+			}
+			if _, err := exec.LookPath(name); err != nil {
+				if os.Getenv(testtools.RequireEnv) == "1" {
+					return false, fmt.Errorf("%s not found on PATH and %s=1 requires it", name, testtools.RequireEnv)
+				}
+				return false, nil
+			}
+			return true, nil
+		},
 		Setup: func(env *testscript.Env) error {
 			env.Setenv("QUIRE_REQUIRE_TOOLS", os.Getenv("QUIRE_REQUIRE_TOOLS"))
 			return nil

@@ -278,7 +278,7 @@ func CheckLRAT(ctx context.Context, cnf *dimacs.CNF, r io.Reader, name string) (
 		}
 		lits := make([]int32, len(nums))
 		for i, n := range nums {
-			if n > math.MaxInt32 || -n > math.MaxInt32 {
+			if n > math.MaxInt32 || n < -math.MaxInt32 {
 				return nil, parseErr("literal %d out of range (variables are at most %d)", n, math.MaxInt32)
 			}
 			lits[i] = int32(n)

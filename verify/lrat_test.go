@@ -61,10 +61,25 @@ func TestLRATRAT(t *testing.T) {
 
 func TestLRATParseErrors(t *testing.T) {
 	f := parseCNF(t, fourClauses)
-	for _, p := range []string{"x 0 0\n", "5 1 0 2\n", "5 1 2\n", "5 d 1\n", "-5 0 0\n"} {
+	// -2^63 is a valid int64 whose negation overflows; read as a literal it
+	// would wrap to 0. -2^31 has no int32 negation (variables are at most
+	// 2^31-1, as in DIMACS; common practice, no source).
+	for _, p := range []string{"x 0 0\n", "5 1 0 2\n", "5 1 2\n", "5 d 1\n", "-5 0 0\n", "5 -9223372036854775808 0 0\n", "5 -2147483648 0 0\n", "5 2147483648 0 0\n"} {
 		_, err := CheckLRAT(context.Background(), f, strings.NewReader(p), "bad.lrat")
 		if err == nil || errors.Is(err, ErrProofRejected) || !strings.Contains(err.Error(), "bad.lrat:1:") {
 			t.Errorf("%q: err %v, want a parse error at bad.lrat:1", p, err)
 		}
+	}
+}
+
+// A satisfiable formula has no refutation: no proof may pass against it.
+// The proof below once passed because the literal -2^63 wrapped to 0 and
+// made a RAT lemma that every clause "contained" vacuously.
+func TestLRATNoRefutationOfSatisfiable(t *testing.T) {
+	f := parseCNF(t, "p cnf 1 1\n1 0\n")
+	proof := "2 -9223372036854775808 0 0\n3 0 2 0\n"
+	res, err := CheckLRAT(context.Background(), f, strings.NewReader(proof), "sat.lrat")
+	if err == nil || (res != nil && res.Accepted) {
+		t.Fatalf("a refutation of the satisfiable formula (1) was accepted: %+v", res)
 	}
 }

@@ -105,16 +105,16 @@ func fuzzSteps(data []byte, format string) ([]string, error) {
 	}
 }
 
-// Any proof against a small formula: no panic, and whatever the DRAT
-// checker accepts (backward or forward), its LRAT passes the separate LRAT
-// checker.
+// Any proof against a small formula: no panic, nothing accepted against a
+// satisfiable formula, and whatever the DRAT checker accepts (backward or
+// forward), its LRAT passes the separate LRAT checker.
 func FuzzDRATCheck(f *testing.F) {
 	for _, s := range []string{"-2 0\n1 0\n0\n", "5 1 0\n-5 2 0\n1 0\n0\n", "1 5 0\n0\n", "d 1 2 0\n-2 0\n0\n", "0\n", "3 -3 0\n1 0\n0\n"} {
 		f.Add([]byte(s), false)
 		f.Add([]byte(s), true)
 	}
 	f.Fuzz(func(t *testing.T, proof []byte, forward bool) {
-		for _, formula := range []string{fourClauses, ratFormula} {
+		for _, formula := range []string{fourClauses, ratFormula, satText} {
 			cnf := parseCNF(t, formula)
 			var lrat bytes.Buffer
 			res, err := CheckDRAT(context.Background(), cnf, bytes.NewReader(proof), DRATOptions{Forward: forward, LRAT: &lrat})
@@ -124,6 +124,9 @@ func FuzzDRATCheck(f *testing.F) {
 				}
 				continue
 			}
+			if formula == satText {
+				t.Fatalf("refutation of a satisfiable formula accepted: %q", proof)
+			}
 			if _, err := CheckLRAT(context.Background(), cnf, &lrat, "lrat"); err != nil {
 				t.Fatalf("accepted proof %q, but its LRAT fails: %v\n%s", proof, err, lrat.String())
 			}
@@ -131,17 +134,24 @@ func FuzzDRATCheck(f *testing.F) {
 	})
 }
 
-// The LRAT reader and checker never panic.
+// satText is satisfiable (1 = 2 = true), so no proof may refute it.
+const satText = "p cnf 3 3\n1 -2 0\n2 3 0\n1 2 0\n"
+
+// The LRAT reader and checker never panic, and never accept a refutation of
+// a satisfiable formula.
 func FuzzLRATCheck(f *testing.F) {
 	f.Add([]byte(lratExample))
 	f.Add([]byte("7 5 1 0 0\n8 -5 2 0 -7 3 4 0\n"))
 	f.Add([]byte("5 d 1 0\n5 0 0\n"))
 	f.Fuzz(func(t *testing.T, data []byte) {
-		for _, formula := range []string{fourClauses, ratFormula} {
+		for _, formula := range []string{fourClauses, ratFormula, satText} {
 			cnf := parseCNF(t, formula)
 			res, err := CheckLRAT(context.Background(), cnf, bytes.NewReader(data), "fuzz")
 			if err == nil && (res == nil || !res.Accepted) {
 				t.Fatal("no error but not accepted")
+			}
+			if err == nil && formula == satText {
+				t.Fatalf("refutation of a satisfiable formula accepted: %q", data)
 			}
 		}
 	})

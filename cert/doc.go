@@ -11,4 +11,11 @@
 // queue page no two nested edges (never a < c < d < b). The checker trusts
 // nothing in the layout: it matches vertices and edges against the graph and
 // scans every page in O(m log m) time, reporting each problem with a witness.
+//
+// Planarity is decided by the left-right planarity test (U. Brandes, "The
+// Left-Right Planarity Test", 2009), written for quire and linear in the size
+// of the graph. Its answers come with certificates — a rotation system for a
+// planar graph, a subdivision of K5 or K3,3 otherwise — and each certificate
+// is checked by planar_cert_check.go, which uses only the Graph API and
+// shares no code with the test that found it.
 package cert

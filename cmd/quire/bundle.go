@@ -32,6 +32,7 @@ type bundleOptions struct {
 	pageKinds  string
 	includeCNF bool
 	planarity  bool
+	planar     bool
 	fromCNF    string
 	fromProof  string
 	output     string
@@ -81,7 +82,8 @@ interrupt. Re-check a bundle with "quire verify".`,
 	fl.StringVar(&o.kind, "kind", "stack", "layout kind: stack, queue or mixed")
 	fl.StringVar(&o.pageKinds, "page-kinds", "", "for --kind mixed: the kind of every page (K for --at-most, K-1 for --at-least)")
 	fl.BoolVar(&o.includeCNF, "include-cnf", false, "store the CNF in the bundle too")
-	fl.BoolVar(&o.planarity, "planarity", false, "store a checked planarity certificate (an embedding or a Kuratowski subgraph)")
+	fl.BoolVar(&o.planarity, "planarity", true, "store a checked planarity certificate (an embedding or a Kuratowski subgraph)")
+	fl.BoolVar(&o.planar, "planar", false, "the claim is about a planar graph: fail (exit 1) unless the checked planarity verdict says planar; implies --planarity")
 	fl.StringVar(&o.fromCNF, "from-cnf", "", "the CNF a --from-proof proof refutes, if not quire's encoding")
 	fl.StringVar(&o.fromProof, "from-proof", "", "a proof made elsewhere (DRAT text or binary, or LRAT) refuting K-1 pages")
 	fl.StringVarP(&o.output, "output", "o", "", "bundle file (default NAME"+archive.Suffix+" after the graph file)")
@@ -232,6 +234,17 @@ func runBundle(cmd *cobra.Command, o *bundleOptions) error {
 	if name == "" {
 		name = bundleBase(o.graphArg)
 	}
+	var planarity *planarityRecord
+	if o.planarity || o.planar {
+		if planarity, err = checkedPlanarity(g); err != nil {
+			return err
+		}
+		if o.planar {
+			if err := requirePlanar(o.graphArg, planarity); err != nil {
+				return err
+			}
+		}
+	}
 	out := o.output
 	if out == "" {
 		out = name + archive.Suffix
@@ -322,12 +335,8 @@ func runBundle(cmd *cobra.Command, o *bundleOptions) error {
 		}
 		ev.Refutation = ref
 	}
-	if o.planarity {
-		pr, err := cert.Planarity(g)
-		if err != nil {
-			return usageErr(err)
-		}
-		ev.Planarity = pr.Cert
+	if planarity != nil {
+		ev.Planarity = planarity.cert
 	}
 	m, srcs, err := archive.Build(ctx, ev, archive.CurrentEncoder{}, tmp)
 	if err != nil {

@@ -25,6 +25,7 @@ type pageNumberOptions struct {
 	output     string
 	proofOut   string
 	unsatLower bool
+	planar     bool
 	enc        dimacs.Options
 	graphArg   string
 }
@@ -63,6 +64,7 @@ without a verdict (the bounds found so far are reported).`,
 	fl.BoolVar(&o.json, "json", false, "print one JSON object on stdout")
 	fl.StringVarP(&o.output, "output", "o", "", "write the layout behind the upper bound (JSON) to FILE")
 	fl.StringVar(&o.proofOut, "proof-out", "", "keep the proofs of every solver step in DIR/pages-K")
+	fl.BoolVar(&o.planar, "planar", false, "require a planar graph: fail (exit 1) when the checked planarity verdict says it is not")
 	fl.BoolVar(&o.unsatLower, "unsat-lower", false, "prove the lower bound by a checked UNSAT step even when a counting or planarity argument gives it")
 	fl.BoolVar(&o.enc.Baseline, "baseline", false, "solver steps use the published formulation without reductions")
 	fl.BoolVar(&o.enc.NoRotation, "no-rotation", false, "solver steps: stack: do not fix the first vertex on the spine")
@@ -90,6 +92,15 @@ func runPageNumber(cmd *cobra.Command, o *pageNumberOptions) error {
 	g, err := o.graph.load(cmd, o.graphArg)
 	if err != nil {
 		return err
+	}
+	planarity, err := checkedPlanarity(g)
+	if err != nil {
+		return err
+	}
+	if o.planar {
+		if err := requirePlanar(o.graphArg, planarity); err != nil {
+			return err
+		}
 	}
 	prog := newSolveProgress(cmd.ErrOrStderr(), o.solver.quiet, solvers)
 	step := -1
@@ -121,11 +132,12 @@ func runPageNumber(cmd *cobra.Command, o *pageNumberOptions) error {
 	}
 	out := cmd.OutOrStdout()
 	if o.json {
-		if jerr := writePageNumberJSON(out, g, res); jerr != nil {
+		if jerr := writePageNumberJSON(out, g, res, planarity); jerr != nil {
 			return jerr
 		}
 	} else {
 		printPageNumber(out, o.graphArg, res, err)
+		fmt.Fprintf(out, "  %s\n", planarity)
 	}
 	if err != nil {
 		return undecided(err)
@@ -133,7 +145,7 @@ func runPageNumber(cmd *cobra.Command, o *pageNumberOptions) error {
 	return nil
 }
 
-func writePageNumberJSON(w io.Writer, g *cert.Graph, res *verify.PageNumberResult) error {
+func writePageNumberJSON(w io.Writer, g *cert.Graph, res *verify.PageNumberResult, planarity *planarityRecord) error {
 	type evidence struct {
 		Lower  verify.Bound            `json:"lower"`
 		Upper  verify.Bound            `json:"upper"`
@@ -146,10 +158,11 @@ func writePageNumberJSON(w io.Writer, g *cert.Graph, res *verify.PageNumberResul
 		PageNumber *int          `json:"pagenumber"` // null when undecided
 		Lower      int           `json:"lower"`
 		Upper      int           `json:"upper"`
-		Elapsed    time.Duration `json:"elapsed_ns"`
-		Evidence   evidence      `json:"evidence"`
+		Elapsed    time.Duration    `json:"elapsed_ns"`
+		Planarity  *planarityRecord `json:"planarity"`
+		Evidence   evidence         `json:"evidence"`
 	}
-	r := result{Graph: g.ID(), Kind: res.Kind, Lower: res.Lower.Pages, Upper: res.Upper.Pages, Elapsed: res.Elapsed,
+	r := result{Graph: g.ID(), Kind: res.Kind, Lower: res.Lower.Pages, Upper: res.Upper.Pages, Elapsed: res.Elapsed, Planarity: planarity,
 		Evidence: evidence{Lower: res.Lower, Upper: res.Upper, Steps: res.Steps}}
 	if r.Evidence.Steps == nil {
 		r.Evidence.Steps = []verify.PageNumberStep{}

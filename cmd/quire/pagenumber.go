@@ -153,11 +153,11 @@ func writePageNumberJSON(w io.Writer, g *cert.Graph, res *verify.PageNumberResul
 		Steps  []verify.PageNumberStep `json:"steps"`
 	}
 	type result struct {
-		Graph      string        `json:"graph"`
-		Kind       string        `json:"kind"`
-		PageNumber *int          `json:"pagenumber"` // null when undecided
-		Lower      int           `json:"lower"`
-		Upper      int           `json:"upper"`
+		Graph      string           `json:"graph"`
+		Kind       string           `json:"kind"`
+		PageNumber *int             `json:"pagenumber"` // null when undecided
+		Lower      int              `json:"lower"`
+		Upper      int              `json:"upper"`
 		Elapsed    time.Duration    `json:"elapsed_ns"`
 		Planarity  *planarityRecord `json:"planarity"`
 		Evidence   evidence         `json:"evidence"`

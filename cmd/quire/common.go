@@ -29,7 +29,7 @@ func (f *graphFlags) load(cmd *cobra.Command, path string) (*cert.Graph, error) 
 	return loadGraphFormat(cmd.ErrOrStderr(), path, f.format, f.index)
 }
 
-// loadAll reads every graph in path.
+// loadAll reads every graph in path (for commands that run over all of them).
 func (f *graphFlags) loadAll(cmd *cobra.Command, path string) ([]*cert.Graph, error) {
 	res, err := readGraphFile(cmd.ErrOrStderr(), path, f.format)
 	if err != nil {

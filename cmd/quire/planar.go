@@ -18,6 +18,7 @@ type planarOptions struct {
 	out      string
 	json     bool
 	check    bool
+	all      bool
 	graphArg string
 	certArg  string
 }
@@ -42,7 +43,12 @@ Exit status 0 means planar, 1 not planar.
 
 With --check, GRAPH CERT checks a certificate made elsewhere: exit status 0
 means it is valid (whatever it certifies, which is printed), 1 that it is
-rejected.`,
+rejected.
+
+With --all, every graph of a file with several graphs (graph6 or sparse6,
+one per line) is decided and its certificate checked; one line per graph
+and the counts are printed, and the exit status is 0 when every
+certificate was checked.`,
 		Args: func(cmd *cobra.Command, args []string) error {
 			if o.check {
 				return cobra.ExactArgs(2)(cmd, args)
@@ -58,6 +64,9 @@ rejected.`,
 				o.certArg = args[1]
 				return runPlanarCheck(cmd, &o)
 			}
+			if o.all {
+				return runPlanarAll(cmd, &o)
+			}
 			return runPlanar(cmd, &o)
 		},
 	}
@@ -65,6 +74,7 @@ rejected.`,
 	cmd.Flags().StringVarP(&o.out, "output", "o", "", "write the certificate to `CERT` (\"-\" for stdout)")
 	cmd.Flags().BoolVar(&o.json, "json", false, "print one JSON object on stdout")
 	cmd.Flags().BoolVar(&o.check, "check", false, "check the certificate CERT for GRAPH instead of deciding")
+	cmd.Flags().BoolVar(&o.all, "all", false, "decide every graph of a multi-graph file and print the counts")
 	return cmd
 }
 

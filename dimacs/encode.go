@@ -191,7 +191,7 @@ func (e *Encoding) encodeDefault() {
 	if stack && !o.NoBlocks {
 		e.blocks = true
 		inBlock := make([]bool, g.N())
-		for _, blk := range blocks(g) {
+		for _, blk := range g.Blocks() {
 			if len(blk) == 1 {
 				e.bridges = append(e.bridges, blk[0])
 				ed := g.Edges()[blk[0]]

@@ -123,79 +123,18 @@ func withApex(g *cert.Graph) *cert.Graph {
 }
 
 // blocks returns the vertex sets of the biconnected components of g that
-// have at least one edge, largest first (Hopcroft and Tarjan, "Efficient
-// algorithms for graph manipulation", CACM 16(6), 1973). Every layout of
-// g restricts to a layout of each block, so a block's lower bound is one
-// for g.
+// have at least one edge, largest first. Every layout of g restricts to a
+// layout of each block, so a block's lower bound is one for g.
 func blocks(g *cert.Graph) [][]int32 {
-	n := g.N()
-	disc := make([]int32, n)
-	low := make([]int32, n)
-	for i := range disc {
-		disc[i] = -1
-	}
-	type frame struct {
-		v, parentEdge int32
-		next          int
-	}
-	var estack []int32 // edge indices
 	var out [][]int32
-	timer := int32(0)
 	edges := g.Edges()
-	for root := range int32(n) {
-		if disc[root] >= 0 {
-			continue
+	for _, blk := range g.Blocks() {
+		vs := make([]int32, 0, 2*len(blk))
+		for _, e := range blk {
+			vs = append(vs, edges[e].U, edges[e].V)
 		}
-		disc[root], low[root] = timer, timer
-		timer++
-		st := []frame{{root, -1, 0}}
-		for len(st) > 0 {
-			f := &st[len(st)-1]
-			nbrs, inc := g.Neighbors(f.v), g.IncidentEdges(f.v)
-			if f.next < len(nbrs) {
-				w, e := nbrs[f.next], inc[f.next]
-				f.next++
-				if e == f.parentEdge {
-					continue
-				}
-				if disc[w] < 0 {
-					estack = append(estack, e)
-					disc[w], low[w] = timer, timer
-					timer++
-					st = append(st, frame{w, e, 0})
-				} else if disc[w] < disc[f.v] {
-					estack = append(estack, e)
-					low[f.v] = min(low[f.v], disc[w])
-				}
-				continue
-			}
-			v, pe := f.v, f.parentEdge
-			st = st[:len(st)-1]
-			if len(st) == 0 {
-				continue
-			}
-			u := st[len(st)-1].v
-			low[u] = min(low[u], low[v])
-			if low[v] >= disc[u] {
-				seen := map[int32]bool{}
-				var comp []int32
-				for {
-					e := estack[len(estack)-1]
-					estack = estack[:len(estack)-1]
-					for _, x := range []int32{edges[e].U, edges[e].V} {
-						if !seen[x] {
-							seen[x] = true
-							comp = append(comp, x)
-						}
-					}
-					if e == pe {
-						break
-					}
-				}
-				slices.Sort(comp)
-				out = append(out, comp)
-			}
-		}
+		slices.Sort(vs)
+		out = append(out, slices.Compact(vs))
 	}
 	slices.SortStableFunc(out, func(a, b []int32) int { return len(b) - len(a) })
 	return out

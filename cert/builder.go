@@ -128,20 +128,7 @@ func (b *Builder) Build() (*Graph, BuildReport) {
 		}
 		pairs[i] = uint64(u)<<32 | uint64(v)
 	}
-	radixSort64(pairs, n)
-	var rep BuildReport
-	edges := make([]Edge, 0, len(pairs))
-	for i, p := range pairs {
-		if i > 0 && pairs[i-1] == p {
-			rep.Duplicates++
-			if len(rep.Examples) < 10 {
-				rep.Examples = append(rep.Examples, [2]string{labels[p>>32], labels[p&0xffffffff]})
-			}
-			continue
-		}
-		edges = append(edges, Edge{int32(p >> 32), int32(p & 0xffffffff)})
-	}
-	return newGraph(labels, edges), rep
+	return graphFromPairs(labels, pairs)
 }
 
 // newGraph wraps sorted, duplicate-free edges over canonically ordered labels.

@@ -75,10 +75,6 @@ func (b *Builder) vertexNumber(k int) int32 {
 	}
 }
 
-// Grow reserves room for m more edges. Readers call it with an estimate from
-// the file size: untouched reserved memory costs address space, not RAM.
-func (b *Builder) Grow(m int) { b.pairs = slices.Grow(b.pairs, m) }
-
 // N returns the number of vertices added so far.
 func (b *Builder) N() int { return len(b.labels) }
 

@@ -96,13 +96,19 @@ func (s *jscan) fill() bool {
 }
 
 func (s *jscan) errf(format string, a ...any) error {
-	before := s.data[:min(s.pos, len(s.data))]
-	line := s.lines + bytes.Count(before, []byte{'\n'}) + 1
-	col := len(before) - bytes.LastIndexByte(before, '\n') - 1
 	if s.rerr != nil && s.rerr != io.EOF {
 		return fmt.Errorf("cert: reading %s: %w", s.name, s.rerr)
 	}
+	line, col := s.where()
 	return &ParseError{File: s.name, Line: line, Col: col, Msg: fmt.Sprintf(format, a...)}
+}
+
+// where returns the line and column of the byte read last.
+func (s *jscan) where() (line, col int) {
+	before := s.data[:min(s.pos, len(s.data))]
+	line = s.lines + bytes.Count(before, []byte{'\n'}) + 1
+	col = len(before) - bytes.LastIndexByte(before, '\n') - 1
+	return line, col
 }
 
 // next returns the next byte; false at end of input.
@@ -152,6 +158,7 @@ func (s *jscan) layout() (*RawLayout, error) {
 	}
 	seen := map[string]bool{}
 	var pageKinds []string
+	var endLine, endCol, kindsLine, kindsCol int // the closing '}', "page_kinds"
 	first := true
 	for {
 		c, ok := s.skip()
@@ -159,10 +166,12 @@ func (s *jscan) layout() (*RawLayout, error) {
 			return nil, s.errf("unexpected end of input inside the layout object")
 		}
 		if c == '}' && first {
+			endLine, endCol = s.where()
 			break
 		}
 		if !first {
 			if c == '}' {
+				endLine, endCol = s.where()
 				break
 			}
 			if c != ',' {
@@ -176,6 +185,7 @@ func (s *jscan) layout() (*RawLayout, error) {
 		if c != '"' {
 			return nil, s.errf("expected a field name in double quotes, found %q", c)
 		}
+		keyLine, keyCol := s.where()
 		key, err := s.str()
 		if err != nil {
 			return nil, err
@@ -211,6 +221,7 @@ func (s *jscan) layout() (*RawLayout, error) {
 			}
 			raw.Pages = int(p)
 		case "page_kinds":
+			kindsLine, kindsCol = keyLine, keyCol
 			if pageKinds, err = s.stringArray(); err != nil {
 				return nil, err
 			}
@@ -231,27 +242,27 @@ func (s *jscan) layout() (*RawLayout, error) {
 	}
 	for _, f := range []string{"kind", "pages", "spine", "edges"} {
 		if !seen[f] {
-			return nil, &ParseError{File: s.name, Msg: fmt.Sprintf("missing field %q", f)}
+			return nil, &ParseError{File: s.name, Line: endLine, Col: endCol, Msg: fmt.Sprintf("missing field %q", f)}
 		}
 	}
 	if raw.Kind == Mixed {
 		if !seen["page_kinds"] {
-			return nil, &ParseError{File: s.name, Msg: `a mixed layout needs "page_kinds"`}
+			return nil, &ParseError{File: s.name, Line: endLine, Col: endCol, Msg: `a mixed layout needs "page_kinds"`}
 		}
 		if len(pageKinds) != raw.Pages {
-			return nil, &ParseError{File: s.name, Msg: fmt.Sprintf(`"page_kinds" has %d entries for %d pages`, len(pageKinds), raw.Pages)}
+			return nil, &ParseError{File: s.name, Line: kindsLine, Col: kindsCol, Msg: fmt.Sprintf(`"page_kinds" has %d entries for %d pages`, len(pageKinds), raw.Pages)}
 		}
 		for _, pk := range pageKinds {
 			k, err := ParseKind(pk)
 			if err != nil || k == Mixed {
-				return nil, &ParseError{File: s.name, Msg: fmt.Sprintf(`page kind %q is not stack or queue`, pk)}
+				return nil, &ParseError{File: s.name, Line: kindsLine, Col: kindsCol, Msg: fmt.Sprintf(`page kind %q is not stack or queue`, pk)}
 			}
 			raw.PageKinds = append(raw.PageKinds, k)
 		}
 	} else if seen["page_kinds"] {
 		for _, pk := range pageKinds {
 			if k, err := ParseKind(pk); err != nil || k != raw.Kind {
-				return nil, &ParseError{File: s.name, Msg: fmt.Sprintf(`page kind %q in a %s layout`, pk, raw.Kind)}
+				return nil, &ParseError{File: s.name, Line: kindsLine, Col: kindsCol, Msg: fmt.Sprintf(`page kind %q in a %s layout`, pk, raw.Kind)}
 			}
 		}
 	}

@@ -64,26 +64,30 @@ func TestCheckRawLayoutFindings(t *testing.T) {
 		{"mixed fixes it", `{"kind":"mixed","pages":2,"page_kinds":["queue","stack"],"spine":["a","b","c","d"],"edges":[["a","b",1],["b","c",1],["c","d",1],["a","c",2]]}`, nil},
 		{"integer labels compared as text", `{"kind":"stack","pages":1,"spine":["a","b","c",4],"edges":[["a","b",1],["b","c",1],["c","d",1],["a","c",1]]}`, []ProblemKind{UnknownVertex, MissingVertex}},
 	}
-	for _, c := range cases {
-		t.Run(c.name, func(t *testing.T) {
-			raw, err := ReadLayoutJSON(strings.NewReader(c.json), "l.json")
-			if err != nil {
-				t.Fatal(err)
-			}
-			rep := Check(g, raw, CheckOptions{})
-			got := map[string]bool{}
-			for k := range rep.Counts {
-				got[k] = true
-			}
-			if len(got) != len(c.want) {
-				t.Fatalf("want %v, got %v (%v)", c.want, rep.Counts, rep.Problems)
-			}
-			for _, w := range c.want {
-				if !got[w.String()] {
-					t.Fatalf("want %v, got %v", c.want, rep.Counts)
+	defer func(old int) { parallelMin = old }(parallelMin)
+	for _, pm := range []int{1 << 16, 0} { // serial and two-half lookups
+		parallelMin = pm
+		for _, c := range cases {
+			t.Run(c.name, func(t *testing.T) {
+				raw, err := ReadLayoutJSON(strings.NewReader(c.json), "l.json")
+				if err != nil {
+					t.Fatal(err)
 				}
-			}
-		})
+				rep := Check(g, raw, CheckOptions{})
+				got := map[string]bool{}
+				for k := range rep.Counts {
+					got[k] = true
+				}
+				if len(got) != len(c.want) {
+					t.Fatalf("want %v, got %v (%v)", c.want, rep.Counts, rep.Problems)
+				}
+				for _, w := range c.want {
+					if !got[w.String()] {
+						t.Fatalf("want %v, got %v", c.want, rep.Counts)
+					}
+				}
+			})
+		}
 	}
 	raw, _ := ReadLayoutJSON(strings.NewReader(cases[9].json), "l.json")
 	if rep := Check(g, raw, CheckOptions{MaxPages: 1}); rep.Counts[PageLimit.String()] != 1 {

@@ -66,12 +66,14 @@ func Resolve(g *Graph, raw *RawLayout) (*Layout, *Report) {
 	for i, v := range l.Order {
 		pos[v] = int32(i)
 	}
-	for _, re := range raw.Edges {
-		u, v := toGraph[re.U], toGraph[re.V]
-		e := -1
-		if u >= 0 && v >= 0 {
-			e = g.EdgeIndex(u, v)
+	eidx := edgeIndices(g, raw.Edges, toGraph)
+	for i, re := range raw.Edges {
+		e := int(eidx[i])
+		if e >= 0 && l.Page[e] == 0 && re.Page >= 1 && int(re.Page) <= raw.Pages {
+			l.Page[e] = re.Page
+			continue
 		}
+		u, v := toGraph[re.U], toGraph[re.V]
 		w := WitnessEdge{U: raw.Labels[re.U], V: raw.Labels[re.V], PosU: -1, PosV: -1, Page: int(re.Page)}
 		if u >= 0 {
 			w.PosU = int(pos[u])
@@ -102,4 +104,33 @@ func Resolve(g *Graph, raw *RawLayout) (*Layout, *Report) {
 		}
 	}
 	return l, rep
+}
+
+// edgeIndices returns, for every raw edge, the index of the graph edge it
+// names, or -1. Large layouts are looked up in two halves at once.
+func edgeIndices(g *Graph, edges []RawEdge, toGraph []int32) []int32 {
+	out := make([]int32, len(edges))
+	look := func(from, to int) {
+		for i := from; i < to; i++ {
+			re := edges[i]
+			u, v := toGraph[re.U], toGraph[re.V]
+			out[i] = -1
+			if u >= 0 && v >= 0 {
+				out[i] = int32(g.EdgeIndex(u, v))
+			}
+		}
+	}
+	if len(edges) < parallelMin {
+		look(0, len(edges))
+		return out
+	}
+	half := len(edges) / 2
+	done := make(chan struct{})
+	go func() {
+		look(half, len(edges))
+		close(done)
+	}()
+	look(0, half)
+	<-done
+	return out
 }

@@ -70,10 +70,13 @@ func runCheck(cmd *cobra.Command, o *checkOptions) error {
 		return usageErr(lr.err)
 	}
 	raw := lr.raw
+	idc := make(chan string, 1)
+	go func() { idc <- g.ID() }() // hashed while the layout is checked
 	rep := cert.Check(g, raw, cert.CheckOptions{MaxPages: o.pages})
+	id := <-idc
 	idNote := ""
-	if raw.Graph != "" && raw.Graph != g.ID() {
-		idNote = fmt.Sprintf("the layout names graph %s, but %s has identity %s", short(raw.Graph), o.graphArg, short(g.ID()))
+	if raw.Graph != "" && raw.Graph != id {
+		idNote = fmt.Sprintf("the layout names graph %s, but %s has identity %s", short(raw.Graph), o.graphArg, short(id))
 	}
 	out := cmd.OutOrStdout()
 	if o.json {
@@ -93,11 +96,11 @@ func runCheck(cmd *cobra.Command, o *checkOptions) error {
 		if probs == nil {
 			probs = []cert.Problem{}
 		}
-		if err := writeJSON(out, result{g.ID(), o.layout, raw.Kind.String(), raw.Pages, rep.Used, rep.PerPage, rep.OK(), rep.Counts, probs, idNote}); err != nil {
+		if err := writeJSON(out, result{id, o.layout, raw.Kind.String(), raw.Pages, rep.Used, rep.PerPage, rep.OK(), rep.Counts, probs, idNote}); err != nil {
 			return err
 		}
 	} else {
-		printCheckReport(out, g, raw, rep, o)
+		printCheckReport(out, g, id, raw, rep, o)
 		if idNote != "" {
 			fmt.Fprintf(cmd.ErrOrStderr(), "quire: note: %s\n", idNote)
 		}
@@ -108,13 +111,13 @@ func runCheck(cmd *cobra.Command, o *checkOptions) error {
 	return nil
 }
 
-func printCheckReport(w io.Writer, g *cert.Graph, raw *cert.RawLayout, rep *cert.Report, o *checkOptions) {
+func printCheckReport(w io.Writer, g *cert.Graph, id string, raw *cert.RawLayout, rep *cert.Report, o *checkOptions) {
 	if rep.OK() {
 		fmt.Fprintf(w, "layout passed: %s layout of %s (n=%d, m=%d) on %d page(s)", raw.Kind, o.graphArg, g.N(), g.M(), rep.Used)
 		if rep.Used != raw.Pages {
 			fmt.Fprintf(w, " (%d declared)", raw.Pages)
 		}
-		fmt.Fprintf(w, "\n  edges per page: %s\n  graph identity: %s\n", perPage(rep.PerPage), g.ID())
+		fmt.Fprintf(w, "\n  edges per page: %s\n  graph identity: %s\n", perPage(rep.PerPage), id)
 		return
 	}
 	fmt.Fprintf(w, "layout rejected: %d problem(s) in %s for %s\n", rep.Total(), o.layout, o.graphArg)

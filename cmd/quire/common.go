@@ -18,7 +18,7 @@ type graphFlags struct {
 	index  int
 }
 
-// addGraphFlags registers --graph-format and --index on cmd.
+// add registers --graph-format and --index on cmd.
 func (f *graphFlags) add(cmd *cobra.Command) {
 	cmd.Flags().StringVar(&f.format, "graph-format", "auto", "graph file format: auto, edgelist, dimacs, graph6, sparse6")
 	cmd.Flags().IntVar(&f.index, "index", 0, "which graph of a multi-graph file to use (1-based; 0 = the only one)")

@@ -4,7 +4,6 @@ import (
 	"errors"
 	"fmt"
 	"io"
-	"os"
 
 	"github.com/spf13/cobra"
 
@@ -159,14 +158,9 @@ func drawKuratowski(g *cert.Graph, o *drawOptions) (*cert.Kuratowski, error) {
 		}
 		return k, nil
 	case o.kuratowskiCert != "":
-		f, err := os.Open(o.kuratowskiCert)
+		c, err := readPlanarCertFile(o.kuratowskiCert, g)
 		if err != nil {
-			return nil, usageErr(err)
-		}
-		defer f.Close()
-		c, err := cert.ReadPlanarCert(f, o.kuratowskiCert, g)
-		if err != nil {
-			return nil, usageErr(err)
+			return nil, err
 		}
 		if c.Planar {
 			return nil, usageErr(fmt.Errorf("%s: certificate says planar: nothing to highlight", o.kuratowskiCert))

@@ -4,7 +4,6 @@ import (
 	"errors"
 	"fmt"
 	"io"
-	"os"
 
 	"github.com/spf13/cobra"
 
@@ -164,14 +163,9 @@ func runPlanarCheck(cmd *cobra.Command, o *planarOptions) error {
 	if err != nil {
 		return err
 	}
-	f, err := os.Open(o.certArg)
+	c, err := readPlanarCertFile(o.certArg, g)
 	if err != nil {
-		return usageErr(err)
-	}
-	defer f.Close()
-	c, err := cert.ReadPlanarCert(f, o.certArg, g)
-	if err != nil {
-		return usageErr(err)
+		return err
 	}
 	rep := planarSummary(g, c)
 	if err := cert.CheckPlanarCert(g, c); err != nil {

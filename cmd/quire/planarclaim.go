@@ -2,6 +2,7 @@ package main
 
 import (
 	"fmt"
+	"os"
 
 	"quire/cert"
 )
@@ -48,4 +49,19 @@ func requirePlanar(name string, p *planarityRecord) error {
 		return nil
 	}
 	return refuted(fmt.Errorf("%s is not planar (%s checked), but --planar requires a planar graph", name, p.Certificate))
+}
+
+// readPlanarCertFile reads a planarity certificate for g from path; errors
+// are input errors (exit 2). The certificate is not checked here.
+func readPlanarCertFile(path string, g *cert.Graph) (*cert.PlanarCert, error) {
+	f, err := os.Open(path)
+	if err != nil {
+		return nil, usageErr(err)
+	}
+	defer f.Close()
+	c, err := cert.ReadPlanarCert(f, path, g)
+	if err != nil {
+		return nil, usageErr(err)
+	}
+	return c, nil
 }

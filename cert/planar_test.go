@@ -13,62 +13,19 @@ import (
 	"quire/internal/testtools"
 )
 
-// decodeGraph6 decodes one graph6 line (B. McKay, formats.txt: N(n) in one
-// byte 63+n for n <= 62, then the upper triangle column by column, six bits
-// per byte plus 63). It is a test-only decoder for nauty's output.
+// plDecodeGraph6 reads one graph6 line of nauty's output with the package's
+// own reader (checked against formats.txt and nauty in read_test.go).
 func plDecodeGraph6(t testing.TB, line string) *Graph {
 	t.Helper()
-	b := []byte(strings.TrimSpace(line))
-	if len(b) == 0 || b[0] < 63 || b[0] > 125 {
-		t.Fatalf("graph6 line %q: unsupported size byte", line)
+	res, err := ReadGraphs(strings.NewReader(line), "nauty.g6", FormatGraph6)
+	if err != nil || len(res.Graphs) != 1 {
+		t.Fatalf("graph6 line %q: %v", line, err)
 	}
-	n := int(b[0] - 63)
-	var edges [][2]int
-	bit := 0
-	for j := 1; j < n; j++ {
-		for i := 0; i < j; i++ {
-			byteAt := 1 + bit/6
-			if byteAt >= len(b) {
-				t.Fatalf("graph6 line %q: too short", line)
-			}
-			if (b[byteAt]-63)&(1<<(5-bit%6)) != 0 {
-				edges = append(edges, [2]int{i, j})
-			}
-			bit++
-		}
-	}
-	g, err := NewNumbered(n, 0, edges)
-	if err != nil {
-		t.Fatal(err)
-	}
-	return g
+	return res.Graphs[0]
 }
 
-// encodeGraph6 is the inverse of decodeGraph6 for n <= 62.
-func plEncodeGraph6(g *Graph) string {
-	n := g.N()
-	var out []byte
-	out = append(out, byte(63+n))
-	var cur byte
-	bit := 0
-	for j := 1; j < n; j++ {
-		for i := 0; i < j; i++ {
-			cur <<= 1
-			if g.HasEdge(int32(i), int32(j)) {
-				cur |= 1
-			}
-			bit++
-			if bit == 6 {
-				out = append(out, cur+63)
-				cur, bit = 0, 0
-			}
-		}
-	}
-	if bit > 0 {
-		out = append(out, (cur<<(6-bit))+63)
-	}
-	return string(out)
-}
+// plGraph6Big encodes g in graph6 in vertex order, for any n.
+func plGraph6Big(g *Graph) string { return string(AppendGraph6(nil, g)) }
 
 func plRunTool(t testing.TB, stdin []byte, name string, args ...string) []byte {
 	t.Helper()
@@ -210,43 +167,12 @@ func TestPlanarRandomAgainstPlanarg(t *testing.T) {
 	}
 }
 
-// graph6Big encodes g in graph6 for any n (formats.txt: N(n) is 126 and three
-// six-bit bytes for 63 <= n <= 258047).
-func plGraph6Big(g *Graph) string {
-	n := g.N()
-	var out []byte
-	if n <= 62 {
-		out = append(out, byte(63+n))
-	} else {
-		out = append(out, 126, byte(63+(n>>12)&63), byte(63+(n>>6)&63), byte(63+n&63))
-	}
-	bits := make([]byte, n*(n-1)/2)
-	for _, e := range g.Edges() {
-		i, j := int(e.U), int(e.V)
-		bits[j*(j-1)/2+i] = 1
-	}
-	for k := 0; k < len(bits); k += 6 {
-		var c byte
-		for b := 0; b < 6; b++ {
-			c <<= 1
-			if k+b < len(bits) {
-				c |= bits[k+b]
-			}
-		}
-		out = append(out, c+63)
-	}
-	return string(out)
-}
-
 func TestGraph6Helpers(t *testing.T) {
 	// formats.txt example: 'DQc' is n=5 with edges 0-2, 0-4, 1-3, 3-4 (McKay, formats.txt).
 	g := plDecodeGraph6(t, "DQc")
 	want := []Edge{{0, 2}, {0, 4}, {1, 3}, {3, 4}}
 	if fmt.Sprint(g.Edges()) != fmt.Sprint(want) {
 		t.Fatalf("DQc decodes to %v, want %v", g.Edges(), want)
-	}
-	if s := plEncodeGraph6(g); s != "DQc" {
-		t.Fatalf("DQc re-encodes as %q", s)
 	}
 	if s := plGraph6Big(g); s != "DQc" {
 		t.Fatalf("DQc re-encodes as %q", s)

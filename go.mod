@@ -1,4 +1,4 @@
-module quire
+module spinecert.dev
 
 go 1.26.8
 

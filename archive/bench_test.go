@@ -12,16 +12,16 @@ import (
 	"sync"
 	"testing"
 
-	"quire/cert"
-	"quire/dimacs"
-	"quire/internal/testtools"
+	"spinecert.dev/cert"
+	"spinecert.dev/dimacs"
+	"spinecert.dev/internal/testtools"
 )
 
 // benchLarge enables the benchmarks that need a large proof (minutes of
-// cadical time): QUIRE_BENCH_LARGE=1.
+// cadical time): SPINECERT_BENCH_LARGE=1.
 func benchLarge(b *testing.B) {
-	if os.Getenv("QUIRE_BENCH_LARGE") != "1" {
-		b.Skip("set QUIRE_BENCH_LARGE=1 to run (needs minutes of solver time)")
+	if os.Getenv("SPINECERT_BENCH_LARGE") != "1" {
+		b.Skip("set SPINECERT_BENCH_LARGE=1 to run (needs minutes of solver time)")
 	}
 }
 
@@ -54,7 +54,7 @@ func textProofBundle(b *testing.B, n, pages int) (int64, []byte) {
 		b.Fatal(err)
 	}
 	ev := &Evidence{Graph: g, Name: fmt.Sprintf("K%d", n), Input: edgeListBytes(b, g), InputFormat: cert.FormatEdgeList,
-		Kind: cert.Stack, Bound: AtLeast, K: pages + 1, QuireVersion: "bench", Tool: "archive benchmark",
+		Kind: cert.Stack, Bound: AtLeast, K: pages + 1, ToolVersion: "bench", Tool: "archive benchmark",
 		Refutation: &RefutationInput{Options: opt, Proof: proof}}
 	_, srcs, err := Build(context.Background(), ev, CurrentEncoder{}, dir)
 	if err != nil {
@@ -107,11 +107,11 @@ func BenchmarkVerifyLargeProof(b *testing.B) {
 
 // BenchmarkVerifyJobs verifies four bundles one at a time and two at a time.
 func BenchmarkVerifyJobs(b *testing.B) {
-	paths, _ := filepath.Glob(filepath.Join("..", "testdata", "bundles", "*.quire.tar.zst"))
+	paths, _ := filepath.Glob(filepath.Join("..", "testdata", "bundles", "*.spinecert.tar.zst"))
 	if len(paths) == 0 {
 		b.Skip("no bundles in testdata/bundles")
 	}
-	k7 := filepath.Join("..", "testdata", "bundles", "k7.quire.tar.zst")
+	k7 := filepath.Join("..", "testdata", "bundles", "k7.spinecert.tar.zst")
 	list := []string{k7, k7, k7, k7}
 	for _, jobs := range []int{1, 2} {
 		b.Run(fmt.Sprintf("jobs=%d", jobs), func(b *testing.B) {

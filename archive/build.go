@@ -13,16 +13,16 @@ import (
 	"slices"
 	"strings"
 
-	"quire/cert"
-	"quire/dimacs"
-	"quire/verify"
+	"spinecert.dev/cert"
+	"spinecert.dev/dimacs"
+	"spinecert.dev/verify"
 )
 
 // ErrRejected is wrapped by Build when the evidence given does not hold up:
 // the layout fails the check or the proof fails a checker.
 var ErrRejected = errors.New("evidence rejected")
 
-// Member names quire gives the parts of a bundle.
+// Member names spinecert gives the parts of a bundle.
 const (
 	memberCanonical  = "graph/canonical.txt"
 	memberLayout     = "layout.json"
@@ -46,7 +46,7 @@ type Evidence struct {
 	Refutation *RefutationInput // AtLeast, Exact
 	Planarity  *cert.PlanarCert // optional
 
-	QuireVersion string
+	ToolVersion string
 	Tool         string
 	Created      string // RFC 3339, or "" to record no time
 	IncludeCNF   bool
@@ -95,7 +95,7 @@ func Build(ctx context.Context, ev *Evidence, enc Encoder, tmpDir string) (*Mani
 	g := ev.Graph
 	m := &Manifest{
 		Format: FormatName, FormatVersion: FormatVersion,
-		QuireVersion: ev.QuireVersion, Tool: ev.Tool, Created: ev.Created,
+		ToolVersion: ev.ToolVersion, Tool: ev.Tool, Created: ev.Created,
 		Compression: Compression{Module: CompressModule, Version: CompressVersion(), Settings: Settings},
 		Claim: Claim{GraphID: g.ID(), Name: ev.Name, Vertices: g.N(), Edges: g.M(),
 			Kind: ev.Kind.String(), Bound: ev.Bound, K: ev.K},
@@ -233,7 +233,7 @@ func buildRefutation(ctx context.Context, ev *Evidence, enc Encoder, tmpDir stri
 	for _, k := range kinds {
 		r.PageKinds = append(r.PageKinds, k.String())
 	}
-	r.CNF = CNFEntry{SHA256: sum, Vars: cnf.Vars, Clauses: len(cnf.Clauses), Source: CNFQuire}
+	r.CNF = CNFEntry{SHA256: sum, Vars: cnf.Vars, Clauses: len(cnf.Clauses), Source: CNFOwn}
 	var srcs []Source
 	checkAgainst := cnf
 	if in.ForeignCNF != "" {
@@ -255,7 +255,7 @@ func buildRefutation(ctx context.Context, ev *Evidence, enc Encoder, tmpDir stri
 			checkAgainst = foreign
 		}
 	}
-	if ev.IncludeCNF && r.CNF.Source == CNFQuire {
+	if ev.IncludeCNF && r.CNF.Source == CNFOwn {
 		srcs = append(srcs, BytesSource(memberCNF, text))
 		r.CNF.Member = memberCNF
 	}
@@ -344,7 +344,7 @@ func convertProof(path, tmpDir string) (string, error) {
 		return "", fmt.Errorf("archive: %w", err)
 	}
 	defer in.Close()
-	out, err := os.CreateTemp(tmpDir, "quire-proof-*.drat")
+	out, err := os.CreateTemp(tmpDir, "spinecert-proof-*.drat")
 	if err != nil {
 		return "", fmt.Errorf("archive: %w", err)
 	}

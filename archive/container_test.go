@@ -38,7 +38,7 @@ func writeBytes(t testing.TB, ms []Source) []byte {
 
 func walkAll(b []byte) (map[string][]byte, error) {
 	got := map[string][]byte{}
-	c, err := Walk(context.Background(), bytes.NewReader(b), "test.quire.tar.zst", DefaultLimits(), func(m Member, r io.Reader) error {
+	c, err := Walk(context.Background(), bytes.NewReader(b), "test.spinecert.tar.zst", DefaultLimits(), func(m Member, r io.Reader) error {
 		d, err := io.ReadAll(r)
 		got[m.Name] = d
 		return err
@@ -192,7 +192,7 @@ func TestHostileArchives(t *testing.T) {
 		t.Run(tc.name, func(t *testing.T) {
 			dir := t.TempDir()
 			target := filepath.Join(dir, "out")
-			_, err := Extract(context.Background(), bytes.NewReader(tc.data), "hostile.quire.tar.zst", target, DefaultLimits())
+			_, err := Extract(context.Background(), bytes.NewReader(tc.data), "hostile.spinecert.tar.zst", target, DefaultLimits())
 			if err == nil {
 				t.Fatal("accepted")
 			}
@@ -202,7 +202,7 @@ func TestHostileArchives(t *testing.T) {
 			if tc.kind != nil && !errors.Is(err, tc.kind) {
 				t.Fatalf("error %v, want kind %v", err, tc.kind)
 			}
-			if !strings.Contains(err.Error(), "hostile.quire.tar.zst") {
+			if !strings.Contains(err.Error(), "hostile.spinecert.tar.zst") {
 				t.Errorf("error %q does not name the bundle", err)
 			}
 			assertOnly(t, dir, "out")
@@ -303,15 +303,15 @@ func TestWriteFileAtomicCancel(t *testing.T) {
 	dir := t.TempDir()
 	ctx, cancel := context.WithCancel(context.Background())
 	cancel()
-	err := WriteFile(ctx, filepath.Join(dir, "x.quire.tar.zst"), sampleMembers())
+	err := WriteFile(ctx, filepath.Join(dir, "x.spinecert.tar.zst"), sampleMembers())
 	if !errors.Is(err, context.Canceled) {
 		t.Fatalf("got %v", err)
 	}
 	assertOnly(t, dir)
-	if err := WriteFile(context.Background(), filepath.Join(dir, "x.quire.tar.zst"), sampleMembers()); err != nil {
+	if err := WriteFile(context.Background(), filepath.Join(dir, "x.spinecert.tar.zst"), sampleMembers()); err != nil {
 		t.Fatal(err)
 	}
-	assertOnly(t, dir, "x.quire.tar.zst")
+	assertOnly(t, dir, "x.spinecert.tar.zst")
 }
 
 // Flipping any byte of a bundle file is caught.

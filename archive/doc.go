@@ -1,9 +1,9 @@
-// Package archive makes and re-checks quire evidence bundles.
+// Package archive makes and re-checks spinecert evidence bundles.
 //
-// A bundle is one file, NAME.quire.tar.zst: a tar stream (POSIX ustar,
+// A bundle is one file, NAME.spinecert.tar.zst: a tar stream (POSIX ustar,
 // IEEE Std 1003.1-1988, as written by the standard library's archive/tar)
 // compressed as one zstd frame (RFC 8878), so `tar --zstd -xf` opens it
-// without quire. Its first member is SHA256SUMS, in the format GNU coreutils
+// without spinecert. Its first member is SHA256SUMS, in the format GNU coreutils
 // `sha256sum -c` reads (one "<64 lowercase hex>  <name>" line per member,
 // sorted by name); then every other member sorted by name. Members have mode
 // 0644, owner and group 0 with empty names and modification time Unix 0; the
@@ -18,7 +18,7 @@
 // MaxMemberSize, more than MaxTotalSize decompressed bytes, a compression
 // ratio over MaxRatio (decompression bombs), truncated input and data after
 // the end of the archive. It also re-compresses what it read and reports
-// whether the file is byte for byte what quire would write (Canonical), so a
+// whether the file is byte for byte what spinecert would write (Canonical), so a
 // changed byte that zstd would ignore is still noticed. Extract never writes
 // outside its target directory (it writes through an os.Root) and leaves
 // nothing behind when the bundle is bad.
@@ -27,7 +27,7 @@
 // the Manifest type) states the claim — graph identity (cert.Graph.ID),
 // layout kind, page kinds, and at_most K (evidence: a layout), at_least K
 // (evidence: a refutation of K-1 pages) or exact (both) — and the evidence:
-// encoder version and options, the SHA-256 of the CNF as quire writes it,
+// encoder version and options, the SHA-256 of the CNF as spinecert writes it,
 // the solver runs, each proof with its format, size, hash and checker
 // result, and every member with its size and hash. It is read strictly
 // (unknown fields, trailing data and inconsistencies are errors). No
@@ -43,6 +43,6 @@
 // (encoder drift), the report says so with both versions; the CNF is then
 // rebuilt with the recorded version if the encoder can still reproduce it
 // (dimacs.EncodeVersion), else the bundle fails unless the caller's Resolve
-// re-solves the current encoding. A proof for a CNF quire did not make
+// re-solves the current encoding. A proof for a CNF spinecert did not make
 // (foreign) is checked against that CNF but never establishes the claim.
 package archive

@@ -5,7 +5,7 @@ import (
 	"fmt"
 	"io"
 
-	"quire/cert"
+	"spinecert.dev/cert"
 )
 
 // DRATToBinary rewrites a DRAT proof in text form as binary DRAT (both

@@ -8,8 +8,8 @@ import (
 	"strings"
 	"testing"
 
-	"quire/cert"
-	"quire/dimacs"
+	"spinecert.dev/cert"
+	"spinecert.dev/dimacs"
 )
 
 // changedEncoder simulates a later encoder: a new version whose output
@@ -35,12 +35,12 @@ func TestEncoderDrift(t *testing.T) {
 	b := k5Exact(t)
 	noRot := func(o *dimacs.Options) { o.NoRotation = true }
 	t.Run("new version", func(t *testing.T) {
-		r := verifyBytes(b, VerifyOptions{Encoder: changedEncoder{"quire-enc-999", noRot}})
+		r := verifyBytes(b, VerifyOptions{Encoder: changedEncoder{"spinecert-enc-999", noRot}})
 		if r.Verified {
 			t.Fatal("verified under a changed encoder")
 		}
 		d := r.Drift
-		if d == nil || !d.VersionChanged || !d.CNFChanged || d.Resolved || d.BundleEncoder != dimacs.EncoderVersion || d.CurrentEncoder != "quire-enc-999" {
+		if d == nil || !d.VersionChanged || !d.CNFChanged || d.Resolved || d.BundleEncoder != dimacs.EncoderVersion || d.CurrentEncoder != "spinecert-enc-999" {
 			t.Fatalf("drift %+v", d)
 		}
 		if !strings.Contains(d.Summary, "encoder changed since the bundle was made") {
@@ -60,19 +60,19 @@ func TestEncoderDrift(t *testing.T) {
 		}
 	})
 	t.Run("same output", func(t *testing.T) {
-		r := verifyBytes(b, VerifyOptions{Encoder: changedEncoder{"quire-enc-999", func(*dimacs.Options) {}}})
+		r := verifyBytes(b, VerifyOptions{Encoder: changedEncoder{"spinecert-enc-999", func(*dimacs.Options) {}}})
 		if !r.Verified || r.Drift == nil || r.Drift.CNFChanged {
 			t.Fatalf("verified=%v drift %+v\n%s", r.Verified, r.Drift, failNames(r))
 		}
 	})
 	t.Run("resolve", func(t *testing.T) {
-		r := verifyBytes(b, VerifyOptions{Encoder: changedEncoder{"quire-enc-999", noRot}, Resolve: resolveWithCadical(t)})
+		r := verifyBytes(b, VerifyOptions{Encoder: changedEncoder{"spinecert-enc-999", noRot}, Resolve: resolveWithCadical(t)})
 		if !r.Verified || r.Drift == nil || !r.Drift.Resolved {
 			t.Fatalf("verified=%v drift %+v\n%s", r.Verified, r.Drift, failNames(r))
 		}
 	})
 	t.Run("resolve sat", func(t *testing.T) {
-		r := verifyBytes(b, VerifyOptions{Encoder: changedEncoder{"quire-enc-999", noRot},
+		r := verifyBytes(b, VerifyOptions{Encoder: changedEncoder{"spinecert-enc-999", noRot},
 			Resolve: func(ctx context.Context, cnf *dimacs.CNF) (*Resolution, error) {
 				return &Resolution{Answer: "sat"}, nil
 			}})
@@ -84,14 +84,14 @@ func TestEncoderDrift(t *testing.T) {
 		ev := evidence(t, complete(t, 5), "K5", cert.Stack, nil, AtLeast, 3)
 		ev.IncludeCNF = true
 		sb := bundleBytes(t, ev)
-		r := verifyBytes(sb, VerifyOptions{Encoder: changedEncoder{"quire-enc-999", noRot}})
+		r := verifyBytes(sb, VerifyOptions{Encoder: changedEncoder{"spinecert-enc-999", noRot}})
 		if r.Verified || r.Drift == nil || !r.Drift.StoredCNFChecked {
 			t.Fatalf("verified=%v drift %+v", r.Verified, r.Drift)
 		}
 	})
 }
 
-// A proof made elsewhere for a CNF that is not quire's encoding is bundled
+// A proof made elsewhere for a CNF that is not spinecert's encoding is bundled
 // as foreign; it does not establish the claim unless re-solved.
 func TestForeignCNF(t *testing.T) {
 	g := complete(t, 5)
@@ -124,14 +124,14 @@ func TestForeignCNF(t *testing.T) {
 	if !r.Verified {
 		t.Fatalf("not verified after re-solving:\n%s", failNames(r))
 	}
-	// A proof given for a CNF that equals quire's encoding is recorded as quire's.
+	// A proof given for a CNF that equals spinecert's encoding is recorded as spinecert's.
 	same := filepath.Join(dir, "same.cnf")
 	cnf.Comments = nil
 	real, _ := CurrentEncoder{}.Encode(g, opt)
 	text, _, _ = CNFText(real)
 	os.WriteFile(same, text, 0o644)
 	ev.Refutation.ForeignCNF = same
-	if m, _, err = Build(context.Background(), ev, CurrentEncoder{}, dir); err != nil || m.Refutation.CNF.Source != CNFQuire {
+	if m, _, err = Build(context.Background(), ev, CurrentEncoder{}, dir); err != nil || m.Refutation.CNF.Source != CNFOwn {
 		t.Fatalf("err %v, cnf %+v", err, m.Refutation.CNF)
 	}
 }

@@ -7,8 +7,8 @@ import (
 	"encoding/json"
 	"fmt"
 
-	"quire/cert"
-	"quire/dimacs"
+	"spinecert.dev/cert"
+	"spinecert.dev/dimacs"
 )
 
 // Encoder turns a claim into CNF. The current encoder is CurrentEncoder;
@@ -52,7 +52,7 @@ func (CurrentEncoder) Encode(g *cert.Graph, opt dimacs.Options) (*dimacs.CNF, er
 	return e.CNF(), nil
 }
 
-// CNFText returns the DIMACS text of cnf as quire writes it, and its SHA-256.
+// CNFText returns the DIMACS text of cnf as spinecert writes it, and its SHA-256.
 // This is the text whose hash a manifest records.
 func CNFText(cnf *dimacs.CNF) ([]byte, string, error) {
 	var buf bytes.Buffer

@@ -9,7 +9,7 @@ import (
 // can branch with errors.Is; every one of them means "the bundle is bad"
 // (exit 1 in the command), as opposed to an I/O error reading it (exit 2).
 var (
-	ErrNotBundle     = errors.New("not a quire bundle")
+	ErrNotBundle     = errors.New("not a spinecert bundle")
 	ErrCorrupt       = errors.New("corrupt data")
 	ErrTruncated     = errors.New("truncated")
 	ErrTrailing      = errors.New("trailing data after the end of the archive")

@@ -6,7 +6,7 @@ import (
 	"fmt"
 	"io"
 
-	"quire/archive"
+	"spinecert.dev/archive"
 )
 
 // A bundle is written from named members and read back member by member;

@@ -27,7 +27,7 @@ func Extract(ctx context.Context, r io.Reader, name, dir string, lim Limits) (*C
 	if err := os.MkdirAll(dir, 0o755); err != nil {
 		return nil, fmt.Errorf("archive: %w", err)
 	}
-	stage, err := os.MkdirTemp(dir, ".quire-extract-*")
+	stage, err := os.MkdirTemp(dir, ".spinecert-extract-*")
 	if err != nil {
 		return nil, fmt.Errorf("archive: %w", err)
 	}

@@ -8,10 +8,10 @@ import (
 	"path/filepath"
 	"testing"
 
-	"quire/cert"
-	"quire/dimacs"
-	"quire/internal/testtools"
-	"quire/verify"
+	"spinecert.dev/cert"
+	"spinecert.dev/dimacs"
+	"spinecert.dev/internal/testtools"
+	"spinecert.dev/verify"
 )
 
 // complete returns K_n on vertices 1..n.
@@ -114,7 +114,7 @@ func petersen(t testing.TB) *cert.Graph {
 func evidence(t testing.TB, g *cert.Graph, name string, kind cert.Kind, pageKinds []cert.Kind, bound string, k int) *Evidence {
 	t.Helper()
 	ev := &Evidence{Graph: g, Name: name, Input: edgeListBytes(t, g), InputFormat: cert.FormatEdgeList,
-		Kind: kind, PageKinds: pageKinds, Bound: bound, K: k, QuireVersion: "test", Tool: "archive test"}
+		Kind: kind, PageKinds: pageKinds, Bound: bound, K: k, ToolVersion: "test", Tool: "archive test"}
 	if bound == AtMost || bound == Exact {
 		ev.Layout = layoutBySAT(t, g, dimacs.Options{Kind: kind, Pages: k, PageKinds: pageKinds})
 	}
@@ -144,7 +144,7 @@ func bundleBytes(t testing.TB, ev *Evidence) []byte {
 }
 
 func verifyBytes(b []byte, opt VerifyOptions) *Report {
-	return Verify(context.Background(), bytes.NewReader(b), "test.quire.tar.zst", opt)
+	return Verify(context.Background(), bytes.NewReader(b), "test.spinecert.tar.zst", opt)
 }
 
 func readAllFile(p string) ([]byte, error) { return os.ReadFile(p) }

@@ -16,7 +16,7 @@ const ManifestName = "manifest.json"
 
 // FormatName and FormatVersion identify the manifest schema described here.
 const (
-	FormatName    = "quire-bundle"
+	FormatName    = "spinecert-bundle"
 	FormatVersion = 1
 )
 
@@ -33,10 +33,10 @@ const (
 	ResultRejected = "rejected"
 )
 
-// CNF sources: made by quire's encoder from the claim, or supplied from
-// elsewhere with a hash that does not match quire's encoding.
+// CNF sources: made by spinecert's encoder from the claim, or supplied from
+// elsewhere with a hash that does not match spinecert's encoding.
 const (
-	CNFQuire   = "quire"
+	CNFOwn   = "spinecert"
 	CNFForeign = "foreign"
 )
 
@@ -50,8 +50,8 @@ const maxManifestSize = 1 << 20
 type Manifest struct {
 	Format        string          `json:"format"`         // FormatName
 	FormatVersion int             `json:"format_version"` // FormatVersion
-	QuireVersion  string          `json:"quire_version"`  // version of quire that made the bundle
-	Tool          string          `json:"tool"`           // the command that made it, e.g. "quire bundle"
+	ToolVersion  string          `json:"tool_version"`  // version of spinecert that made the bundle
+	Tool          string          `json:"tool"`           // the command that made it, e.g. "spinecert bundle"
 	Created       string          `json:"created,omitempty"`
 	Compression   Compression     `json:"compression"`
 	Claim         Claim           `json:"claim"`
@@ -92,10 +92,10 @@ type Claim struct {
 type GraphFiles struct {
 	Input       string `json:"input"`        // the graph file as it was given
 	InputFormat string `json:"input_format"` // edgelist, dimacs, graph6, sparse6
-	Canonical   string `json:"canonical"`    // quire's edge list of the graph in canonical order
+	Canonical   string `json:"canonical"`    // spinecert's edge list of the graph in canonical order
 }
 
-// LayoutRecord names the layout member (quire's layout JSON) and what was
+// LayoutRecord names the layout member (spinecert's layout JSON) and what was
 // found when it was checked at bundling time.
 type LayoutRecord struct {
 	Member string `json:"member"`
@@ -125,7 +125,7 @@ type CNFEntry struct {
 	SHA256  string `json:"sha256"` // of the DIMACS text as written
 	Vars    int    `json:"vars"`
 	Clauses int    `json:"clauses"`
-	Source  string `json:"source"`           // CNFQuire or CNFForeign
+	Source  string `json:"source"`           // CNFOwn or CNFForeign
 	Member  string `json:"member,omitempty"` // present with --include-cnf or for foreign CNFs
 }
 
@@ -252,10 +252,10 @@ func (m *Manifest) Validate() error {
 		bad("format is %q, expected %q", m.Format, FormatName)
 	}
 	if m.FormatVersion != FormatVersion {
-		bad("format_version is %d, this quire reads version %d", m.FormatVersion, FormatVersion)
+		bad("format_version is %d, this spinecert reads version %d", m.FormatVersion, FormatVersion)
 	}
-	if m.QuireVersion == "" {
-		bad("quire_version is empty")
+	if m.ToolVersion == "" {
+		bad("tool_version is empty")
 	}
 	if m.Tool == "" {
 		bad("tool is empty")
@@ -367,13 +367,13 @@ func (m *Manifest) Validate() error {
 			bad("refutation.cnf: negative counts")
 		}
 		switch r.CNF.Source {
-		case CNFQuire:
+		case CNFOwn:
 		case CNFForeign:
 			if r.CNF.Member == "" {
 				bad("refutation.cnf: a foreign CNF must be included as a member")
 			}
 		default:
-			bad("refutation.cnf.source %q is not quire or foreign", r.CNF.Source)
+			bad("refutation.cnf.source %q is not spinecert or foreign", r.CNF.Source)
 		}
 		if r.CNF.Member != "" {
 			name("refutation.cnf.member", r.CNF.Member)

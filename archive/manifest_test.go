@@ -12,7 +12,7 @@ const zeroHash = "00000000000000000000000000000000000000000000000000000000000000
 
 func sampleManifest() *Manifest {
 	return &Manifest{
-		Format: FormatName, FormatVersion: FormatVersion, QuireVersion: "0.1.0", Tool: "quire bundle",
+		Format: FormatName, FormatVersion: FormatVersion, ToolVersion: "0.1.0", Tool: "spinecert bundle",
 		Compression: Compression{Module: CompressModule, Version: "v1.20.4", Settings: Settings},
 		Claim:       Claim{GraphID: zeroHash, Vertices: 7, Edges: 21, Kind: "stack", Bound: Exact, K: 4},
 		Graph:       GraphFiles{Input: "graph/input.txt", InputFormat: "edgelist", Canonical: "graph/canonical.txt"},
@@ -20,9 +20,9 @@ func sampleManifest() *Manifest {
 		Refutation: &Refutation{
 			Pages: 3, PageKinds: []string{"stack", "stack", "stack"},
 			Encoder: EncoderEntry{Version: "1", Options: json.RawMessage(`{ "symmetry": true }`)},
-			CNF:     CNFEntry{SHA256: zeroHash, Vars: 10, Clauses: 20, Source: CNFQuire},
+			CNF:     CNFEntry{SHA256: zeroHash, Vars: 10, Clauses: 20, Source: CNFOwn},
 			Runs:    []Run{{Backend: "cadical", Version: "1.5.3", Answer: "unsat", Seconds: 0.5}},
-			Proofs:  []Proof{{Member: "proofs/refutation.drat", Format: "drat-binary", Size: 10, SHA256: zeroHash, Checker: "quire drat", Result: ResultVerified}},
+			Proofs:  []Proof{{Member: "proofs/refutation.drat", Format: "drat-binary", Size: 10, SHA256: zeroHash, Checker: "spinecert drat", Result: ResultVerified}},
 		},
 		Members: []MemberEntry{{"graph/canonical.txt", 1, zeroHash}, {"graph/input.txt", 1, zeroHash}, {"layout.json", 1, zeroHash}, {"proofs/refutation.drat", 10, zeroHash}},
 	}
@@ -67,7 +67,7 @@ func TestManifestRejects(t *testing.T) {
 		{name: "extra", edit: func(m *Manifest) { m.Members = append(m.Members, MemberEntry{"z", 0, zeroHash}) }, want: `lists "z", which no field`},
 		{name: "unsafe", edit: func(m *Manifest) { m.Layout.Member = "../x" }, want: "layout.member"},
 		{name: "foreign no member", edit: func(m *Manifest) { m.Refutation.CNF.Source = CNFForeign }, want: "foreign CNF must be included"},
-		{name: "unknown field", raw: `{"format":"quire-bundle","extra":1}`, want: `unknown field "extra"`},
+		{name: "unknown field", raw: `{"format":"spinecert-bundle","extra":1}`, want: `unknown field "extra"`},
 		{name: "type", raw: "{\n\"format_version\": \"1\"}", want: "2:22: field \"format_version\": expected int"},
 		{name: "syntax", raw: "{\n  \"format\": ,}", want: "2:13: invalid character ','"},
 		{name: "trailing", raw: `{} {}`, want: "data after the manifest object"},
@@ -98,7 +98,7 @@ func FuzzReadManifest(f *testing.F) {
 	b, _ := sampleManifest().Marshal()
 	f.Add(b)
 	f.Add([]byte(`{}`))
-	f.Add([]byte(`{"format":"quire-bundle","format_version":1}`))
+	f.Add([]byte(`{"format":"spinecert-bundle","format_version":1}`))
 	f.Fuzz(func(t *testing.T, data []byte) {
 		m, err := ReadManifest(data)
 		if err != nil {

@@ -8,19 +8,19 @@ import (
 	"io"
 	"os"
 
-	"quire/dimacs"
-	"quire/verify"
+	"spinecert.dev/dimacs"
+	"spinecert.dev/verify"
 )
 
-// Checker names recorded in manifests for quire's own checkers.
+// Checker names recorded in manifests for spinecert's own checkers.
 const (
-	CheckerDRAT = "quire drat + lrat re-check"
-	CheckerLRAT = "quire lrat"
+	CheckerDRAT = "spinecert drat + lrat re-check"
+	CheckerLRAT = "spinecert lrat"
 )
 
 // ProofOutcome is the result of checking one proof.
 type ProofOutcome struct {
-	DRAT   bool   // quire's DRAT checker accepted the proof (or the format is LRAT)
+	DRAT   bool   // spinecert's DRAT checker accepted the proof (or the format is LRAT)
 	LRAT   bool   // the LRAT it produced (or the LRAT proof itself) passed the LRAT checker
 	Format string // the format checked
 	Lemmas uint64
@@ -43,7 +43,7 @@ func CheckProof(ctx context.Context, cnf *dimacs.CNF, proof io.Reader, name, for
 		res, err := verify.CheckLRAT(ctx, cnf, proof, name)
 		return lratOutcome(out, res, err, true)
 	}
-	lf, err := os.CreateTemp(tmpDir, "quire-lrat-*")
+	lf, err := os.CreateTemp(tmpDir, "spinecert-lrat-*")
 	if err != nil {
 		out.Err = fmt.Errorf("archive: %w", err)
 		return out
@@ -57,14 +57,14 @@ func CheckProof(ctx context.Context, cnf *dimacs.CNF, proof io.Reader, name, for
 	}
 	switch {
 	case err != nil && errors.Is(err, verify.ErrProofRejected):
-		out.Detail = "quire's DRAT checker rejected the proof: " + err.Error()
+		out.Detail = "spinecert's DRAT checker rejected the proof: " + err.Error()
 		return out
 	case err != nil:
 		out.Err = err
 		out.Detail = "the proof could not be read: " + err.Error()
 		return out
 	case res == nil || !res.Accepted:
-		out.Detail = "quire's DRAT checker did not accept the proof"
+		out.Detail = "spinecert's DRAT checker did not accept the proof"
 		return out
 	}
 	out.DRAT = true

@@ -5,7 +5,7 @@ import (
 	"path/filepath"
 	"testing"
 
-	"quire/cert"
+	"spinecert.dev/cert"
 )
 
 // The bundles in testdata/bundles hold evidence for published values and
@@ -20,17 +20,17 @@ import (
 //     Rosenberg, "Laying out graphs using queues", SIAM J. Comput. 21,
 //     1992), K3,3 is not (derived, as in REFERENCES).
 //
-// The first three were made with encoder quire-enc-1 and so also test that
+// The first three were made with encoder spinecert-enc-1 and so also test that
 // old evidence keeps verifying after the encoder changed.
 func TestPublishedBundles(t *testing.T) {
 	want := []struct {
 		bundle, graph, kind string
 		k                   int
 	}{
-		{"k7.quire.tar.zst", "k7.txt", "stack", 4},
-		{"petersen.quire.tar.zst", "petersen.txt", "stack", 3},
-		{"goldner-harary.quire.tar.zst", "goldner-harary.txt", "stack", 3},
-		{"k33-queue.quire.tar.zst", "k33.txt", "queue", 2},
+		{"k7.spinecert.tar.zst", "k7.txt", "stack", 4},
+		{"petersen.spinecert.tar.zst", "petersen.txt", "stack", 3},
+		{"goldner-harary.spinecert.tar.zst", "goldner-harary.txt", "stack", 3},
+		{"k33-queue.spinecert.tar.zst", "k33.txt", "queue", 2},
 	}
 	dir := filepath.Join("..", "testdata", "bundles")
 	for _, w := range want {

@@ -183,7 +183,7 @@ func walk(ctx context.Context, r io.Reader, lim Limits, fn func(m Member, r io.R
 		return nil, src.err
 	}
 	if err != nil || !bytes.Equal(head, []byte{0x28, 0xb5, 0x2f, 0xfd}) {
-		return nil, &BundleError{Kind: ErrNotBundle, Detail: "not zstd-compressed (expected a .quire.tar.zst file)"}
+		return nil, &BundleError{Kind: ErrNotBundle, Detail: "not zstd-compressed (expected a .spinecert.tar.zst file)"}
 	}
 	zr, err := zstd.NewReader(br, zstd.WithDecoderConcurrency(1), zstd.WithDecoderMaxWindow(maxWindow), zstd.WithDecoderLowmem(true))
 	if err != nil {

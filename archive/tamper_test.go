@@ -12,8 +12,8 @@ import (
 	"sync"
 	"testing"
 
-	"quire/cert"
-	"quire/dimacs"
+	"spinecert.dev/cert"
+	"spinecert.dev/dimacs"
 )
 
 var (

@@ -12,8 +12,8 @@ import (
 	"strings"
 	"time"
 
-	"quire/cert"
-	"quire/dimacs"
+	"spinecert.dev/cert"
+	"spinecert.dev/dimacs"
 )
 
 // maxHeld bounds the bytes of members other than proofs that Verify holds
@@ -109,7 +109,7 @@ func VerifyFile(ctx context.Context, path string, opt VerifyOptions) *Report {
 // of every member (Walk), the manifest schema, the graph against the claimed
 // identity, the layout with cert.Check, and each proof against the CNF the
 // current encoder makes from the graph and the recorded options, with
-// quire's DRAT checker and the LRAT re-check. When the encoder's output
+// spinecert's DRAT checker and the LRAT re-check. When the encoder's output
 // for the claim changed (encoder drift) it reports what changed and what
 // was checked instead. The bundle is verified only if every required check
 // passed.
@@ -207,7 +207,7 @@ func (v *verifier) prepare() {
 	}
 	v.m, v.rep.Manifest = m, m
 	v.rep.Claim = ClaimText(m)
-	v.rep.add("manifest", StatusPass, "schema version %d, made by %s %s", m.FormatVersion, m.Tool, m.QuireVersion)
+	v.rep.add("manifest", StatusPass, "schema version %d, made by %s %s", m.FormatVersion, m.Tool, m.ToolVersion)
 	if !v.checkGraph() {
 		return
 	}
@@ -389,13 +389,13 @@ func (v *verifier) prepareRefutation() {
 			_, oldSum, err := CNFText(old)
 			if err == nil && oldSum == r.CNF.SHA256 {
 				v.target = old
-				d.Summary = fmt.Sprintf("encoder changed since the bundle was made (bundle %s, this quire %s; the claim's CNF is now SHA-256 %s); %s is still available and rebuilds the recorded CNF (SHA-256 %s), so the proof is checked against it", r.Encoder.Version, enc.Version(), curSum, r.Encoder.Version, oldSum)
+				d.Summary = fmt.Sprintf("encoder changed since the bundle was made (bundle %s, this spinecert %s; the claim's CNF is now SHA-256 %s); %s is still available and rebuilds the recorded CNF (SHA-256 %s), so the proof is checked against it", r.Encoder.Version, enc.Version(), curSum, r.Encoder.Version, oldSum)
 				v.rep.add("cnf", StatusPass, "re-encoded the claim with %s as recorded: SHA-256 %s", r.Encoder.Version, oldSum)
 				v.rep.add("encoder drift", StatusNote, "%s", d.Summary)
 				return
 			}
 			if err == nil {
-				d.Summary = fmt.Sprintf("encoder changed since the bundle was made (bundle %s, this quire %s), and %s as this quire reproduces it gives SHA-256 %s, not the recorded %s: the bundle was altered or the old encoder is not reproduced faithfully", r.Encoder.Version, enc.Version(), r.Encoder.Version, oldSum, r.CNF.SHA256)
+				d.Summary = fmt.Sprintf("encoder changed since the bundle was made (bundle %s, this spinecert %s), and %s as this spinecert reproduces it gives SHA-256 %s, not the recorded %s: the bundle was altered or the old encoder is not reproduced faithfully", r.Encoder.Version, enc.Version(), r.Encoder.Version, oldSum, r.CNF.SHA256)
 				v.rep.add("encoder drift", StatusFail, "%s", d.Summary)
 				return
 			}
@@ -404,7 +404,7 @@ func (v *verifier) prepareRefutation() {
 	if sameVersion {
 		d.Summary = fmt.Sprintf("the CNF recorded (SHA-256 %s) is not what encoder %s gives for this claim (SHA-256 %s): the encoder's output changed without a version change, or the bundle was altered", r.CNF.SHA256, enc.Version(), curSum)
 	} else {
-		d.Summary = fmt.Sprintf("encoder changed since the bundle was made: bundle %s, this quire %s; the CNF for the claim is now SHA-256 %s, the bundle's %s; encoder %s is not available in this quire", r.Encoder.Version, enc.Version(), curSum, r.CNF.SHA256, r.Encoder.Version)
+		d.Summary = fmt.Sprintf("encoder changed since the bundle was made: bundle %s, this spinecert %s; the CNF for the claim is now SHA-256 %s, the bundle's %s; encoder %s is not available in this spinecert", r.Encoder.Version, enc.Version(), curSum, r.CNF.SHA256, r.Encoder.Version)
 	}
 	v.rep.add("encoder drift", StatusFail, "%s", d.Summary)
 }
@@ -445,11 +445,11 @@ func (v *verifier) finish(c *Contents, walkErr error) {
 	v.checkMembers(c)
 	switch {
 	case m.Compression.Version != CompressVersion() || m.Compression.Settings != Settings || m.Compression.Module != CompressModule:
-		v.rep.add("compression", StatusNote, "written with %s %s, this quire has %s: the compressed bytes were not compared with a re-compression", m.Compression.Module, m.Compression.Version, CompressVersion())
+		v.rep.add("compression", StatusNote, "written with %s %s, this spinecert has %s: the compressed bytes were not compared with a re-compression", m.Compression.Module, m.Compression.Version, CompressVersion())
 	case !c.Canonical:
 		v.rep.add("compression", StatusFail, "the compressed bytes differ from what %s %s makes of the contents, from byte %d on: the file was altered", CompressModule, CompressVersion(), c.DiffersAt)
 	default:
-		v.rep.add("compression", StatusPass, "the file is byte for byte what quire writes for these contents")
+		v.rep.add("compression", StatusPass, "the file is byte for byte what spinecert writes for these contents")
 	}
 	refuted := v.finishProofs()
 	need := 0
@@ -525,7 +525,7 @@ func (v *verifier) finishProofs() bool {
 			if !out.OK() {
 				st = StatusFail
 			}
-			v.rep.add("proof "+p.Member, st, "checked against the CNF stored in the bundle only (which this quire cannot derive from the claim): %s", describe(out))
+			v.rep.add("proof "+p.Member, st, "checked against the CNF stored in the bundle only (which this spinecert cannot derive from the claim): %s", describe(out))
 		case out.OK():
 			established = true
 			v.rep.add("proof "+p.Member, StatusPass, "%s: %s", p.Format, describe(out))
@@ -583,9 +583,9 @@ func (v *verifier) finishProofs() bool {
 func describe(o ProofOutcome) string {
 	if o.OK() {
 		if o.Format == "lrat" {
-			return "quire's LRAT checker accepted it"
+			return "spinecert's LRAT checker accepted it"
 		}
-		return fmt.Sprintf("quire's DRAT checker accepted it (%d lemmas) and the LRAT it wrote passed the LRAT checker", o.Lemmas)
+		return fmt.Sprintf("spinecert's DRAT checker accepted it (%d lemmas) and the LRAT it wrote passed the LRAT checker", o.Lemmas)
 	}
 	return o.Detail
 }

@@ -5,7 +5,7 @@ import (
 	"strings"
 	"testing"
 
-	"quire/cert"
+	"spinecert.dev/cert"
 )
 
 func failNames(r *Report) string {

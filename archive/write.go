@@ -21,7 +21,7 @@ import (
 const SumsName = "SHA256SUMS"
 
 // Suffix is the file name suffix of a bundle.
-const Suffix = ".quire.tar.zst"
+const Suffix = ".spinecert.tar.zst"
 
 // memberMode, memberTime: every member is written with mode 0644, owner and
 // group 0 with empty names, and modification time 1970-01-01T00:00:00Z

@@ -1,4 +1,4 @@
-// Package cert holds quire's graphs and layouts and checks layouts directly.
+// Package cert holds spinecert's graphs and layouts and checks layouts directly.
 //
 // A Graph is simple and undirected with labelled vertices, numbered in
 // canonical label order so that its identity (Graph.ID) depends only on the
@@ -13,7 +13,7 @@
 // scans every page in O(m log m) time, reporting each problem with a witness.
 //
 // Planarity is decided by the left-right planarity test (U. Brandes, "The
-// Left-Right Planarity Test", 2009), written for quire and linear in the size
+// Left-Right Planarity Test", 2009), written for spinecert and linear in the size
 // of the graph. Its answers come with certificates — a rotation system for a
 // planar graph, a subdivision of K5 or K3,3 otherwise — and each certificate
 // is checked by planar_cert_check.go, which uses only the Graph API and

@@ -128,7 +128,7 @@ func (g *Graph) Degree(v int32) int {
 }
 
 // identityTag versions the canonical serialisation hashed by ID.
-const identityTag = "quire-graph-identity-v1\x00"
+const identityTag = "spinecert-graph-identity-v1\x00"
 
 // ID returns the canonical identity of the graph: the lowercase hex SHA-256 of
 // identityTag, the vertex count, every label (length-prefixed, in canonical

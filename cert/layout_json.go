@@ -42,7 +42,7 @@ func ReadLayoutFile(path string) (*RawLayout, error) {
 	return readLayout(f, path, hint)
 }
 
-// ReadLayoutJSON reads a layout in quire's JSON layout format.
+// ReadLayoutJSON reads a layout in spinecert's JSON layout format.
 func ReadLayoutJSON(r io.Reader, name string) (*RawLayout, error) {
 	return readLayout(r, name, 0)
 }
@@ -550,7 +550,7 @@ func (s *jscan) fastEdge() (RawEdge, bool) {
 	return RawEdge{U: s.b.vertexNumber(nums[0]), V: s.b.vertexNumber(nums[1]), Page: int32(nums[2])}, true
 }
 
-// WriteLayoutJSON writes l (a layout of g) in quire's JSON layout format:
+// WriteLayoutJSON writes l (a layout of g) in spinecert's JSON layout format:
 // the spine on one line, then one edge per line in g's edge order.
 // Decimal labels are written as integers, all others as strings.
 func WriteLayoutJSON(w io.Writer, g *Graph, l *Layout) error {

@@ -3,7 +3,7 @@ package cert_test
 import (
 	"fmt"
 
-	"quire/cert"
+	"spinecert.dev/cert"
 )
 
 // Planarity decides planarity with a certificate that CheckPlanarCert checks

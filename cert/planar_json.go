@@ -12,16 +12,16 @@ import (
 )
 
 // PlanarCertFormat is the format name in planarity certificate files.
-const PlanarCertFormat = "quire-planarity"
+const PlanarCertFormat = "spinecert-planarity"
 
 // PlanarCertVersion is the version of the planarity certificate format.
 const PlanarCertVersion = 1
 
-// WritePlanarCert writes c for g as JSON (format quire-planarity, version 1):
+// WritePlanarCert writes c for g as JSON (format spinecert-planarity, version 1):
 //
-//	{"format":"quire-planarity","version":1,"graph":ID,"vertices":N,"edges":M,
+//	{"format":"spinecert-planarity","version":1,"graph":ID,"vertices":N,"edges":M,
 //	 "planar":true,"rotation":[["a","b","c"],...]}
-//	{"format":"quire-planarity","version":1,"graph":ID,"vertices":N,"edges":M,
+//	{"format":"spinecert-planarity","version":1,"graph":ID,"vertices":N,"edges":M,
 //	 "planar":false,"kuratowski":{"kind":"K3,3","branch":[...],"paths":[[...],...]}}
 //
 // Each rotation entry is a vertex followed by its neighbours in cyclic order;

@@ -10,7 +10,7 @@ import (
 	"strings"
 	"testing"
 
-	"quire/internal/testtools"
+	"spinecert.dev/internal/testtools"
 )
 
 // plDecodeGraph6 reads one graph6 line of nauty's output with the package's
@@ -85,13 +85,13 @@ func plCheckAgainstPlanarg(t *testing.T, input []byte) int {
 // vertices up to isomorphism, as listed by nauty-geng. Expected values:
 // OEIS A005470 (number of planar graphs with n nodes) and, with -c, OEIS
 // A003094 (connected planar graphs with n nodes), read in OEIS.
-// Setting QUIRE_PLANAR_N9=1 adds n = 9 (79853 and 71885).
+// Setting SPINECERT_PLANAR_N9=1 adds n = 9 (79853 and 71885).
 func TestPlanarCountsOEIS(t *testing.T) {
 	geng := testtools.Require(t, "nauty-geng", "nauty")
 	all := []int{1, 2, 4, 11, 33, 142, 822, 6966, 79853}
 	connected := []int{1, 1, 2, 6, 20, 99, 646, 5974, 71885}
 	maxN := 8
-	if os.Getenv("QUIRE_PLANAR_N9") == "1" {
+	if os.Getenv("SPINECERT_PLANAR_N9") == "1" {
 		maxN = 9
 	}
 	if testing.Short() {

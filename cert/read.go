@@ -300,7 +300,7 @@ func (st *edgeListReader) chunk(d []byte, line int) (int, error) {
 				}
 				if ok && (q == len(d) || d[q] == '\n') {
 					if u == v {
-						return line, &ParseError{File: st.name, Line: line, Col: vstart - p + 1, Msg: fmt.Sprintf("self-loop at vertex %q (quire graphs are simple)", strconv.Itoa(u))}
+						return line, &ParseError{File: st.name, Line: line, Col: vstart - p + 1, Msg: fmt.Sprintf("self-loop at vertex %q (spinecert graphs are simple)", strconv.Itoa(u))}
 					}
 					st.addNum(u, v)
 					p = q + 1
@@ -348,7 +348,7 @@ func (st *edgeListReader) general(raw []byte, line int) error {
 		return &ParseError{File: st.name, Line: line, Col: col[2], Msg: "expected one or two vertex labels, found more"}
 	}
 	if nt == 2 && bytes.Equal(tok[0], tok[1]) {
-		return &ParseError{File: st.name, Line: line, Col: col[1], Msg: fmt.Sprintf("self-loop at vertex %q (quire graphs are simple)", tok[0])}
+		return &ParseError{File: st.name, Line: line, Col: col[1], Msg: fmt.Sprintf("self-loop at vertex %q (spinecert graphs are simple)", tok[0])}
 	}
 	var num [2]int
 	if st.b == nil {

@@ -11,7 +11,7 @@ import (
 // Graph Format" (DIMACS, last revision May 08, 1993): every line starts with
 // a one-character designator; 'c' lines are comments, one problem line
 // "p edge NODES EDGES" comes before any edge, and each "e W V" line is an
-// edge with 1 <= W, V <= NODES. quire also accepts "p col NODES EDGES" as
+// edge with 1 <= W, V <= NODES. spinecert also accepts "p col NODES EDGES" as
 // many published instances use it, ignores blank lines and vertex value
 // lines "n ID VALUE" (with a warning), and rejects every other designator.
 //
@@ -121,7 +121,7 @@ func readDIMACSGraph(br *bufio.Reader, name string, res *ReadResult) (*Graph, er
 				return nil, perr(line, cols[2], "expected the number of vertices (a non-negative integer), found %q", fields[2])
 			}
 			if n > uint64(maxVertices) {
-				return nil, perr(line, cols[2], "problem line declares %d vertices; quire reads at most %d", n, maxVertices)
+				return nil, perr(line, cols[2], "problem line declares %d vertices; spinecert reads at most %d", n, maxVertices)
 			}
 			if m, ok = dimacsUint(fields[3]); !ok {
 				return nil, perr(line, cols[3], "expected the number of edges (a non-negative integer), found %q", fields[3])
@@ -144,7 +144,7 @@ func readDIMACSGraph(br *bufio.Reader, name string, res *ReadResult) (*Graph, er
 				uv[k] = x - 1
 			}
 			if uv[0] == uv[1] {
-				return nil, perr(line, cols[2], "self-loop at vertex %d (quire graphs are simple)", uv[0]+1)
+				return nil, perr(line, cols[2], "self-loop at vertex %d (spinecert graphs are simple)", uv[0]+1)
 			}
 			if elines++; elines > m {
 				return nil, perr(line, cols[0], "more edge lines than the %d the problem line (line %d) declares", m, pline)

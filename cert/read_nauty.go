@@ -10,7 +10,7 @@ import (
 
 // graph6 and sparse6 as described by B. D. McKay, "Description of graph6,
 // sparse6 and digraph6 encodings" (formats.txt, distributed with nauty).
-// Vertices are numbered from 0 there; quire labels them "0".."n-1".
+// Vertices are numbered from 0 there; spinecert labels them "0".."n-1".
 
 const (
 	graph6Header  = ">>graph6<<"
@@ -106,7 +106,7 @@ func parseNautyLine(l []byte) (*Graph, string, *ParseError) {
 	case bytes.HasPrefix(l, []byte(sparse6Header)):
 		l, col, want = l[len(sparse6Header):], col+len(sparse6Header), 's'
 	case bytes.HasPrefix(l, []byte(">>digraph6<<")):
-		return nil, "", &ParseError{Col: 1, Msg: "digraph6 is not supported: quire graphs are undirected"}
+		return nil, "", &ParseError{Col: 1, Msg: "digraph6 is not supported: spinecert graphs are undirected"}
 	}
 	if len(l) == 0 {
 		if want != 0 {
@@ -124,7 +124,7 @@ func parseNautyLine(l []byte) (*Graph, string, *ParseError) {
 	case ';':
 		return nil, "", &ParseError{Col: col, Msg: "incremental sparse6 (a line starting with ';') is not supported: write plain sparse6 (':') instead"}
 	case '&':
-		return nil, "", &ParseError{Col: col, Msg: "digraph6 ('&') is not supported: quire graphs are undirected"}
+		return nil, "", &ParseError{Col: col, Msg: "digraph6 ('&') is not supported: spinecert graphs are undirected"}
 	}
 	if want == 's' {
 		return nil, "", &ParseError{Col: col, Msg: "expected a sparse6 graph starting with ':' after a >>sparse6<< header"}
@@ -178,7 +178,7 @@ func badByte(c byte, col int) *ParseError {
 // checkVertices rejects vertex counts too large to hold.
 func checkVertices(n uint64, col int) *ParseError {
 	if n > uint64(maxVertices) {
-		return &ParseError{Col: col, Msg: fmt.Sprintf("graph has %d vertices; quire reads at most %d", n, maxVertices)}
+		return &ParseError{Col: col, Msg: fmt.Sprintf("graph has %d vertices; spinecert reads at most %d", n, maxVertices)}
 	}
 	return nil
 }
@@ -329,7 +329,7 @@ func parseSparse6(b []byte, col int) (*Graph, string, *ParseError) {
 			continue // padding
 		}
 		if x == v {
-			return nil, "", &ParseError{Col: col + w + int(start/6), Msg: fmt.Sprintf("self-loop at vertex %d (quire graphs are simple)", v)}
+			return nil, "", &ParseError{Col: col + w + int(start/6), Msg: fmt.Sprintf("self-loop at vertex %d (spinecert graphs are simple)", v)}
 		}
 		pairs = append(pairs, x<<32|v)
 	}

@@ -13,7 +13,7 @@ import (
 	"strings"
 	"testing"
 
-	"quire/internal/testtools"
+	"spinecert.dev/internal/testtools"
 )
 
 // ioRead reads src with the given format and fails the test on error.
@@ -505,14 +505,14 @@ func TestBadInputs(t *testing.T) {
 		{"dimacs_short_edge.dimacs", FormatDIMACS, 2, "expected an edge line 'e W V' with 3 fields, found 2"},
 		{"dimacs_unknown_line.dimacs", FormatDIMACS, 3, "unexpected line type \"x\""},
 		{"dimacs_no_p.dimacs", FormatDIMACS, 0, "no problem line"},
-		{"dimacs_too_many_vertices.dimacs", FormatDIMACS, 1, "quire reads at most"},
+		{"dimacs_too_many_vertices.dimacs", FormatDIMACS, 1, "spinecert reads at most"},
 		{"graph6_truncated.g6", FormatGraph6, 2, "truncated graph6: n = 5 needs 2 data bytes after N(n), found 1"},
 		{"graph6_too_long.g6", FormatGraph6, 1, "graph6 too long"},
 		{"graph6_bad_char.g6", FormatGraph6, 1, "unexpected byte ' '"},
 		{"graph6_padding.g6", FormatGraph6, 1, "padding bits must be zero"},
 		{"graph6_empty_line.g6", FormatGraph6, 2, "empty line"},
 		{"graph6_truncated_n.g6", FormatGraph6, 1, "truncated vertex count"},
-		{"graph6_huge_n.g6", FormatGraph6, 1, "quire reads at most"},
+		{"graph6_huge_n.g6", FormatGraph6, 1, "spinecert reads at most"},
 		{"graph6_then_sparse6.g6", FormatGraph6, 2, "sparse6 graph (':') after a >>graph6<< header"},
 		{"sparse6_self_loop.s6", FormatSparse6, 1, "self-loop at vertex 0"},
 		{"sparse6_incremental.s6", FormatSparse6, 2, "incremental sparse6"},

@@ -13,7 +13,7 @@ import (
 // expressed in the requested format.
 var ErrUnwritableLabels = errors.New("labels do not fit the format")
 
-// WriteEdgeList writes g in quire's canonical edge-list form: first every
+// WriteEdgeList writes g in spinecert's canonical edge-list form: first every
 // isolated vertex on a line of its own, in vertex order, then every edge as
 // "u v" in the order of g.Edges(). Reading the output back gives a graph
 // with the same ID. A label that is empty or holds whitespace, '#' or '%'

@@ -3,7 +3,7 @@ package dimacs
 import (
 	"fmt"
 
-	"quire/cert"
+	"spinecert.dev/cert"
 )
 
 // baseMap records the variable numbering of the baseline formulation.

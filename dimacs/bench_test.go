@@ -9,8 +9,8 @@ import (
 	"testing"
 	"time"
 
-	"quire/cert"
-	"quire/internal/testtools"
+	"spinecert.dev/cert"
+	"spinecert.dev/internal/testtools"
 )
 
 type benchCase struct {
@@ -78,11 +78,11 @@ func BenchmarkEncodeSize(b *testing.B) {
 }
 
 // BenchmarkSolve runs Debian's cadical on the table graphs (limit set by
-// QUIRE_BENCH_SOLVE_LIMIT seconds, default 300) and reports its time.
+// SPINECERT_BENCH_SOLVE_LIMIT seconds, default 300) and reports its time.
 func BenchmarkSolve(b *testing.B) {
 	bin := testtools.Require(b, "cadical", "cadical")
 	limit := "300"
-	if s := os.Getenv("QUIRE_BENCH_SOLVE_LIMIT"); s != "" {
+	if s := os.Getenv("SPINECERT_BENCH_SOLVE_LIMIT"); s != "" {
 		limit = s
 	}
 	for _, c := range benchGraphs() {

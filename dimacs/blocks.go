@@ -3,7 +3,7 @@ package dimacs
 import (
 	"slices"
 
-	"quire/cert"
+	"spinecert.dev/cert"
 )
 
 // blockVertices returns the sorted vertices touched by the edges.

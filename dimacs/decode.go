@@ -5,7 +5,7 @@ import (
 	"fmt"
 	"slices"
 
-	"quire/cert"
+	"spinecert.dev/cert"
 )
 
 // ErrInvalidModel is returned (wrapped) by Decode when the model does not

@@ -94,7 +94,7 @@
 //     with rotation 1 < 2: reverse, then rotate vertex 0 back to the front,
 //     which reverses the order of the others). With twins on, the pair is
 //     chosen differently (see below).
-//   - twins (since quire-enc-2): u and v are twins when N(u)∖{v} =
+//   - twins (since spinecert-enc-2): u and v are twins when N(u)∖{v} =
 //     N(v)∖{u} in the part's graph (false twins: same open neighbourhood,
 //     not adjacent; true twins: same closed neighbourhood, adjacent). The
 //     exchange (u v) is then an automorphism, and an automorphism σ maps a
@@ -138,7 +138,7 @@
 // Every fixed literal follows from "0 first", "classes sorted" and "rx
 // before ry" by transitivity, so the result satisfies them all. (With
 // twins off, rx, ry are the two smallest vertices other than 0, as before
-// quire-enc-2; every vertex is then its own class, so this is the same
+// spinecert-enc-2; every vertex is then its own class, so this is the same
 // argument.) Without rotation (queues, mixed layouts, NoRotation) skip
 // step 1, take effective classes to be the classes and rx < ry the two
 // smallest self-mirrored vertices, and let ρ reverse the whole spine. The
@@ -186,7 +186,7 @@
 //
 // EncoderVersion is written in every CNF header. EncodeVersion reproduces
 // the output of the earlier versions listed by EncoderVersions, so that a
-// CNF recorded by an older quire (in an evidence bundle, say) can still be
-// re-derived from its claim: quire-enc-1 is the current encoder with
+// CNF recorded by an older spinecert (in an evidence bundle, say) can still be
+// re-derived from its claim: spinecert-enc-1 is the current encoder with
 // NoTwins set and its own name in the header.
 package dimacs

@@ -5,7 +5,7 @@ import (
 	"io"
 	"strings"
 
-	"quire/cert"
+	"spinecert.dev/cert"
 )
 
 // Encoding is the CNF for one layout claim about one graph, with what is
@@ -52,7 +52,7 @@ func Encode(g *cert.Graph, opt Options) (*Encoding, error) {
 
 // EncodeVersion is Encode as encoder version wrote it: EncoderVersion, or an
 // earlier one listed by EncoderVersions, so that a CNF recorded with an older
-// quire can be reproduced byte for byte. quire-enc-1 had no twin symmetry
+// spinecert can be reproduced byte for byte. spinecert-enc-1 had no twin symmetry
 // breaking: it is Encode with NoTwins set (the returned Options say so) and
 // its own version in the header.
 func EncodeVersion(g *cert.Graph, opt Options, version string) (*Encoding, error) {
@@ -109,12 +109,12 @@ func (e *Encoding) Comments() []string {
 		claim += " of kinds " + strings.Join(names, ",")
 	}
 	return []string{
-		"quire layout claim as CNF: satisfiable if and only if the claim holds",
+		"spinecert layout claim as CNF: satisfiable if and only if the claim holds",
 		"encoder " + e.version,
 		fmt.Sprintf("graph %s n=%d m=%d", e.g.ID(), e.g.N(), e.g.M()),
 		"claim " + claim,
 		"options " + desc,
-		"variables numbered as documented in package quire/dimacs (Encoding)",
+		"variables numbered as documented in package spinecert/dimacs (Encoding)",
 	}
 }
 

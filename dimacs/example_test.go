@@ -4,8 +4,8 @@ import (
 	"fmt"
 	"os"
 
-	"quire/cert"
-	"quire/dimacs"
+	"spinecert.dev/cert"
+	"spinecert.dev/dimacs"
 )
 
 // Encode the claim "K4 has a 2-page stack layout" and print its size, with

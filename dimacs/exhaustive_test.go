@@ -5,7 +5,7 @@ import (
 	"testing"
 	"time"
 
-	"quire/cert"
+	"spinecert.dev/cert"
 )
 
 // checkLayout is an independent check of a layout by the definitions: every

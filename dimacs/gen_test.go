@@ -3,7 +3,7 @@ package dimacs
 import (
 	"math/rand/v2"
 
-	"quire/cert"
+	"spinecert.dev/cert"
 )
 
 // triangulation is a maximal planar graph with its faces, each oriented

@@ -10,8 +10,8 @@ import (
 	"strings"
 	"testing"
 
-	"quire/cert"
-	"quire/internal/testtools"
+	"spinecert.dev/cert"
+	"spinecert.dev/internal/testtools"
 )
 
 // completeGraph returns K_n.

@@ -7,7 +7,7 @@ import (
 	"strconv"
 	"strings"
 
-	"quire/cert"
+	"spinecert.dev/cert"
 )
 
 // Solver answers as ReadModel reports them.

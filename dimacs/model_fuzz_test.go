@@ -8,7 +8,7 @@ import (
 	"strings"
 	"testing"
 
-	"quire/cert"
+	"spinecert.dev/cert"
 )
 
 // FuzzReadModel checks that reading solver answers never panics, that every

@@ -5,18 +5,18 @@ import (
 	"fmt"
 	"strings"
 
-	"quire/cert"
+	"spinecert.dev/cert"
 )
 
 // EncoderVersion names the encoder's output. It changes whenever the CNF
 // written for some graph and options changes, so a CNF file (whose header
 // records it) can always be reproduced or rejected as foreign.
-// quire-enc-2 added twin symmetry breaking (Options.NoTwins); without it
-// the clauses are those of quire-enc-1, which EncodeVersion still writes.
-const EncoderVersion = "quire-enc-2"
+// spinecert-enc-2 added twin symmetry breaking (Options.NoTwins); without it
+// the clauses are those of spinecert-enc-1, which EncodeVersion still writes.
+const EncoderVersion = "spinecert-enc-2"
 
 // legacyVersion is the encoder before twin symmetry breaking.
-const legacyVersion = "quire-enc-1"
+const legacyVersion = "spinecert-enc-1"
 
 // EncoderVersions returns the encoder versions whose output Encode and
 // EncodeVersion reproduce, oldest first; the last is EncoderVersion.
@@ -50,7 +50,7 @@ type Options struct {
 	NoIsolated     bool // keep isolated vertices in the encoding
 	NoBetweenness  bool // expand conflicts over order variables instead of betweenness variables
 	NoDirect       bool // always use same-page variables, even where direct clauses are fewer
-	NoTwins        bool // do not put twin vertices in increasing order on the spine (since quire-enc-2)
+	NoTwins        bool // do not put twin vertices in increasing order on the spine (since spinecert-enc-2)
 }
 
 // normalize checks the options and returns the page kinds.

@@ -3,7 +3,7 @@ package dimacs
 import (
 	"fmt"
 
-	"quire/cert"
+	"spinecert.dev/cert"
 )
 
 // part is one separately encoded piece of the graph: a block, or the whole

@@ -7,7 +7,7 @@ import (
 	"strings"
 	"testing"
 
-	"quire/cert"
+	"spinecert.dev/cert"
 )
 
 // smallestK returns the least K for which cadical finds the CNF satisfiable,

@@ -9,7 +9,7 @@ import (
 	"github.com/klauspost/compress/gzip"
 	"github.com/klauspost/compress/zstd"
 
-	"quire/cert"
+	"spinecert.dev/cert"
 )
 
 // Visitor receives a CNF as it is parsed. Header is called exactly once,

@@ -9,7 +9,7 @@ import (
 	"github.com/klauspost/compress/gzip"
 	"github.com/klauspost/compress/zstd"
 
-	"quire/cert"
+	"spinecert.dev/cert"
 )
 
 // The DIMACS CNF format follows the SAT competition rules ("p cnf VARS

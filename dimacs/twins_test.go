@@ -9,7 +9,7 @@ import (
 	"strings"
 	"testing"
 
-	"quire/cert"
+	"spinecert.dev/cert"
 )
 
 // partGraph is the graph of one encoded part on its local vertices.
@@ -278,7 +278,7 @@ func TestTwinsFixKn(t *testing.T) {
 }
 
 // TestEncodeVersionLegacy: EncodeVersion reproduces byte for byte the CNFs
-// quire-enc-1 wrote (files in testdata/enc1 written by that version), and
+// spinecert-enc-1 wrote (files in testdata/enc1 written by that version), and
 // the current version differs from it only where twins exist.
 func TestEncodeVersionLegacy(t *testing.T) {
 	cases := []struct {
@@ -301,16 +301,16 @@ func TestEncodeVersionLegacy(t *testing.T) {
 			t.Fatal(err)
 		}
 		g := res.Graphs[0]
-		e, err := EncodeVersion(g, c.opt, "quire-enc-1")
+		e, err := EncodeVersion(g, c.opt, "spinecert-enc-1")
 		if err != nil {
 			t.Fatal(err)
 		}
 		var b bytes.Buffer
 		e.WriteTo(&b)
 		if !bytes.Equal(b.Bytes(), want) {
-			t.Errorf("%s: quire-enc-1 output not reproduced", c.file)
+			t.Errorf("%s: spinecert-enc-1 output not reproduced", c.file)
 		}
-		if e.Version() != "quire-enc-1" || !e.Options().NoTwins {
+		if e.Version() != "spinecert-enc-1" || !e.Options().NoTwins {
 			t.Errorf("%s: version %s, options %+v", c.file, e.Version(), e.Options())
 		}
 		cur, _ := EncodeVersion(g, c.opt, EncoderVersion)
@@ -322,12 +322,12 @@ func TestEncodeVersionLegacy(t *testing.T) {
 	}
 	// Without twins (the Petersen graph has none) only the header changes.
 	g := petersen()
-	old, _ := EncodeVersion(g, Options{Kind: cert.Stack, Pages: 3}, "quire-enc-1")
+	old, _ := EncodeVersion(g, Options{Kind: cert.Stack, Pages: 3}, "spinecert-enc-1")
 	cur, _ := Encode(g, Options{Kind: cert.Stack, Pages: 3})
 	if !equalClauses(old.CNF(), cur.CNF()) {
-		t.Error("Petersen graph: clauses differ between quire-enc-1 and the current version")
+		t.Error("Petersen graph: clauses differ between spinecert-enc-1 and the current version")
 	}
-	if _, err := EncodeVersion(g, Options{Kind: cert.Stack, Pages: 3}, "quire-enc-0"); !errors.Is(err, ErrUnknownVersion) {
+	if _, err := EncodeVersion(g, Options{Kind: cert.Stack, Pages: 3}, "spinecert-enc-0"); !errors.Is(err, ErrUnknownVersion) {
 		t.Errorf("unknown version: %v", err)
 	}
 	if vs := EncoderVersions(); vs[len(vs)-1] != EncoderVersion {

@@ -10,7 +10,7 @@ import (
 	"strconv"
 	"strings"
 
-	"quire/cert"
+	"spinecert.dev/cert"
 )
 
 // ErrShape is returned (wrapped) when a layout does not fit its graph.

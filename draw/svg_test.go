@@ -10,7 +10,7 @@ import (
 	"strconv"
 	"testing"
 
-	"quire/cert"
+	"spinecert.dev/cert"
 )
 
 func complete(t *testing.T, n int) *cert.Graph {
@@ -114,7 +114,7 @@ func TestSVGComplete(t *testing.T) {
 		if !bytes.Equal(buf.Bytes(), again.Bytes()) {
 			t.Fatal("output not deterministic")
 		}
-		if dir := os.Getenv("QUIRE_DRAW_OUT"); dir != "" {
+		if dir := os.Getenv("SPINECERT_DRAW_OUT"); dir != "" {
 			_ = os.WriteFile(filepath.Join(dir, "K"+strconv.Itoa(n)+".svg"), buf.Bytes(), 0o644)
 		}
 	}

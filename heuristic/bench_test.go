@@ -6,7 +6,7 @@ import (
 	"testing"
 	"time"
 
-	"quire/cert"
+	"spinecert.dev/cert"
 )
 
 // benchGraphs are built once per process: the large ones take seconds.

@@ -1,6 +1,6 @@
 package heuristic
 
-import "quire/cert"
+import "spinecert.dev/cert"
 
 // completeStack returns the ⌈n/2⌉-page stack layout of a complete graph K_n
 // (n ≥ 4), or nil when g is not complete.

@@ -3,8 +3,8 @@ package heuristic_test
 import (
 	"fmt"
 
-	"quire/cert"
-	"quire/heuristic"
+	"spinecert.dev/cert"
+	"spinecert.dev/heuristic"
 )
 
 func ExampleStack() {

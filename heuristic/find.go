@@ -5,7 +5,7 @@ import (
 	"fmt"
 	"time"
 
-	"quire/cert"
+	"spinecert.dev/cert"
 )
 
 // ErrKind is returned (wrapped) by Find for a layout kind it cannot search.

@@ -4,7 +4,7 @@ import (
 	"math/rand/v2"
 	"testing"
 
-	"quire/cert"
+	"spinecert.dev/cert"
 )
 
 func mustGraph(tb testing.TB, n int, edges [][2]int) *cert.Graph {

@@ -5,7 +5,7 @@ import (
 	"math/rand/v2"
 	"testing"
 
-	"quire/cert"
+	"spinecert.dev/cert"
 )
 
 // checkLayout validates l against g by brute force over all pairs of edges on

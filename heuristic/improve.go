@@ -3,7 +3,7 @@ package heuristic
 import (
 	"math"
 
-	"quire/cert"
+	"spinecert.dev/cert"
 )
 
 // placement is a stack page assignment under repair: a segment tree for each

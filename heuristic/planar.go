@@ -1,6 +1,6 @@
 package heuristic
 
-import "quire/cert"
+import "spinecert.dev/cert"
 
 // rotation is a planar embedding in flat form: the neighbours of v in cyclic
 // order are nb[off[v]:off[v+1]], and twin[i] is the slot of the reverse

@@ -4,7 +4,7 @@ import (
 	"math/rand/v2"
 	"testing"
 
-	"quire/cert"
+	"spinecert.dev/cert"
 )
 
 // newRotation pairs darts correctly and the embedding it flattens traces

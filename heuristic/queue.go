@@ -1,6 +1,6 @@
 package heuristic
 
-import "quire/cert"
+import "spinecert.dev/cert"
 
 // queuePages assigns queue pages for a fixed spine order with the fewest
 // pages possible for that order. Two edges nest when a < c < d < b; nesting

@@ -4,7 +4,7 @@ import (
 	"math/rand/v2"
 	"slices"
 
-	"quire/cert"
+	"spinecert.dev/cert"
 )
 
 // spines produces the candidate spine orders for one search.

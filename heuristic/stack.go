@@ -5,7 +5,7 @@ import (
 	"math/rand/v2"
 	"time"
 
-	"quire/cert"
+	"spinecert.dev/cert"
 )
 
 // stackPages assigns stack pages for a fixed spine order: the better of a

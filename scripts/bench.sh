@@ -1,18 +1,18 @@
 #!/usr/bin/env bash
-# Prints the speed and size figures quoted in quire's notes. Benchmarks, not
+# Prints the speed and size figures quoted in spinecert's notes. Benchmarks, not
 # tests: run it on a quiet machine. Usage: scripts/bench.sh [quick]
 set -euo pipefail
 cd "$(dirname "$0")/.."
 work=$(mktemp -d)
 trap 'rm -rf "$work"' EXIT
-go build -o "$work/quire" ./cmd/quire
-q="$work/quire"
+go build -o "$work/spinecert" ./cmd/spinecert
+q="$work/spinecert"
 timeit() { /usr/bin/time -f "  %e s wall, %M KB peak" "$@"; }
 
 echo "== check on K_4473 (10,001,628 edges, 2237 pages)"
 go run ./internal/benchgen -n 4473 -graph "$work/kn.edges" -layout "$work/kn.layout.json"
 ls -l "$work/kn.edges" "$work/kn.layout.json" | awk '{print "  " $5 " bytes " $9}'
-echo "  quire check (read both files, match, validate):"
+echo "  spinecert check (read both files, match, validate):"
 timeit "$q" check "$work/kn.edges" "$work/kn.layout.json" >/dev/null
 echo "  reading only (go benchmark of the readers):"
 go test ./cert -run XXX -bench 'ReadLayoutJSON|ValidateComplete|CheckRaw' -benchtime 5x | grep Benchmark

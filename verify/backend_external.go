@@ -14,7 +14,7 @@ import (
 	"syscall"
 	"time"
 
-	"quire/dimacs"
+	"spinecert.dev/dimacs"
 )
 
 // Placeholders in an External command line.
@@ -86,7 +86,7 @@ func (e *External) Solve(ctx context.Context, cnf *dimacs.CNF, limit time.Durati
 	if len(e.Argv) == 0 {
 		return nil, fmt.Errorf("verify: %s: empty command", e.Label)
 	}
-	dir, err := os.MkdirTemp("", "quire-solve-*")
+	dir, err := os.MkdirTemp("", "spinecert-solve-*")
 	if err != nil {
 		return nil, fmt.Errorf("verify: %w", err)
 	}

@@ -7,10 +7,10 @@ import (
 	"github.com/go-air/gini"
 	"github.com/go-air/gini/z"
 
-	"quire/dimacs"
+	"spinecert.dev/dimacs"
 )
 
-// giniVersion is the gini release quire is built against (see go.mod).
+// giniVersion is the gini release spinecert is built against (see go.mod).
 const giniVersion = "v1.0.4"
 
 // Gini is the in-process gini solver (github.com/go-air/gini). It writes

@@ -11,16 +11,16 @@ import (
 
 	"github.com/crillab/gophersat/solver"
 
-	"quire/dimacs"
+	"spinecert.dev/dimacs"
 )
 
-// gophersatVersion is the gophersat release quire is built against (see go.mod).
+// gophersatVersion is the gophersat release spinecert is built against (see go.mod).
 const gophersatVersion = "v1.4.0"
 
-// ChildEnv is the environment variable that makes a quire process run one
+// ChildEnv is the environment variable that makes a spinecert process run one
 // hidden child job; GophersatChild is the job that runs gophersat.
 const (
-	ChildEnv       = "QUIRE_CHILD"
+	ChildEnv       = "SPINECERT_CHILD"
 	GophersatChild = "gophersat"
 )
 
@@ -32,7 +32,7 @@ type ChildCommand struct {
 }
 
 // SelfChild starts the running executable itself as a child running job.
-// The program must dispatch on ChildEnv before anything else (quire's main
+// The program must dispatch on ChildEnv before anything else (spinecert's main
 // does; a test binary does in its TestMain).
 func SelfChild(job string) (ChildCommand, error) {
 	exe, err := os.Executable()

@@ -1,5 +1,5 @@
 // Package verify decides CNF formulas with independent solvers and checks
-// the clausal proofs they write with checkers of quire's own.
+// the clausal proofs they write with checkers of spinecert's own.
 //
 // # Proof formats
 //
@@ -74,7 +74,7 @@
 //
 // Solver backends run behind one interface; an answer they give is a claim
 // until a model is checked against the formula or a proof passes the
-// checkers above. gini runs in process; gophersat runs in a child quire
+// checkers above. gini runs in process; gophersat runs in a child spinecert
 // process (its search cannot be interrupted) that is killed with its process
 // group at the time limit; external solvers (cadical, kissat, minisat, or
 // any command line) are read by the SAT competition output conventions and

@@ -7,7 +7,7 @@ import (
 	"io"
 	"math"
 
-	"quire/cert"
+	"spinecert.dev/cert"
 )
 
 // detectWindow is how many leading bytes of a proof format detection looks at.

@@ -17,8 +17,8 @@ import (
 	"strconv"
 	"strings"
 
-	"quire/cert"
-	"quire/dimacs"
+	"spinecert.dev/cert"
+	"spinecert.dev/dimacs"
 )
 
 // LRATResult is the outcome of CheckLRAT.

@@ -8,9 +8,9 @@ import (
 	"strconv"
 	"time"
 
-	"quire/cert"
-	"quire/dimacs"
-	"quire/heuristic"
+	"spinecert.dev/cert"
+	"spinecert.dev/dimacs"
+	"spinecert.dev/heuristic"
 )
 
 // ErrUndecided is returned (wrapped) by PageNumber when the bounds could

@@ -6,15 +6,15 @@ import (
 	"testing"
 	"time"
 
-	"quire/cert"
-	"quire/dimacs"
-	"quire/internal/testtools"
+	"spinecert.dev/cert"
+	"spinecert.dev/dimacs"
+	"spinecert.dev/internal/testtools"
 )
 
 // benchLimit is the time limit per solver run in the K_9 benchmarks
-// (QUIRE_BENCH_LIMIT, a Go duration; default 10m).
+// (SPINECERT_BENCH_LIMIT, a Go duration; default 10m).
 func benchLimit(b *testing.B) time.Duration {
-	if s := os.Getenv("QUIRE_BENCH_LIMIT"); s != "" {
+	if s := os.Getenv("SPINECERT_BENCH_LIMIT"); s != "" {
 		d, err := time.ParseDuration(s)
 		if err != nil {
 			b.Fatal(err)
@@ -24,7 +24,7 @@ func benchLimit(b *testing.B) time.Duration {
 	return 10 * time.Minute
 }
 
-// BenchmarkPageNumberK9 measures quire's page number of K_9 (5, Bernhart &
+// BenchmarkPageNumberK9 measures spinecert's page number of K_9 (5, Bernhart &
 // Kainen 1979): with the solver-free bounds (the edge count gives 5), and
 // with the lower bound proved by a checked UNSAT for 4 pages using cadical
 // and minisat as the two backends (cadical's proof is checked).

@@ -4,7 +4,7 @@ import (
 	"fmt"
 	"slices"
 
-	"quire/cert"
+	"spinecert.dev/cert"
 )
 
 // Bound is one side of a page-number interval with the reason it holds.

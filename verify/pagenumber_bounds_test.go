@@ -3,7 +3,7 @@ package verify
 import (
 	"testing"
 
-	"quire/cert"
+	"spinecert.dev/cert"
 )
 
 func complete(t testing.TB, n int) *cert.Graph {

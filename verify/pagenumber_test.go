@@ -5,7 +5,7 @@ import (
 	"testing"
 	"time"
 
-	"quire/cert"
+	"spinecert.dev/cert"
 )
 
 func hypercube(t testing.TB, d int) *cert.Graph {
@@ -76,7 +76,7 @@ func pageNumberOK(t *testing.T, g *cert.Graph, kind cert.Kind, unsatLower bool) 
 	return res
 }
 
-// TestPageNumberKnown checks quire's page numbers against published values
+// TestPageNumberKnown checks spinecert's page numbers against published values
 // (see /work/shared/REFERENCES.md for the sources):
 // K_n: ⌈n/2⌉ for n ≥ 4 (Bernhart & Kainen, JCTB 27, 1979); K_{3,3}, K_{4,4}: 3;
 // Petersen: 3; Q3: 2, Q4: 3; grids: 2; trees and cycles: 1 (outerplanar,

@@ -6,7 +6,7 @@ import (
 	"fmt"
 	"io"
 
-	"quire/dimacs"
+	"spinecert.dev/dimacs"
 )
 
 // ErrProofRejected is wrapped by the error of a check that read its input

@@ -11,7 +11,7 @@ import (
 	"testing"
 	"time"
 
-	"quire/dimacs"
+	"spinecert.dev/dimacs"
 )
 
 // benchProof makes cadical's binary DRAT proof of PHP(n+1,n) and reports

@@ -5,8 +5,8 @@ import (
 	"fmt"
 	"strings"
 
-	"quire/dimacs"
-	"quire/verify"
+	"spinecert.dev/dimacs"
+	"spinecert.dev/verify"
 )
 
 // The four clauses on two variables are refuted by the units -2 and 1.

@@ -9,7 +9,7 @@ import (
 
 	"github.com/crillab/gophersat/solver"
 
-	"quire/dimacs"
+	"spinecert.dev/dimacs"
 )
 
 // gophersatProof solves f with gophersat (github.com/crillab/gophersat

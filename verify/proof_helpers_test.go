@@ -11,8 +11,8 @@ import (
 	"strings"
 	"testing"
 
-	"quire/dimacs"
-	"quire/internal/testtools"
+	"spinecert.dev/dimacs"
+	"spinecert.dev/internal/testtools"
 )
 
 // pigeonhole returns PHP(n+1, n): n+1 pigeons, n holes, variable

@@ -11,7 +11,7 @@ import (
 
 	"github.com/klauspost/compress/zstd"
 
-	"quire/dimacs"
+	"spinecert.dev/dimacs"
 )
 
 // checkBoth checks a proof backward and forward, writes LRAT from each and

@@ -7,7 +7,7 @@ import (
 	"fmt"
 	"time"
 
-	"quire/dimacs"
+	"spinecert.dev/dimacs"
 )
 
 // Answer is what a solver run concluded about a formula.

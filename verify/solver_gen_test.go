@@ -3,7 +3,7 @@ package verify
 import (
 	"math/rand/v2"
 
-	"quire/dimacs"
+	"spinecert.dev/dimacs"
 )
 
 // pigeonhole(n), PHP(n+1, n), is defined with the proof tests.

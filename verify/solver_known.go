@@ -9,14 +9,14 @@ import (
 	"time"
 )
 
-// knownExternal describes how to run a solver program quire knows by name.
+// knownExternal describes how to run a solver program spinecert knows by name.
 type knownExternal struct {
 	argv        []string // after the program path
 	proofFormat string
 	versionArg  string
 }
 
-// knownExternals are the external solvers quire runs by name when they are
+// knownExternals are the external solvers spinecert runs by name when they are
 // on PATH. Debian's cadical and kissat write binary DRAT to their second
 // argument by default; minisat writes no proof and its answer to a file.
 var knownExternals = map[string]knownExternal{

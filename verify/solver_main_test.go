@@ -6,7 +6,7 @@ import (
 )
 
 // TestMain lets the test binary serve as the child process of the gophersat
-// backend, the way quire's own main does (see SelfChild).
+// backend, the way spinecert's own main does (see SelfChild).
 func TestMain(m *testing.M) {
 	if os.Getenv(ChildEnv) == GophersatChild {
 		os.Exit(RunGophersatChild(os.Args[1:], os.Stdout, os.Stderr))

@@ -8,7 +8,7 @@ import (
 	"sync"
 	"time"
 
-	"quire/dimacs"
+	"spinecert.dev/dimacs"
 )
 
 // EventKind tells what a progress Event reports.

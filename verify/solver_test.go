@@ -11,8 +11,8 @@ import (
 	"testing"
 	"time"
 
-	"quire/dimacs"
-	"quire/internal/testtools"
+	"spinecert.dev/dimacs"
+	"spinecert.dev/internal/testtools"
 )
 
 // gophersatForTest runs gophersat in a child copy of the test binary (see TestMain).
@@ -170,7 +170,7 @@ func TestRandom3SATAgree(t *testing.T) {
 }
 
 // checkUnsatProof requires the proof of an UNSAT result, when the backend
-// wrote one, to pass quire's DRAT checker and the LRAT re-check.
+// wrote one, to pass spinecert's DRAT checker and the LRAT re-check.
 func checkUnsatProof(t *testing.T, cnf *dimacs.CNF, r *Result) {
 	t.Helper()
 	if r.Answer != Unsat || r.Proof == "" {
@@ -228,7 +228,7 @@ func TestFaultInjection(t *testing.T) {
 // process group at the time limit.
 func TestHangKilled(t *testing.T) {
 	pidfile := filepath.Join(t.TempDir(), "pid")
-	t.Setenv("QUIRE_TEST_PIDFILE", pidfile)
+	t.Setenv("SPINECERT_TEST_PIDFILE", pidfile)
 	s := script(t, "hang.sh")
 	start := time.Now()
 	r, err := s.Solve(context.Background(), satFormula, 300*time.Millisecond, "")

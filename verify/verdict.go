@@ -17,7 +17,7 @@ const (
 	// Satisfiable: a backend produced a model that satisfies every clause.
 	Satisfiable
 	// Unsatisfiable: enough independent backends said UNSAT and enough of
-	// their proofs passed quire's checkers (see Policy).
+	// their proofs passed spinecert's checkers (see Policy).
 	Unsatisfiable
 )
 
@@ -36,7 +36,7 @@ func (o Outcome) String() string {
 func (o Outcome) MarshalJSON() ([]byte, error) { return json.Marshal(o.String()) }
 
 // ProofCheck is the outcome of checking one backend's UNSAT proof with
-// quire's own checkers: the DRAT checker and the LRAT re-check of the
+// spinecert's own checkers: the DRAT checker and the LRAT re-check of the
 // proof it produced.
 type ProofCheck struct {
 	Backend string        `json:"backend"`
@@ -56,7 +56,7 @@ func (c ProofCheck) Passed(p Policy) bool { return c.DRAT && (c.LRAT || !p.Requi
 // Policy says how much evidence turns UNSAT claims into a verdict.
 type Policy struct {
 	MinUnsat    int  // distinct backends that must say UNSAT
-	MinProofs   int  // proofs that must pass quire's checkers
+	MinProofs   int  // proofs that must pass spinecert's checkers
 	RequireLRAT bool // a passing proof must also pass the LRAT re-check
 }
 
@@ -136,7 +136,7 @@ func Decide(results []*Result, checks []ProofCheck, p Policy) *Verdict {
 		case c.Skipped != "":
 			v.Checked = append(v.Checked, fmt.Sprintf("proof from %s not checked: %s", c.Backend, c.Skipped))
 		case c.Passed(p):
-			what := "passed quire's DRAT checker"
+			what := "passed spinecert's DRAT checker"
 			if c.LRAT {
 				what += " and the LRAT re-check"
 			}
@@ -149,7 +149,7 @@ func Decide(results []*Result, checks []ProofCheck, p Policy) *Verdict {
 		v.Missing = append(v.Missing, fmt.Sprintf("UNSAT from %d independent backends (have %d%s)", p.MinUnsat, n, listed(v.UnsatBy)))
 	}
 	if n := len(v.ProofsOK); n < p.MinProofs {
-		need := "quire's DRAT checker"
+		need := "spinecert's DRAT checker"
 		if p.RequireLRAT {
 			need += " and the LRAT re-check"
 		}

@@ -7,8 +7,8 @@ import (
 	"os"
 	"time"
 
-	"quire/cert"
-	"quire/dimacs"
+	"spinecert.dev/cert"
+	"spinecert.dev/dimacs"
 )
 
 // GraphOptions controls DecideLayout.
@@ -69,7 +69,7 @@ func DecideLayout(ctx context.Context, g *cert.Graph, opt GraphOptions) (*GraphV
 	}
 	dir := opt.ProofDir
 	if dir == "" {
-		tmp, err := os.MkdirTemp("", "quire-proofs-*")
+		tmp, err := os.MkdirTemp("", "spinecert-proofs-*")
 		if err != nil {
 			return nil, fmt.Errorf("verify: %w", err)
 		}

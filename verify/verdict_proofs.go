@@ -7,7 +7,7 @@ import (
 	"os"
 	"time"
 
-	"quire/dimacs"
+	"spinecert.dev/dimacs"
 )
 
 // ProofCheckOptions controls CheckProofs.
@@ -21,7 +21,7 @@ type ProofCheckOptions struct {
 }
 
 // CheckProofs checks the proof of every UNSAT result that has one, in
-// order: quire's DRAT checker (CheckDRAT, backward, writing LRAT), then the
+// order: spinecert's DRAT checker (CheckDRAT, backward, writing LRAT), then the
 // separate LRAT checker (CheckLRAT) on that LRAT output. Results without a
 // proof get no entry; the result of a proof check that could not run at
 // all carries the reason in Error.

@@ -6,13 +6,13 @@ import (
 	"testing"
 	"time"
 
-	"quire/cert"
-	"quire/dimacs"
+	"spinecert.dev/cert"
+	"spinecert.dev/dimacs"
 )
 
 // TestPipelinePigeonhole runs the whole UNSAT path on PHP(n+1, n), which is
 // unsatisfiable (Haken 1985): the backends in parallel, their proofs
-// through quire's DRAT checker and the LRAT re-check, then Decide.
+// through spinecert's DRAT checker and the LRAT re-check, then Decide.
 func TestPipelinePigeonhole(t *testing.T) {
 	for _, n := range []int{3, 5} {
 		cnf := pigeonhole(n)

@@ -28,13 +28,13 @@ func TestDecide(t *testing.T) {
 		contains []string
 	}{
 		{"two unsat one proof", []*Result{unsat("a"), unsat("b")}, []ProofCheck{good("a")}, Unsatisfiable,
-			[]string{"UNSAT from 2 independent backends: a, b", "passed quire's DRAT checker and the LRAT re-check"}},
+			[]string{"UNSAT from 2 independent backends: a, b", "passed spinecert's DRAT checker and the LRAT re-check"}},
 		{"one unsat", []*Result{unsat("a"), unknown("b", "time limit")}, []ProofCheck{good("a")}, Undecided,
 			[]string{"UNSAT from 2 independent backends (have 1: a)", "b gave no answer: time limit"}},
 		{"same backend twice", []*Result{unsat("a"), unsat("a")}, []ProofCheck{good("a")}, Undecided,
 			[]string{"have 1: a"}},
 		{"no proof", []*Result{unsat("a"), unsat("b")}, nil, Undecided,
-			[]string{"1 proof(s) passing quire's DRAT checker and the LRAT re-check (have 0)"}},
+			[]string{"1 proof(s) passing spinecert's DRAT checker and the LRAT re-check (have 0)"}},
 		{"drat without lrat", []*Result{unsat("a"), unsat("b")}, []ProofCheck{dratOnly("a")}, Undecided,
 			[]string{"(have 0)"}},
 		{"rejected proof", []*Result{unsat("a"), unsat("b")}, []ProofCheck{bad("a")}, Undecided,

@@ -1,4 +1,4 @@
-// Command benchgen writes large graph and layout files for quire's speed
+// Command benchgen writes large graph and layout files for spinecert's speed
 // figures (scripts/bench.sh): the complete graph K_n with the classical
 // ⌈n/2⌉-page stack layout (vertex order 0..n-1, edge {a, b} on page
 // ⌊((a+b) mod 2p)/2⌋+1 with p = ⌈n/2⌉), as an edge list and a layout file.

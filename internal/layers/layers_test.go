@@ -1,5 +1,5 @@
-// Package layers holds a test that keeps quire's packages layered: data flows
-// one way, cert → dimacs → verify → archive, with cmd/quire on top, and the
+// Package layers holds a test that keeps spinecert's packages layered: data flows
+// one way, cert → dimacs → verify → archive, with cmd/spinecert on top, and the
 // command-line library stays in cmd.
 package layers
 
@@ -34,12 +34,12 @@ func TestPackagesImportOnlyEarlierStages(t *testing.T) {
 		for _, f := range files {
 			for _, imp := range imports(t, f) {
 				if strings.HasPrefix(imp, "github.com/spf13/cobra") {
-					t.Errorf("%s imports cobra; the command-line library belongs in cmd/quire only", f)
+					t.Errorf("%s imports cobra; the command-line library belongs in cmd/spinecert only", f)
 				}
-				if !strings.HasPrefix(imp, "quire/") || strings.HasPrefix(imp, "quire/internal/") {
+				if !strings.HasPrefix(imp, "spinecert.dev/") || strings.HasPrefix(imp, "spinecert.dev/internal/") {
 					continue
 				}
-				dep := strings.SplitN(strings.TrimPrefix(imp, "quire/"), "/", 2)[0]
+				dep := strings.SplitN(strings.TrimPrefix(imp, "spinecert.dev/"), "/", 2)[0]
 				if dep == pkg {
 					continue
 				}

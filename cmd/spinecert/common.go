@@ -1,0 +1,120 @@
+package main
+
+import (
+	"encoding/json"
+	"fmt"
+	"io"
+	"os"
+	"path/filepath"
+
+	"github.com/spf13/cobra"
+
+	"spinecert.dev/cert"
+)
+
+// graphFlags are the flags of every command that reads a GRAPH argument.
+type graphFlags struct {
+	format string
+	index  int
+}
+
+// add registers --graph-format and --index on cmd.
+func (f *graphFlags) add(cmd *cobra.Command) {
+	cmd.Flags().StringVar(&f.format, "graph-format", "auto", "graph file format: auto, edgelist, dimacs, graph6, sparse6")
+	cmd.Flags().IntVar(&f.index, "index", 0, "which graph of a multi-graph file to use (1-based; 0 = the only one)")
+}
+
+// load reads the graph chosen by the flags from path ("-" for stdin).
+func (f *graphFlags) load(cmd *cobra.Command, path string) (*cert.Graph, error) {
+	return loadGraphFormat(cmd.ErrOrStderr(), path, f.format, f.index)
+}
+
+// loadAll reads every graph in path (for commands that run over all of them).
+func (f *graphFlags) loadAll(cmd *cobra.Command, path string) ([]*cert.Graph, error) {
+	res, err := readGraphFile(cmd.ErrOrStderr(), path, f.format)
+	if err != nil {
+		return nil, err
+	}
+	return res.Graphs, nil
+}
+
+// loadGraph reads one graph (auto-detected format) from path; index is
+// 1-based for multi-graph files, 0 when the file must hold exactly one.
+// Warnings go to stderr. Errors are input errors (exit 2).
+func loadGraph(path string, index int) (*cert.Graph, error) {
+	return loadGraphFormat(os.Stderr, path, "auto", index)
+}
+
+func readGraphFile(stderr io.Writer, path, format string) (*cert.ReadResult, error) {
+	f, err := cert.ParseFormat(format)
+	if err != nil {
+		return nil, usageErr(err)
+	}
+	res, err := cert.ReadGraphFile(path, f)
+	if err != nil {
+		return nil, usageErr(err)
+	}
+	for _, w := range res.Warnings {
+		fmt.Fprintf(stderr, "spinecert: warning: %s\n", w)
+	}
+	return res, nil
+}
+
+func loadGraphFormat(stderr io.Writer, path, format string, index int) (*cert.Graph, error) {
+	res, err := readGraphFile(stderr, path, format)
+	if err != nil {
+		return nil, err
+	}
+	switch {
+	case index == 0 && len(res.Graphs) == 1:
+		return res.Graphs[0], nil
+	case index == 0:
+		return nil, usageErr(fmt.Errorf("%s holds %d graphs: choose one with --index 1..%d", path, len(res.Graphs), len(res.Graphs)))
+	case index < 0 || index > len(res.Graphs):
+		return nil, usageErr(fmt.Errorf("%s: --index %d out of range 1..%d", path, index, len(res.Graphs)))
+	}
+	return res.Graphs[index-1], nil
+}
+
+// writeJSON writes v as one indented JSON object followed by a newline.
+func writeJSON(w io.Writer, v any) error {
+	enc := json.NewEncoder(w)
+	enc.SetIndent("", "  ")
+	return enc.Encode(v)
+}
+
+// writeFileAtomic writes a file through a temporary file in the same
+// directory, synced and renamed into place, so that path is never left
+// half-written. "-" writes to stdout.
+func writeFileAtomic(path string, stdout io.Writer, write func(io.Writer) error) error {
+	if path == "-" {
+		return write(stdout)
+	}
+	dir := filepath.Dir(path)
+	tmp, err := os.CreateTemp(dir, "."+filepath.Base(path)+".tmp-*")
+	if err != nil {
+		return usageErr(fmt.Errorf("cannot write %s: %w", path, err))
+	}
+	name := tmp.Name()
+	ok := false
+	defer func() {
+		if !ok {
+			tmp.Close()
+			os.Remove(name)
+		}
+	}()
+	if err := write(tmp); err != nil {
+		return err
+	}
+	if err := tmp.Sync(); err != nil {
+		return fmt.Errorf("writing %s: %w", path, err)
+	}
+	if err := tmp.Close(); err != nil {
+		return fmt.Errorf("writing %s: %w", path, err)
+	}
+	if err := os.Rename(name, path); err != nil {
+		return fmt.Errorf("writing %s: %w", path, err)
+	}
+	ok = true
+	return nil
+}

@@ -1,0 +1,225 @@
+package main
+
+import (
+	"context"
+	"errors"
+	"fmt"
+	"io"
+	"os"
+
+	"github.com/schollz/progressbar/v3"
+	"github.com/spf13/cobra"
+	"golang.org/x/term"
+
+	"spinecert.dev/dimacs"
+	"spinecert.dev/verify"
+)
+
+func init() { register(newProofCmd) }
+
+type proofOptions struct {
+	format    string
+	forward   bool
+	lrat      string
+	lratCheck bool
+	json      bool
+	quiet     bool
+	cnf       string
+	proof     string
+}
+
+func newProofCmd() *cobra.Command {
+	o := &proofOptions{}
+	cmd := &cobra.Command{
+		Use:   "proof CNF PROOF",
+		Short: "Check a DRAT or LRAT refutation of a CNF formula with spinecert's own checkers",
+		Long: `proof checks that PROOF refutes the DIMACS CNF formula CNF.
+
+PROOF is DRAT (text or binary; plain, gzip or zstd). Its format is detected
+from its first bytes (binary when one of the first 1024 bytes is neither
+printable ASCII nor white space) unless --format names it: drat, drat-binary,
+or rup (text lemmas without deletions, all RUP). Lemmas may be RUP or RAT on
+their first literal. By default the proof is checked backward from the empty
+clause, so only the lemmas the refutation needs are checked; --forward checks
+every lemma in order and holds less in memory. Deletions of clauses that are
+the reason of a unit at the time are ignored. A proof must add the empty
+clause. On rejection the first failing step (1-based, deletions counted) is
+named with its text and the reason.
+
+--lrat FILE writes the checked proof as LRAT; it is written only when the
+proof is accepted. With --lrat-check, PROOF is read as LRAT and checked by a
+second, separate and much smaller checker.
+
+Progress goes to stderr when it is a terminal (not with --quiet).`,
+		Args: cobra.ExactArgs(2),
+		RunE: func(cmd *cobra.Command, args []string) error {
+			o.cnf, o.proof = args[0], args[1]
+			return runProof(cmd, o)
+		},
+	}
+	fl := cmd.Flags()
+	fl.StringVar(&o.format, "format", "", "proof format: drat, drat-binary or rup (default: detect)")
+	fl.BoolVar(&o.forward, "forward", false, "check every lemma in proof order instead of backward from the empty clause")
+	fl.StringVar(&o.lrat, "lrat", "", "write the checked proof as LRAT to `FILE`")
+	fl.BoolVar(&o.lratCheck, "lrat-check", false, "read PROOF as LRAT and check it with the LRAT checker")
+	fl.BoolVar(&o.json, "json", false, "print the result as one JSON object")
+	fl.BoolVar(&o.quiet, "quiet", false, "no progress display on stderr")
+	return cmd
+}
+
+// proofReport is the JSON output of spinecert proof.
+type proofReport struct {
+	CNF    string              `json:"cnf"`
+	Proof  string              `json:"proof"`
+	Kind   string              `json:"checker"` // "drat" or "lrat"
+	LRAT   string              `json:"lrat_written,omitempty"`
+	Result *verify.ProofResult `json:"drat,omitempty"`
+	Check  *verify.LRATResult  `json:"lrat,omitempty"`
+	Error  string              `json:"error,omitempty"`
+}
+
+func runProof(cmd *cobra.Command, o *proofOptions) error {
+	switch o.format {
+	case "", verify.ProofDRAT, verify.ProofDRATBinary, verify.ProofRUP:
+	default:
+		return usageErr(fmt.Errorf("--format must be %s, %s or %s, got %q", verify.ProofDRAT, verify.ProofDRATBinary, verify.ProofRUP, o.format))
+	}
+	if o.lratCheck && (o.format != "" || o.forward || o.lrat != "") {
+		return usageErr(errors.New("--lrat-check takes no --format, --forward or --lrat"))
+	}
+	ctx := cmd.Context()
+	if ctx == nil {
+		ctx = context.Background()
+	}
+	cnf, err := dimacs.ReadCNFFile(o.cnf, dimacs.ReadOptions{})
+	if err != nil {
+		return usageErr(err)
+	}
+	f, err := os.Open(o.proof)
+	if err != nil {
+		return usageErr(err)
+	}
+	defer f.Close()
+	rep := &proofReport{CNF: o.cnf, Proof: o.proof, Kind: "drat"}
+	var checkErr error
+	if o.lratCheck {
+		rep.Kind = "lrat"
+		rep.Check, checkErr = verify.CheckLRAT(ctx, cnf, f, o.proof)
+	} else {
+		bar := newProofBar(cmd.ErrOrStderr(), o.quiet)
+		opt := verify.DRATOptions{Format: o.format, Forward: o.forward, Name: o.proof, Progress: bar.update}
+		if o.lrat == "" {
+			rep.Result, checkErr = verify.CheckDRAT(ctx, cnf, f, opt)
+		} else {
+			werr := writeFileAtomic(o.lrat, cmd.OutOrStdout(), func(w io.Writer) error {
+				opt.LRAT = w
+				rep.Result, checkErr = verify.CheckDRAT(ctx, cnf, f, opt)
+				return checkErr
+			})
+			if checkErr == nil && werr != nil {
+				return werr
+			}
+			if checkErr == nil {
+				rep.LRAT = o.lrat
+			}
+		}
+		bar.finish()
+	}
+	rejected := errors.Is(checkErr, verify.ErrProofRejected)
+	if checkErr != nil && !rejected {
+		return usageErr(checkErr)
+	}
+	if rejected {
+		rep.Error = checkErr.Error()
+	}
+	out := cmd.OutOrStdout()
+	if o.json {
+		if err := writeJSON(out, rep); err != nil {
+			return err
+		}
+	} else {
+		printProofReport(out, rep)
+	}
+	if rejected {
+		return refuted(checkErr)
+	}
+	return nil
+}
+
+func printProofReport(w io.Writer, rep *proofReport) {
+	if rep.Check != nil {
+		c := rep.Check
+		if c.Accepted {
+			fmt.Fprintf(w, "LRAT proof accepted: %s refutes %s (%d lemmas checked, %d RAT, %d deletions)\n", rep.Proof, rep.CNF, c.Added, c.RAT, c.Deleted)
+		} else {
+			fmt.Fprintf(w, "LRAT proof rejected at line %d: %s\n", c.FailedLine, c.Reason)
+		}
+		return
+	}
+	r := rep.Result
+	how := "forced"
+	if r.Detected {
+		how = "detected"
+	}
+	fmt.Fprintf(w, "format: %s (%s)\n", r.Format, how)
+	if !r.Accepted {
+		if r.FailedLemma > 0 {
+			fmt.Fprintf(w, "DRAT proof rejected: step %d (%s) %q: %s\n", r.FailedLemma, r.FailedPos, r.FailedText, r.Reason)
+		} else {
+			fmt.Fprintf(w, "DRAT proof rejected: %s\n", r.Reason)
+		}
+		return
+	}
+	fmt.Fprintf(w, "DRAT proof accepted: %s refutes %s (%s check: %d of %d lemmas checked, %d RAT; %d deletions, %d of them of unit reasons ignored)\n",
+		rep.Proof, rep.CNF, r.Mode, r.CoreLemmas, r.Lemmas, r.RAT, r.Deletions, r.IgnoredDeletions)
+	if rep.LRAT != "" {
+		fmt.Fprintf(w, "LRAT written to %s\n", rep.LRAT)
+	}
+}
+
+// proofBar draws the checker's progress on a terminal.
+type proofBar struct {
+	w     io.Writer
+	bar   *progressbar.ProgressBar
+	phase string
+}
+
+func newProofBar(w io.Writer, quiet bool) *proofBar {
+	f, ok := w.(*os.File)
+	if quiet || !ok || !term.IsTerminal(int(f.Fd())) {
+		return nil
+	}
+	return &proofBar{w: w}
+}
+
+func (b *proofBar) update(p verify.DRATProgress) {
+	if b == nil {
+		return
+	}
+	if b.bar == nil || p.Phase != b.phase {
+		if b.bar != nil {
+			b.bar.Finish()
+		}
+		b.phase = p.Phase
+		total := int64(-1)
+		if p.Total > 0 {
+			total = int64(p.Total)
+		}
+		b.bar = progressbar.NewOptions64(total,
+			progressbar.OptionSetWriter(b.w),
+			progressbar.OptionSetDescription(p.Phase+" proof steps"),
+			progressbar.OptionShowCount(),
+			progressbar.OptionSetElapsedTime(true),
+			progressbar.OptionClearOnFinish())
+	}
+	b.bar.Set64(int64(p.Steps))
+	if p.Phase == "checking" {
+		b.bar.Describe(fmt.Sprintf("checking proof steps (%d lemmas checked)", p.Checked))
+	}
+}
+
+func (b *proofBar) finish() {
+	if b != nil && b.bar != nil {
+		b.bar.Finish()
+	}
+}

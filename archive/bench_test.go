@@ -14,6 +14,7 @@ import (
 
 	"spinecert.dev/cert"
 	"spinecert.dev/dimacs"
+	"spinecert.dev/graph"
 	"spinecert.dev/internal/testtools"
 )
 
@@ -53,7 +54,7 @@ func textProofBundle(b *testing.B, n, pages int) (int64, []byte) {
 	if err != nil {
 		b.Fatal(err)
 	}
-	ev := &Evidence{Graph: g, Name: fmt.Sprintf("K%d", n), Input: edgeListBytes(b, g), InputFormat: cert.FormatEdgeList,
+	ev := &Evidence{Graph: g, Name: fmt.Sprintf("K%d", n), Input: edgeListBytes(b, g), InputFormat: graph.FormatEdgeList,
 		Kind: cert.Stack, Bound: AtLeast, K: pages + 1, ToolVersion: "bench", Tool: "archive benchmark",
 		Refutation: &RefutationInput{Options: opt, Proof: proof}}
 	_, srcs, err := Build(context.Background(), ev, CurrentEncoder{}, dir)

@@ -15,6 +15,8 @@ import (
 
 	"spinecert.dev/cert"
 	"spinecert.dev/dimacs"
+	"spinecert.dev/graph"
+	"spinecert.dev/planar/planarcert"
 	"spinecert.dev/verify"
 )
 
@@ -33,23 +35,23 @@ const (
 
 // Evidence is what goes into a bundle.
 type Evidence struct {
-	Graph       *cert.Graph
-	Name        string      // optional short name of the graph, e.g. "K7"
-	Input       []byte      // the graph file as given
-	InputFormat cert.Format // its format (not FormatAuto)
-	Kind        cert.Kind   // Stack, Queue or Mixed
-	PageKinds   []cert.Kind // Mixed only: the K layout pages (at_most) or K-1 refuted pages (at_least)
-	Bound       string      // AtMost, AtLeast or Exact
+	Graph       *graph.Graph
+	Name        string       // optional short name of the graph, e.g. "K7"
+	Input       []byte       // the graph file as given
+	InputFormat graph.Format // its format (not FormatAuto)
+	Kind        cert.Kind    // Stack, Queue or Mixed
+	PageKinds   []cert.Kind  // Mixed only: the K layout pages (at_most) or K-1 refuted pages (at_least)
+	Bound       string       // AtMost, AtLeast or Exact
 	K           int
 
 	Layout     *cert.Layout     // AtMost, Exact: a layout with at most K pages
 	Refutation *RefutationInput // AtLeast, Exact
-	Planarity  *cert.PlanarCert // optional
+	Planarity  *planarcert.Cert // optional
 
 	ToolVersion string
-	Tool         string
-	Created      string // RFC 3339, or "" to record no time
-	IncludeCNF   bool
+	Tool        string
+	Created     string // RFC 3339, or "" to record no time
+	IncludeCNF  bool
 }
 
 // RefutationInput is the evidence that K-1 pages do not suffice.
@@ -61,13 +63,13 @@ type RefutationInput struct {
 	ForeignCNF  string         // path of a CNF made elsewhere that the proof refutes, or ""
 }
 
-func inputExt(f cert.Format) string {
+func inputExt(f graph.Format) string {
 	switch f {
-	case cert.FormatDIMACS:
+	case graph.FormatDIMACS:
 		return "dimacs"
-	case cert.FormatGraph6:
+	case graph.FormatGraph6:
 		return "g6"
-	case cert.FormatSparse6:
+	case graph.FormatSparse6:
 		return "s6"
 	}
 	return "txt"
@@ -115,7 +117,7 @@ func Build(ctx context.Context, ev *Evidence, enc Encoder, tmpDir string) (*Mani
 	}
 	add(BytesSource(m.Graph.Input, ev.Input))
 	var canon bytes.Buffer
-	if err := cert.WriteEdgeList(&canon, g); err != nil {
+	if err := graph.WriteEdgeList(&canon, g); err != nil {
 		return nil, nil, fmt.Errorf("archive: %w", err)
 	}
 	add(BytesSource(memberCanonical, canon.Bytes()))
@@ -151,11 +153,11 @@ func Build(ctx context.Context, ev *Evidence, enc Encoder, tmpDir string) (*Mani
 		srcs = append(srcs, ss...)
 	}
 	if ev.Planarity != nil {
-		if err := cert.CheckPlanarCert(g, ev.Planarity); err != nil {
+		if err := planarcert.Check(g, ev.Planarity); err != nil {
 			return nil, nil, fmt.Errorf("archive: planarity certificate: %w: %w", ErrRejected, err)
 		}
 		var pb bytes.Buffer
-		if err := cert.WritePlanarCert(&pb, g, ev.Planarity); err != nil {
+		if err := planarcert.Write(&pb, g, ev.Planarity); err != nil {
 			return nil, nil, fmt.Errorf("archive: %w", err)
 		}
 		add(BytesSource(memberPlanarity, pb.Bytes()))

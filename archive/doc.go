@@ -24,7 +24,7 @@
 // nothing behind when the bundle is bad.
 //
 // The manifest (manifest.json, schema FormatName version FormatVersion, see
-// the Manifest type) states the claim — graph identity (cert.Graph.ID),
+// the Manifest type) states the claim — graph identity (graph.Graph.ID),
 // layout kind, page kinds, and at_most K (evidence: a layout), at_least K
 // (evidence: a refutation of K-1 pages) or exact (both) — and the evidence:
 // encoder version and options, the SHA-256 of the CNF as spinecert writes it,

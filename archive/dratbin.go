@@ -5,7 +5,7 @@ import (
 	"fmt"
 	"io"
 
-	"spinecert.dev/cert"
+	"spinecert.dev/textpos"
 )
 
 // DRATToBinary rewrites a DRAT proof in text form as binary DRAT (both
@@ -21,7 +21,7 @@ func DRATToBinary(r io.Reader, w io.Writer, name string) error {
 	line, col := 1, 0
 	inStep := false
 	perr := func(msg string, args ...any) error {
-		return fmt.Errorf("archive: %w", &cert.ParseError{File: name, Line: line, Col: col, Msg: fmt.Sprintf(msg, args...)})
+		return fmt.Errorf("archive: %w", &textpos.Error{File: name, Line: line, Col: col, Msg: fmt.Sprintf(msg, args...)})
 	}
 	var buf [10]byte
 	for {

@@ -10,6 +10,7 @@ import (
 
 	"spinecert.dev/cert"
 	"spinecert.dev/dimacs"
+	"spinecert.dev/graph"
 )
 
 // changedEncoder simulates a later encoder: a new version whose output
@@ -20,7 +21,7 @@ type changedEncoder struct {
 }
 
 func (c changedEncoder) Version() string { return c.version }
-func (c changedEncoder) Encode(g *cert.Graph, o dimacs.Options) (*dimacs.CNF, error) {
+func (c changedEncoder) Encode(g *graph.Graph, o dimacs.Options) (*dimacs.CNF, error) {
 	c.change(&o)
 	return CurrentEncoder{}.Encode(g, o)
 }

@@ -9,6 +9,7 @@ import (
 
 	"spinecert.dev/cert"
 	"spinecert.dev/dimacs"
+	"spinecert.dev/graph"
 )
 
 // Encoder turns a claim into CNF. The current encoder is CurrentEncoder;
@@ -17,7 +18,7 @@ type Encoder interface {
 	// Version names the encoder's output (dimacs.EncoderVersion).
 	Version() string
 	// Encode returns the CNF that is satisfiable iff g has the layout opt describes.
-	Encode(g *cert.Graph, opt dimacs.Options) (*dimacs.CNF, error)
+	Encode(g *graph.Graph, opt dimacs.Options) (*dimacs.CNF, error)
 }
 
 // VersionedEncoder is an Encoder that can also reproduce the output of
@@ -25,14 +26,14 @@ type Encoder interface {
 // dimacs.ErrUnknownVersion for a version it cannot reproduce.
 type VersionedEncoder interface {
 	Encoder
-	EncodeAs(g *cert.Graph, opt dimacs.Options, version string) (*dimacs.CNF, error)
+	EncodeAs(g *graph.Graph, opt dimacs.Options, version string) (*dimacs.CNF, error)
 }
 
 // CurrentEncoder is the encoder built into this program.
 type CurrentEncoder struct{}
 
 // EncodeAs calls dimacs.EncodeVersion.
-func (CurrentEncoder) EncodeAs(g *cert.Graph, opt dimacs.Options, version string) (*dimacs.CNF, error) {
+func (CurrentEncoder) EncodeAs(g *graph.Graph, opt dimacs.Options, version string) (*dimacs.CNF, error) {
 	e, err := dimacs.EncodeVersion(g, opt, version)
 	if err != nil {
 		return nil, err
@@ -44,7 +45,7 @@ func (CurrentEncoder) EncodeAs(g *cert.Graph, opt dimacs.Options, version string
 func (CurrentEncoder) Version() string { return dimacs.EncoderVersion }
 
 // Encode calls dimacs.Encode.
-func (CurrentEncoder) Encode(g *cert.Graph, opt dimacs.Options) (*dimacs.CNF, error) {
+func (CurrentEncoder) Encode(g *graph.Graph, opt dimacs.Options) (*dimacs.CNF, error) {
 	e, err := dimacs.Encode(g, opt)
 	if err != nil {
 		return nil, err

@@ -10,35 +10,36 @@ import (
 
 	"spinecert.dev/cert"
 	"spinecert.dev/dimacs"
+	"spinecert.dev/graph"
 	"spinecert.dev/internal/testtools"
 	"spinecert.dev/verify"
 )
 
 // complete returns K_n on vertices 1..n.
-func complete(t testing.TB, n int) *cert.Graph {
+func complete(t testing.TB, n int) *graph.Graph {
 	var es [][2]int
 	for i := 0; i < n; i++ {
 		for j := i + 1; j < n; j++ {
 			es = append(es, [2]int{i, j})
 		}
 	}
-	g, err := cert.NewNumbered(n, 1, es)
+	g, err := graph.NewNumbered(n, 1, es)
 	if err != nil {
 		t.Fatal(err)
 	}
 	return g
 }
 
-func edgeListBytes(t testing.TB, g *cert.Graph) []byte {
+func edgeListBytes(t testing.TB, g *graph.Graph) []byte {
 	var b bytes.Buffer
-	if err := cert.WriteEdgeList(&b, g); err != nil {
+	if err := graph.WriteEdgeList(&b, g); err != nil {
 		t.Fatal(err)
 	}
 	return b.Bytes()
 }
 
 // layoutBySAT finds a layout with the in-process gini backend and decodes it.
-func layoutBySAT(t testing.TB, g *cert.Graph, opt dimacs.Options) *cert.Layout {
+func layoutBySAT(t testing.TB, g *graph.Graph, opt dimacs.Options) *cert.Layout {
 	t.Helper()
 	enc, err := dimacs.Encode(g, opt)
 	if err != nil {
@@ -98,12 +99,12 @@ func proofByCadical(t testing.TB, cnf *dimacs.CNF, args ...string) string {
 
 // petersen returns the Petersen graph: outer cycle 0..4, spokes i-(i+5),
 // inner pentagram.
-func petersen(t testing.TB) *cert.Graph {
+func petersen(t testing.TB) *graph.Graph {
 	var es [][2]int
 	for i := 0; i < 5; i++ {
 		es = append(es, [2]int{i, (i + 1) % 5}, [2]int{i, i + 5}, [2]int{5 + i, 5 + (i+2)%5})
 	}
-	g, err := cert.NewNumbered(10, 0, es)
+	g, err := graph.NewNumbered(10, 0, es)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -111,9 +112,9 @@ func petersen(t testing.TB) *cert.Graph {
 }
 
 // evidence makes the evidence for a claim about g, solving as needed.
-func evidence(t testing.TB, g *cert.Graph, name string, kind cert.Kind, pageKinds []cert.Kind, bound string, k int) *Evidence {
+func evidence(t testing.TB, g *graph.Graph, name string, kind cert.Kind, pageKinds []cert.Kind, bound string, k int) *Evidence {
 	t.Helper()
-	ev := &Evidence{Graph: g, Name: name, Input: edgeListBytes(t, g), InputFormat: cert.FormatEdgeList,
+	ev := &Evidence{Graph: g, Name: name, Input: edgeListBytes(t, g), InputFormat: graph.FormatEdgeList,
 		Kind: kind, PageKinds: pageKinds, Bound: bound, K: k, ToolVersion: "test", Tool: "archive test"}
 	if bound == AtMost || bound == Exact {
 		ev.Layout = layoutBySAT(t, g, dimacs.Options{Kind: kind, Pages: k, PageKinds: pageKinds})

@@ -36,7 +36,7 @@ const (
 // CNF sources: made by spinecert's encoder from the claim, or supplied from
 // elsewhere with a hash that does not match spinecert's encoding.
 const (
-	CNFOwn   = "spinecert"
+	CNFOwn     = "spinecert"
 	CNFForeign = "foreign"
 )
 
@@ -50,7 +50,7 @@ const maxManifestSize = 1 << 20
 type Manifest struct {
 	Format        string          `json:"format"`         // FormatName
 	FormatVersion int             `json:"format_version"` // FormatVersion
-	ToolVersion  string          `json:"tool_version"`  // version of spinecert that made the bundle
+	ToolVersion   string          `json:"tool_version"`   // version of spinecert that made the bundle
 	Tool          string          `json:"tool"`           // the command that made it, e.g. "spinecert bundle"
 	Created       string          `json:"created,omitempty"`
 	Compression   Compression     `json:"compression"`
@@ -78,7 +78,7 @@ type Compression struct {
 
 // Claim is what the bundle asserts about a graph.
 type Claim struct {
-	GraphID   string   `json:"graph_id"` // cert.Graph.ID of the graph
+	GraphID   string   `json:"graph_id"` // graph.Graph.ID of the graph
 	Name      string   `json:"name,omitempty"`
 	Vertices  int      `json:"vertices"`
 	Edges     int      `json:"edges"`

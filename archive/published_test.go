@@ -5,7 +5,7 @@ import (
 	"path/filepath"
 	"testing"
 
-	"spinecert.dev/cert"
+	"spinecert.dev/graph"
 )
 
 // The bundles in testdata/bundles hold evidence for published values and
@@ -43,7 +43,7 @@ func TestPublishedBundles(t *testing.T) {
 			if m.Claim.Bound != Exact || m.Claim.K != w.k || m.Claim.Kind != w.kind {
 				t.Fatalf("claim %s, want %s exactly %d", r.Claim, w.kind, w.k)
 			}
-			res, err := cert.ReadGraphFile(filepath.Join(dir, w.graph), cert.FormatAuto)
+			res, err := graph.ReadFile(filepath.Join(dir, w.graph), graph.FormatAuto)
 			if err != nil {
 				t.Fatal(err)
 			}

@@ -14,6 +14,8 @@ import (
 
 	"spinecert.dev/cert"
 	"spinecert.dev/dimacs"
+	"spinecert.dev/graph"
+	"spinecert.dev/planar/planarcert"
 )
 
 // maxHeld bounds the bytes of members other than proofs that Verify holds
@@ -138,7 +140,7 @@ type verifier struct {
 	sums     map[string]string // member -> SHA-256 from SHA256SUMS
 	prepared bool
 	m        *Manifest
-	g        *cert.Graph
+	g        *graph.Graph
 	cur      *dimacs.CNF // the current encoding of the refuted claim
 	target   *dimacs.CNF // what proofs are checked against to establish the claim (nil = nothing)
 	stored   *dimacs.CNF // a CNF stored in the bundle, checked only for information
@@ -230,9 +232,9 @@ func (v *verifier) checkPlanarity() {
 		v.rep.add("planarity", StatusFail, "member %s is missing", p.Member)
 		return
 	}
-	c, err := cert.ReadPlanarCert(bytes.NewReader(data), p.Member, v.g)
+	c, err := planarcert.Read(bytes.NewReader(data), p.Member, v.g)
 	if err == nil {
-		err = cert.CheckPlanarCert(v.g, c)
+		err = planarcert.Check(v.g, c)
 	}
 	switch {
 	case err != nil:
@@ -246,16 +248,16 @@ func (v *verifier) checkPlanarity() {
 	}
 }
 
-func (v *verifier) readGraph(member, format string) (*cert.Graph, error) {
+func (v *verifier) readGraph(member, format string) (*graph.Graph, error) {
 	data, ok := v.files[member]
 	if !ok {
 		return nil, fmt.Errorf("member %s is missing", member)
 	}
-	f, err := cert.ParseFormat(format)
+	f, err := graph.ParseFormat(format)
 	if err != nil {
 		return nil, err
 	}
-	res, err := cert.ReadGraphs(bytes.NewReader(data), member, f)
+	res, err := graph.Read(bytes.NewReader(data), member, f)
 	if err != nil {
 		return nil, err
 	}

@@ -6,6 +6,7 @@ import (
 	"testing"
 
 	"spinecert.dev/cert"
+	"spinecert.dev/planar"
 )
 
 func failNames(r *Report) string {
@@ -66,7 +67,7 @@ func TestRoundTrip(t *testing.T) {
 func TestPlanarityMember(t *testing.T) {
 	g := complete(t, 5)
 	ev := evidence(t, g, "K5", cert.Stack, nil, AtMost, 3)
-	res, err := cert.Planarity(g)
+	res, err := planar.Decide(g)
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -3,6 +3,8 @@ package cert
 import (
 	"fmt"
 	"slices"
+
+	"spinecert.dev/graph"
 )
 
 // Validate checks a resolved layout of g: the spine must be a permutation of
@@ -10,7 +12,7 @@ import (
 // hold two conflicting edges (a crossing on a stack page, a nesting on a queue
 // page). It runs in O(n + m) time after the input is read and reports every
 // kind of problem with a witness (up to MaxWitnesses of each kind).
-func Validate(g *Graph, l *Layout) *Report {
+func Validate(g *graph.Graph, l *Layout) *Report {
 	r := &Report{}
 	validateInto(g, l, 0, true, r)
 	return r
@@ -19,7 +21,7 @@ func Validate(g *Graph, l *Layout) *Report {
 // validateInto is Validate with an optional page limit (0 = none), adding to r.
 // Without coverage, vertices missing from the spine and edges without a page
 // are taken as already reported (by Resolve) and skipped.
-func validateInto(g *Graph, l *Layout, limit int, coverage bool, r *Report) {
+func validateInto(g *graph.Graph, l *Layout, limit int, coverage bool, r *Report) {
 	r.Pages, r.Kind = l.Pages(), l.Kind
 	n, m := g.N(), g.M()
 	pos := make([]int32, n)
@@ -31,14 +33,14 @@ func validateInto(g *Graph, l *Layout, limit int, coverage bool, r *Report) {
 		case v < 0 || int(v) >= n:
 			r.add(Problem{Kind: UnknownVertex, Msg: fmt.Sprintf("spine position %d holds vertex index %d, not in the graph", i, v)})
 		case pos[v] >= 0:
-			r.add(Problem{Kind: DuplicateVertex, Vertex: g.labels[v], Msg: fmt.Sprintf("vertex %q is on the spine twice (positions %d and %d)", g.labels[v], pos[v], i)})
+			r.add(Problem{Kind: DuplicateVertex, Vertex: g.Labels()[v], Msg: fmt.Sprintf("vertex %q is on the spine twice (positions %d and %d)", g.Labels()[v], pos[v], i)})
 		default:
 			pos[v] = int32(i)
 		}
 	}
 	for v := range pos {
 		if pos[v] < 0 && coverage {
-			r.add(Problem{Kind: MissingVertex, Vertex: g.labels[v], Msg: fmt.Sprintf("vertex %q is not on the spine", g.labels[v])})
+			r.add(Problem{Kind: MissingVertex, Vertex: g.Labels()[v], Msg: fmt.Sprintf("vertex %q is not on the spine", g.Labels()[v])})
 		}
 	}
 	if len(l.Page) != m {
@@ -67,14 +69,14 @@ func validateInto(g *Graph, l *Layout, limit int, coverage bool, r *Report) {
 	scanConflicts(g, l, pos, r)
 }
 
-func edgeName(g *Graph, e int) string {
-	ed := g.edges[e]
-	return fmt.Sprintf("%s–%s", g.labels[ed.U], g.labels[ed.V])
+func edgeName(g *graph.Graph, e int) string {
+	ed := g.Edges()[e]
+	return fmt.Sprintf("%s–%s", g.Labels()[ed.U], g.Labels()[ed.V])
 }
 
-func (r *Report) witness(g *Graph, pos []int32, e int, page int32) WitnessEdge {
-	ed := g.edges[e]
-	return WitnessEdge{U: g.labels[ed.U], V: g.labels[ed.V], PosU: int(pos[ed.U]), PosV: int(pos[ed.V]), Page: int(page)}
+func (r *Report) witness(g *graph.Graph, pos []int32, e int, page int32) WitnessEdge {
+	ed := g.Edges()[e]
+	return WitnessEdge{U: g.Labels()[ed.U], V: g.Labels()[ed.V], PosU: int(pos[ed.U]), PosV: int(pos[ed.V]), Page: int(page)}
 }
 
 // scanConflicts finds crossings on stack pages and nestings on queue pages.
@@ -89,13 +91,13 @@ func (r *Report) witness(g *Graph, pos []int32, e int, page int32) WitnessEdge {
 // strictly smaller left end has a right end beyond r; the scan keeps that
 // maximum. A conflicting edge is reported and not kept, so later findings
 // are genuine pairs as well.
-func scanConflicts(g *Graph, l *Layout, pos []int32, r *Report) {
+func scanConflicts(g *graph.Graph, l *Layout, pos []int32, r *Report) {
 	n, m := g.N(), g.M()
 	k := l.Pages()
 	left := make([]int32, m)
 	right := make([]int32, m)
 	idx := make([]int32, 0, m)
-	for e, ed := range g.edges {
+	for e, ed := range g.Edges() {
 		p := l.Page[e]
 		a, b := pos[ed.U], pos[ed.V]
 		if p < 1 || int(p) > k || a < 0 || b < 0 {
@@ -194,7 +196,7 @@ func countingSort(a, out, count []int32, key func(int32) int32) {
 	}
 }
 
-func scanStackPage(g *Graph, pos []int32, p int32, page, left, right []int32, r *Report, stack []int32) []int32 {
+func scanStackPage(g *graph.Graph, pos []int32, p int32, page, left, right []int32, r *Report, stack []int32) []int32 {
 	for _, e := range page {
 		le, re := left[e], right[e]
 		for len(stack) > 0 && right[stack[len(stack)-1]] <= le {
@@ -215,7 +217,7 @@ func scanStackPage(g *Graph, pos []int32, p int32, page, left, right []int32, r 
 	return stack
 }
 
-func scanQueuePage(g *Graph, pos []int32, p int32, page, left, right []int32, r *Report) {
+func scanQueuePage(g *graph.Graph, pos []int32, p int32, page, left, right []int32, r *Report) {
 	best := int32(-1) // edge with the largest right end among strictly smaller left ends
 	for i := 0; i < len(page); {
 		j := i

@@ -5,6 +5,8 @@ import (
 	"math/rand/v2"
 	"strconv"
 	"testing"
+
+	"spinecert.dev/graph"
 )
 
 // completeLayout is the classical construction of a ⌈n/2⌉-page stack layout
@@ -12,14 +14,14 @@ import (
 // vertices 0..n-1 on the spine, and edge {a, b} on page ⌊((a+b) mod 2p)/2⌋+1
 // with p = ⌈n/2⌉, so page i holds the zigzag path i, i+1, i−1, i+2, … of the
 // circle of 2p vertices (construction from memory).
-func completeLayout(n int) (*Graph, *Layout) {
+func completeLayout(n int) (*graph.Graph, *Layout) {
 	var edges [][2]int
 	for a := 0; a < n; a++ {
 		for b := a + 1; b < n; b++ {
 			edges = append(edges, [2]int{a, b})
 		}
 	}
-	g, err := NewNumbered(n, 0, edges)
+	g, err := graph.NewNumbered(n, 0, edges)
 	if err != nil {
 		panic(err)
 	}
@@ -50,7 +52,7 @@ func TestCompleteGraphsFitInCeilHalfPages(t *testing.T) {
 }
 
 // bruteConflicts is the O(m²) reference: every conflicting pair on every page.
-func bruteConflicts(g *Graph, l *Layout) (crossings, nestings int) {
+func bruteConflicts(g *graph.Graph, l *Layout) (crossings, nestings int) {
 	pos := l.Positions(g.N())
 	es := g.Edges()
 	for i := range es {
@@ -83,7 +85,7 @@ func conflictPair(l *Layout, pos []int32, w []WitnessEdge) (a, b, c, d int) {
 	return
 }
 
-func randomLayoutGraph(r *rand.Rand, n int, p float64) *Graph {
+func randomLayoutGraph(r *rand.Rand, n int, p float64) *graph.Graph {
 	var edges [][2]int
 	for a := 0; a < n; a++ {
 		for b := a + 1; b < n; b++ {
@@ -92,11 +94,11 @@ func randomLayoutGraph(r *rand.Rand, n int, p float64) *Graph {
 			}
 		}
 	}
-	g, _ := NewNumbered(n, 0, edges)
+	g, _ := graph.NewNumbered(n, 0, edges)
 	return g
 }
 
-func randomLayout(r *rand.Rand, g *Graph, kind Kind, k int) *Layout {
+func randomLayout(r *rand.Rand, g *graph.Graph, kind Kind, k int) *Layout {
 	l := &Layout{Kind: kind, PageKinds: make([]Kind, k), Order: make([]int32, g.N()), Page: make([]int32, g.M())}
 	for i := range l.PageKinds {
 		switch kind {
@@ -157,7 +159,7 @@ func TestFastCheckerAgreesWithBruteForce(t *testing.T) {
 	}
 }
 
-func mustIndex(g *Graph, label string) int32 {
+func mustIndex(g *graph.Graph, label string) int32 {
 	v, ok := g.Index(label)
 	if !ok {
 		panic(label)
@@ -199,16 +201,16 @@ func TestSingleEdgeMoveIsCaught(t *testing.T) {
 }
 
 // randomTree returns a random tree on n vertices.
-func randomTree(r *rand.Rand, n int) *Graph {
+func randomTree(r *rand.Rand, n int) *graph.Graph {
 	var edges [][2]int
 	for v := 1; v < n; v++ {
 		edges = append(edges, [2]int{r.IntN(v), v})
 	}
-	g, _ := NewNumbered(n, 0, edges)
+	g, _ := graph.NewNumbered(n, 0, edges)
 	return g
 }
 
-func orderLayout(g *Graph, kind Kind, order []int32) *Layout {
+func orderLayout(g *graph.Graph, kind Kind, order []int32) *Layout {
 	l := &Layout{Kind: kind, PageKinds: []Kind{kind}, Order: order, Page: make([]int32, g.M())}
 	for e := range l.Page {
 		l.Page[e] = 1
@@ -284,7 +286,7 @@ func TestOuterplanarInOnePage(t *testing.T) {
 			tri(m, hi)
 		}
 		tri(0, n-1)
-		g, err := NewNumbered(n, 0, edges)
+		g, err := graph.NewNumbered(n, 0, edges)
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -334,7 +336,7 @@ func TestValidateReportsStructuralProblems(t *testing.T) {
 
 func ExampleValidate() {
 	// A 4-cycle a-b-c-d with both diagonals: the diagonals cross on one page.
-	b := NewBuilder()
+	b := graph.NewBuilder()
 	a, bb, c, d := b.Vertex("a"), b.Vertex("b"), b.Vertex("c"), b.Vertex("d")
 	for _, e := range [][2]int32{{a, bb}, {bb, c}, {c, d}, {d, a}, {a, c}, {bb, d}} {
 		_ = b.AddEdge(e[0], e[1])

@@ -1,9 +1,9 @@
 // Package cert holds spinecert's graphs and layouts and checks layouts directly.
 //
-// A Graph is simple and undirected with labelled vertices, numbered in
-// canonical label order so that its identity (Graph.ID) depends only on the
+// A graph.Graph is simple and undirected with labelled vertices, numbered in
+// canonical label order so that its identity (graph.Graph.ID) depends only on the
 // labels and the edge set. Readers accept edge lists, the DIMACS graph format
-// (DIMACS Clique and Coloring Problems Graph Format, 1993) and graph6/sparse6
+// (DIMACS Clique and Coloring Problems graph.Graph graph.Format, 1993) and graph6/sparse6
 // (B. McKay, formats.txt).
 //
 // A Layout puts the vertices on a spine and every edge on a page. A stack page
@@ -12,10 +12,10 @@
 // nothing in the layout: it matches vertices and edges against the graph and
 // scans every page in O(m log m) time, reporting each problem with a witness.
 //
-// Planarity is decided by the left-right planarity test (U. Brandes, "The
-// Left-Right Planarity Test", 2009), written for spinecert and linear in the size
+// planar.Decide is decided by the left-right planarity test (U. Brandes, "The
+// Left-Right planar.Decide Test", 2009), written for spinecert and linear in the size
 // of the graph. Its answers come with certificates — a rotation system for a
-// planar graph, a subdivision of K5 or K3,3 otherwise — and each certificate
-// is checked by planar_cert_check.go, which uses only the Graph API and
+// planar graph, a subdivision of planarcert.K5 or K3,3 otherwise — and each certificate
+// is checked by planar_cert_check.go, which uses only the graph.Graph API and
 // shares no code with the test that found it.
 package cert

@@ -80,7 +80,7 @@ type Layout struct {
 	Kind      Kind
 	PageKinds []Kind  // kind of page p is PageKinds[p-1]
 	Order     []int32 // Order[i] is the vertex at spine position i
-	Page      []int32 // Page[e] is the page of Graph.Edges()[e], 1-based
+	Page      []int32 // Page[e] is the page of graph.Graph.Edges()[e], 1-based
 }
 
 // Pages returns the number of pages.

@@ -9,6 +9,9 @@ import (
 	"os"
 	"strconv"
 	"unicode/utf8"
+
+	"spinecert.dev/graph"
+	"spinecert.dev/textpos"
 )
 
 // The layout file is one JSON object:
@@ -20,7 +23,7 @@ import (
 // lists the vertex labels in spine order; "edges" lists [u, v, page] with
 // pages 1..k. Labels may be JSON strings or integers (an integer stands for
 // its decimal text). The optional "graph" field holds the graph identity
-// (Graph.ID) the layout was made for. No other fields are allowed.
+// (graph.Graph.ID) the layout was made for. No other fields are allowed.
 //
 // The reader is a streaming scanner for exactly this schema, so files with
 // tens of millions of edges are read at memory speed.
@@ -66,7 +69,7 @@ type jscan struct {
 	// lines counts the newlines in input already dropped from data
 	lines int
 	rerr  error
-	b     *Builder
+	b     *graph.Builder
 	buf   []byte
 	hint  int // expected number of edges
 }
@@ -100,7 +103,7 @@ func (s *jscan) errf(format string, a ...any) error {
 		return fmt.Errorf("cert: reading %s: %w", s.name, s.rerr)
 	}
 	line, col := s.where()
-	return &ParseError{File: s.name, Line: line, Col: col, Msg: fmt.Sprintf(format, a...)}
+	return &textpos.Error{File: s.name, Line: line, Col: col, Msg: fmt.Sprintf(format, a...)}
 }
 
 // where returns the line and column of the byte read last.
@@ -152,7 +155,7 @@ func (s *jscan) expect(want byte, what string) error {
 
 func (s *jscan) layout() (*RawLayout, error) {
 	raw := &RawLayout{}
-	s.b = NewBuilder()
+	s.b = graph.NewBuilder()
 	if err := s.expect('{', "'{' at the start of a layout"); err != nil {
 		return nil, err
 	}
@@ -242,31 +245,31 @@ func (s *jscan) layout() (*RawLayout, error) {
 	}
 	for _, f := range []string{"kind", "pages", "spine", "edges"} {
 		if !seen[f] {
-			return nil, &ParseError{File: s.name, Line: endLine, Col: endCol, Msg: fmt.Sprintf("missing field %q", f)}
+			return nil, &textpos.Error{File: s.name, Line: endLine, Col: endCol, Msg: fmt.Sprintf("missing field %q", f)}
 		}
 	}
 	if raw.Kind == Mixed {
 		if !seen["page_kinds"] {
-			return nil, &ParseError{File: s.name, Line: endLine, Col: endCol, Msg: `a mixed layout needs "page_kinds"`}
+			return nil, &textpos.Error{File: s.name, Line: endLine, Col: endCol, Msg: `a mixed layout needs "page_kinds"`}
 		}
 		if len(pageKinds) != raw.Pages {
-			return nil, &ParseError{File: s.name, Line: kindsLine, Col: kindsCol, Msg: fmt.Sprintf(`"page_kinds" has %d entries for %d pages`, len(pageKinds), raw.Pages)}
+			return nil, &textpos.Error{File: s.name, Line: kindsLine, Col: kindsCol, Msg: fmt.Sprintf(`"page_kinds" has %d entries for %d pages`, len(pageKinds), raw.Pages)}
 		}
 		for _, pk := range pageKinds {
 			k, err := ParseKind(pk)
 			if err != nil || k == Mixed {
-				return nil, &ParseError{File: s.name, Line: kindsLine, Col: kindsCol, Msg: fmt.Sprintf(`page kind %q is not stack or queue`, pk)}
+				return nil, &textpos.Error{File: s.name, Line: kindsLine, Col: kindsCol, Msg: fmt.Sprintf(`page kind %q is not stack or queue`, pk)}
 			}
 			raw.PageKinds = append(raw.PageKinds, k)
 		}
 	} else if seen["page_kinds"] {
 		for _, pk := range pageKinds {
 			if k, err := ParseKind(pk); err != nil || k != raw.Kind {
-				return nil, &ParseError{File: s.name, Line: kindsLine, Col: kindsCol, Msg: fmt.Sprintf(`page kind %q in a %s layout`, pk, raw.Kind)}
+				return nil, &textpos.Error{File: s.name, Line: kindsLine, Col: kindsCol, Msg: fmt.Sprintf(`page kind %q in a %s layout`, pk, raw.Kind)}
 			}
 		}
 	}
-	raw.Labels = s.b.labels
+	raw.Labels = s.b.Labels()
 	return raw, nil
 }
 
@@ -547,13 +550,13 @@ func (s *jscan) fastEdge() (RawEdge, bool) {
 		nums[k] = n
 	}
 	s.pos = p
-	return RawEdge{U: s.b.vertexNumber(nums[0]), V: s.b.vertexNumber(nums[1]), Page: int32(nums[2])}, true
+	return RawEdge{U: s.b.VertexNumber(nums[0]), V: s.b.VertexNumber(nums[1]), Page: int32(nums[2])}, true
 }
 
 // WriteLayoutJSON writes l (a layout of g) in spinecert's JSON layout format:
 // the spine on one line, then one edge per line in g's edge order.
 // Decimal labels are written as integers, all others as strings.
-func WriteLayoutJSON(w io.Writer, g *Graph, l *Layout) error {
+func WriteLayoutJSON(w io.Writer, g *graph.Graph, l *Layout) error {
 	bw := bufio.NewWriterSize(w, 1<<16)
 	fmt.Fprintf(bw, "{\"kind\":\"%s\",\"pages\":%d,", l.Kind, l.Pages())
 	if l.Kind == Mixed {
@@ -572,18 +575,18 @@ func WriteLayoutJSON(w io.Writer, g *Graph, l *Layout) error {
 		if i > 0 {
 			bw.WriteByte(',')
 		}
-		buf = appendLabel(buf[:0], g.labels[v])
+		buf = appendLabel(buf[:0], g.Labels()[v])
 		bw.Write(buf)
 	}
 	bw.WriteString("],\n\"edges\":[")
-	for e, ed := range g.edges {
+	for e, ed := range g.Edges() {
 		if e > 0 {
 			bw.WriteByte(',')
 		}
 		bw.WriteString("\n[")
-		buf = appendLabel(buf[:0], g.labels[ed.U])
+		buf = appendLabel(buf[:0], g.Labels()[ed.U])
 		buf = append(buf, ',')
-		buf = appendLabel(buf, g.labels[ed.V])
+		buf = appendLabel(buf, g.Labels()[ed.V])
 		buf = append(buf, ',')
 		buf = strconv.AppendInt(buf, int64(l.Page[e]), 10)
 		buf = append(buf, ']')
@@ -594,7 +597,7 @@ func WriteLayoutJSON(w io.Writer, g *Graph, l *Layout) error {
 }
 
 func appendLabel(buf []byte, label string) []byte {
-	if isDecimal(label) && len(label) < 19 {
+	if graph.IsDecimal(label) && len(label) < 19 {
 		return append(buf, label...)
 	}
 	return appendQuotedLabel(buf, label)

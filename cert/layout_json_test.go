@@ -7,6 +7,9 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
+
+	"spinecert.dev/graph"
+	"spinecert.dev/textpos"
 )
 
 func TestLayoutJSONRoundTrip(t *testing.T) {
@@ -43,7 +46,7 @@ func TestLayoutJSONRoundTrip(t *testing.T) {
 }
 
 func TestCheckRawLayoutFindings(t *testing.T) {
-	b := NewBuilder()
+	b := graph.NewBuilder()
 	for _, e := range [][2]string{{"a", "b"}, {"b", "c"}, {"c", "d"}, {"a", "c"}} {
 		_ = b.AddEdge(b.Vertex(e[0]), b.Vertex(e[1]))
 	}
@@ -114,8 +117,8 @@ func TestLayoutReaderRejectsBadFiles(t *testing.T) {
 			if !strings.Contains(err.Error(), want) {
 				t.Fatalf("error %q lacks %q", err, want)
 			}
-			if _, ok := err.(*ParseError); !ok {
-				t.Fatalf("error is %T, want *ParseError", err)
+			if _, ok := err.(*textpos.Error); !ok {
+				t.Fatalf("error is %T, want *textpos.Error", err)
 			}
 		})
 	}
@@ -135,7 +138,7 @@ func FuzzLayoutJSON(f *testing.F) {
 		}
 		// Build the graph the layout names and check the layout against it:
 		// nothing may panic, and a layout that resolves must write and read back.
-		b := NewBuilder()
+		b := graph.NewBuilder()
 		for _, lab := range raw.Labels {
 			b.Vertex(lab)
 		}

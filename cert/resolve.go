@@ -1,6 +1,10 @@
 package cert
 
-import "fmt"
+import (
+	"fmt"
+
+	"spinecert.dev/graph"
+)
 
 // CheckOptions tune Check.
 type CheckOptions struct {
@@ -11,7 +15,7 @@ type CheckOptions struct {
 // the spine, every edge of g placed exactly once (no missing, extra or
 // duplicated edges), pages in 1..raw.Pages (and ≤ opt.MaxPages), and no
 // conflict on any page. The report lists every kind of problem found.
-func Check(g *Graph, raw *RawLayout, opt CheckOptions) *Report {
+func Check(g *graph.Graph, raw *RawLayout, opt CheckOptions) *Report {
 	l, rep := Resolve(g, raw)
 	validateInto(g, l, opt.MaxPages, false, rep)
 	return rep
@@ -22,7 +26,7 @@ func Check(g *Graph, raw *RawLayout, opt CheckOptions) *Report {
 // unknown, repeated and missing vertices; extra, repeated and missing edges;
 // pages outside 1..raw.Pages. Edges that did not match are left out of the
 // layout (their page is 0).
-func Resolve(g *Graph, raw *RawLayout) (*Layout, *Report) {
+func Resolve(g *graph.Graph, raw *RawLayout) (*Layout, *Report) {
 	rep := &Report{Counts: map[string]int64{}, kept: map[ProblemKind]int{}}
 	kinds, err := PageKinds(raw.Kind, raw.Pages, raw.PageKinds)
 	if err != nil {
@@ -59,7 +63,7 @@ func Resolve(g *Graph, raw *RawLayout) (*Layout, *Report) {
 	}
 	for v := range pos {
 		if pos[v] < 0 {
-			rep.add(Problem{Kind: MissingVertex, Vertex: g.labels[v], Msg: fmt.Sprintf("vertex %q is not on the spine", g.labels[v])})
+			rep.add(Problem{Kind: MissingVertex, Vertex: g.Labels()[v], Msg: fmt.Sprintf("vertex %q is not on the spine", g.Labels()[v])})
 		}
 	}
 	// positions in the resolved spine (unknown and repeated entries dropped)
@@ -96,8 +100,8 @@ func Resolve(g *Graph, raw *RawLayout) (*Layout, *Report) {
 	for e, p := range l.Page {
 		switch p {
 		case 0:
-			ed := g.edges[e]
-			rep.add(Problem{Kind: MissingEdge, Edges: []WitnessEdge{{U: g.labels[ed.U], V: g.labels[ed.V], PosU: int(pos[ed.U]), PosV: int(pos[ed.V])}},
+			ed := g.Edges()[e]
+			rep.add(Problem{Kind: MissingEdge, Edges: []WitnessEdge{{U: g.Labels()[ed.U], V: g.Labels()[ed.V], PosU: int(pos[ed.U]), PosV: int(pos[ed.V])}},
 				Msg: fmt.Sprintf("edge %s has no page", edgeName(g, e))})
 		case -1:
 			l.Page[e] = 0
@@ -108,7 +112,7 @@ func Resolve(g *Graph, raw *RawLayout) (*Layout, *Report) {
 
 // edgeIndices returns, for every raw edge, the index of the graph edge it
 // names, or -1. Large layouts are looked up in two halves at once.
-func edgeIndices(g *Graph, edges []RawEdge, toGraph []int32) []int32 {
+func edgeIndices(g *graph.Graph, edges []RawEdge, toGraph []int32) []int32 {
 	out := make([]int32, len(edges))
 	look := func(from, to int) {
 		for i := from; i < to; i++ {

@@ -10,12 +10,13 @@ import (
 	"time"
 
 	"spinecert.dev/cert"
+	"spinecert.dev/graph"
 	"spinecert.dev/internal/testtools"
 )
 
 type benchCase struct {
 	name  string
-	g     *cert.Graph
+	g     *graph.Graph
 	pages int
 }
 

@@ -3,11 +3,11 @@ package dimacs
 import (
 	"slices"
 
-	"spinecert.dev/cert"
+	"spinecert.dev/graph"
 )
 
 // blockVertices returns the sorted vertices touched by the edges.
-func blockVertices(g *cert.Graph, edges []int32) []int32 {
+func blockVertices(g *graph.Graph, edges []int32) []int32 {
 	vs := make([]int32, 0, 2*len(edges))
 	for _, e := range edges {
 		ed := g.Edges()[e]
@@ -20,7 +20,7 @@ func blockVertices(g *cert.Graph, edges []int32) []int32 {
 // peelLeaves removes vertices of degree one repeatedly and returns them in
 // removal order with the neighbour each had when it was removed, and a mask
 // of the removed vertices.
-func peelLeaves(g *cert.Graph) (leaves, anchors []int32, removed []bool) {
+func peelLeaves(g *graph.Graph) (leaves, anchors []int32, removed []bool) {
 	n := g.N()
 	deg := make([]int, n)
 	removed = make([]bool, n)

@@ -12,7 +12,7 @@
 // fly. Strict mode, the default, enforces the header counts and the variable
 // range; lenient mode accepts what solvers commonly accept and reports every
 // thing it forgave through ReadOptions.Warn. Errors in the input are
-// *cert.ParseError values carrying file, line and column. Numbers that do not
+// *textpos.Error values carrying file, line and column. Numbers that do not
 // fit in an int32 are rejected in both modes. The parser trusts nothing in its
 // input and never allocates more than the input justifies.
 //

@@ -6,12 +6,13 @@ import (
 	"strings"
 
 	"spinecert.dev/cert"
+	"spinecert.dev/graph"
 )
 
 // Encoding is the CNF for one layout claim about one graph, with what is
 // needed to turn a model back into a layout of that graph.
 type Encoding struct {
-	g       *cert.Graph
+	g       *graph.Graph
 	opt     Options
 	version string
 	kinds   []cert.Kind
@@ -30,7 +31,7 @@ type Encoding struct {
 // Encode builds the CNF that is satisfiable if and only if g has a layout
 // of the kind and page count in opt (see the package documentation for the
 // formulations and the argument for every reduction).
-func Encode(g *cert.Graph, opt Options) (*Encoding, error) {
+func Encode(g *graph.Graph, opt Options) (*Encoding, error) {
 	kinds, err := opt.normalize()
 	if err != nil {
 		return nil, err
@@ -55,7 +56,7 @@ func Encode(g *cert.Graph, opt Options) (*Encoding, error) {
 // spinecert can be reproduced byte for byte. spinecert-enc-1 had no twin symmetry
 // breaking: it is Encode with NoTwins set (the returned Options say so) and
 // its own version in the header.
-func EncodeVersion(g *cert.Graph, opt Options, version string) (*Encoding, error) {
+func EncodeVersion(g *graph.Graph, opt Options, version string) (*Encoding, error) {
 	switch version {
 	case EncoderVersion:
 		return Encode(g, opt)
@@ -75,7 +76,7 @@ func EncodeVersion(g *cert.Graph, opt Options, version string) (*Encoding, error
 func (e *Encoding) Version() string { return e.version }
 
 // Graph returns the graph the encoding is about.
-func (e *Encoding) Graph() *cert.Graph { return e.g }
+func (e *Encoding) Graph() *graph.Graph { return e.g }
 
 // Options returns the options the encoding was made with.
 func (e *Encoding) Options() Options { return e.opt }
@@ -244,7 +245,7 @@ func (e *Encoding) encodeDefault() {
 }
 
 // keptDegree counts the neighbours of v that were not removed.
-func keptDegree(g *cert.Graph, v int32, removed []bool) int {
+func keptDegree(g *graph.Graph, v int32, removed []bool) int {
 	d := 0
 	for _, w := range g.Neighbors(v) {
 		if !removed[w] {

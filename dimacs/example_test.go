@@ -6,13 +6,14 @@ import (
 
 	"spinecert.dev/cert"
 	"spinecert.dev/dimacs"
+	"spinecert.dev/graph"
 )
 
 // Encode the claim "K4 has a 2-page stack layout" and print its size, with
 // the default options (all four vertices are twins, so the spine order is
 // fixed) and without twin symmetry breaking.
 func ExampleEncode() {
-	g, _ := cert.NewNumbered(4, 0, [][2]int{{0, 1}, {0, 2}, {0, 3}, {1, 2}, {1, 3}, {2, 3}})
+	g, _ := graph.NewNumbered(4, 0, [][2]int{{0, 1}, {0, 2}, {0, 3}, {1, 2}, {1, 3}, {2, 3}})
 	enc, err := dimacs.Encode(g, dimacs.Options{Kind: cert.Stack, Pages: 2})
 	if err != nil {
 		fmt.Println(err)

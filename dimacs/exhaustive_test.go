@@ -6,12 +6,13 @@ import (
 	"time"
 
 	"spinecert.dev/cert"
+	"spinecert.dev/graph"
 )
 
 // checkLayout is an independent check of a layout by the definitions: every
 // vertex once on the spine, every edge on a page 1..k, no two edges of a
 // stack page crossing and no two edges of a queue page nesting.
-func checkLayout(g *cert.Graph, kinds []cert.Kind, l *cert.Layout) error {
+func checkLayout(g *graph.Graph, kinds []cert.Kind, l *cert.Layout) error {
 	n, m := g.N(), g.M()
 	if len(l.Order) != n || len(l.Page) != m {
 		return fmt.Errorf("layout sizes %d, %d for n=%d m=%d", len(l.Order), len(l.Page), n, m)
@@ -89,7 +90,7 @@ func queueConfigs() []Options {
 // satisfiable with a model that decodes to a valid layout, and the CNF for
 // K = want[i]-1 is unsatisfiable. Both questions go to cadical in one call
 // each (see batchSAT, batchUNSAT).
-func crossCheck(t *testing.T, gs []*cert.Graph, want []int, o Options) {
+func crossCheck(t *testing.T, gs []*graph.Graph, want []int, o Options) {
 	t.Helper()
 	var sat, unsat []*CNF
 	var encs []*Encoding
@@ -153,7 +154,7 @@ func TestExhaustive(t *testing.T) {
 	}
 	counts := map[int]int{1: 1, 2: 2, 3: 4, 4: 11, 5: 34, 6: 156, 7: 1044}
 	for _, kind := range []cert.Kind{cert.Stack, cert.Queue} {
-		var small []*cert.Graph
+		var small []*graph.Graph
 		var smallWant []int
 		for n := 1; n <= maxN; n++ {
 			gs := graph6Graphs(t, n)

@@ -3,7 +3,7 @@ package dimacs
 import (
 	"math/rand/v2"
 
-	"spinecert.dev/cert"
+	"spinecert.dev/graph"
 )
 
 // triangulation is a maximal planar graph with its faces, each oriented
@@ -62,7 +62,7 @@ func (tr *triangulation) flip(r *rand.Rand) {
 	tr.faces[j] = [3]int{d, b, c}
 }
 
-func (tr *triangulation) graph() *cert.Graph {
+func (tr *triangulation) graph() *graph.Graph {
 	seen := map[[2]int]bool{}
 	var es [][2]int
 	for _, f := range tr.faces {
@@ -79,7 +79,7 @@ func (tr *triangulation) graph() *cert.Graph {
 }
 
 // kleetope adds a vertex in every face joined to its three corners.
-func (tr *triangulation) kleetope() *cert.Graph {
+func (tr *triangulation) kleetope() *graph.Graph {
 	g := tr.graph()
 	var es [][2]int
 	for _, e := range g.Edges() {

@@ -11,11 +11,12 @@ import (
 	"testing"
 
 	"spinecert.dev/cert"
+	"spinecert.dev/graph"
 	"spinecert.dev/internal/testtools"
 )
 
 // completeGraph returns K_n.
-func completeGraph(n int) *cert.Graph {
+func completeGraph(n int) *graph.Graph {
 	var es [][2]int
 	for i := 0; i < n; i++ {
 		for j := i + 1; j < n; j++ {
@@ -25,8 +26,8 @@ func completeGraph(n int) *cert.Graph {
 	return mustGraph(n, es)
 }
 
-func mustGraph(n int, es [][2]int) *cert.Graph {
-	g, err := cert.NewNumbered(n, 0, es)
+func mustGraph(n int, es [][2]int) *graph.Graph {
+	g, err := graph.NewNumbered(n, 0, es)
 	if err != nil {
 		panic(err)
 	}
@@ -35,7 +36,7 @@ func mustGraph(n int, es [][2]int) *cert.Graph {
 
 // graph6Graphs runs nauty-geng (Debian package nauty) for n vertices and
 // reads its graph6 output with cert's reader.
-func graph6Graphs(t testing.TB, n int, extra ...string) []*cert.Graph {
+func graph6Graphs(t testing.TB, n int, extra ...string) []*graph.Graph {
 	geng := testtools.Require(t, "nauty-geng", "nauty")
 	args := append([]string{"-q"}, extra...)
 	args = append(args, fmt.Sprint(n))
@@ -43,7 +44,7 @@ func graph6Graphs(t testing.TB, n int, extra ...string) []*cert.Graph {
 	if err != nil {
 		t.Fatalf("nauty-geng: %v", err)
 	}
-	res, err := cert.ReadGraphs(bytes.NewReader(out), "geng.g6", cert.FormatGraph6)
+	res, err := graph.Read(bytes.NewReader(out), "geng.g6", graph.FormatGraph6)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -184,7 +185,7 @@ func nests(a, b, c, d int) bool {
 // k-colouring of the edges with no conflict (crossing for stack, nesting for
 // queue) inside a colour: the page number or queue number by definition,
 // computed over all n! spine orders.
-func bruteNumber(g *cert.Graph, kind cert.Kind) int {
+func bruteNumber(g *graph.Graph, kind cert.Kind) int {
 	n, m := g.N(), g.M()
 	if m == 0 {
 		return 0
@@ -340,7 +341,7 @@ func bruteNumber(g *cert.Graph, kind cert.Kind) int {
 }
 
 // randomTree returns a random labelled tree on n vertices.
-func randomTree(r *rand.Rand, n int) *cert.Graph {
+func randomTree(r *rand.Rand, n int) *graph.Graph {
 	var es [][2]int
 	for v := 1; v < n; v++ {
 		es = append(es, [2]int{r.IntN(v), v})

@@ -7,7 +7,7 @@ import (
 	"strconv"
 	"strings"
 
-	"spinecert.dev/cert"
+	"spinecert.dev/textpos"
 )
 
 // Solver answers as ReadModel reports them.
@@ -30,7 +30,7 @@ func ReadModel(r io.Reader, name string) (status string, model []bool, err error
 	ended := false
 	minisat := false
 	perr := func(format string, a ...any) error {
-		return &cert.ParseError{File: name, Line: line, Msg: fmt.Sprintf(format, a...)}
+		return &textpos.Error{File: name, Line: line, Msg: fmt.Sprintf(format, a...)}
 	}
 	set := make(map[int]bool)
 	maxVar := 0

@@ -8,11 +8,11 @@ import (
 	"strings"
 	"testing"
 
-	"spinecert.dev/cert"
+	"spinecert.dev/textpos"
 )
 
 // FuzzReadModel checks that reading solver answers never panics, that every
-// failure is a *cert.ParseError, and that a model read, written back in the
+// failure is a *textpos.Error, and that a model read, written back in the
 // SAT competition output format (common practice, no source) with every
 // variable given, reads to the same model.
 func FuzzReadModel(f *testing.F) {
@@ -34,7 +34,7 @@ func FuzzReadModel(f *testing.F) {
 	f.Fuzz(func(t *testing.T, data []byte) {
 		status, model, err := ReadModel(bytes.NewReader(data), "m.out")
 		if err != nil {
-			var pe *cert.ParseError
+			var pe *textpos.Error
 			if !errors.As(err, &pe) && !strings.Contains(err.Error(), "reading") {
 				t.Fatalf("error %T %v", err, err)
 			}

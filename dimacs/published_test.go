@@ -8,11 +8,12 @@ import (
 	"testing"
 
 	"spinecert.dev/cert"
+	"spinecert.dev/graph"
 )
 
 // smallestK returns the least K for which cadical finds the CNF satisfiable,
 // checking the decoded layout, searching upward from lo.
-func smallestK(t *testing.T, g *cert.Graph, o Options, lo, hi int) int {
+func smallestK(t *testing.T, g *graph.Graph, o Options, lo, hi int) int {
 	t.Helper()
 	for k := lo; k <= hi; k++ {
 		o.Pages = k
@@ -36,7 +37,7 @@ func smallestK(t *testing.T, g *cert.Graph, o Options, lo, hi int) int {
 	return hi + 1
 }
 
-func hypercube(d int) *cert.Graph {
+func hypercube(d int) *graph.Graph {
 	var es [][2]int
 	for v := 0; v < 1<<d; v++ {
 		for b := 0; b < d; b++ {
@@ -49,7 +50,7 @@ func hypercube(d int) *cert.Graph {
 }
 
 // petersen: outer 5-cycle 0..4, spokes i–i+5, inner pentagram 5..9.
-func petersen() *cert.Graph {
+func petersen() *graph.Graph {
 	var es [][2]int
 	for i := 0; i < 5; i++ {
 		es = append(es, [2]int{i, (i + 1) % 5}, [2]int{i, i + 5}, [2]int{5 + i, 5 + (i+2)%5})
@@ -57,7 +58,7 @@ func petersen() *cert.Graph {
 	return mustGraph(10, es)
 }
 
-func completeBipartite(a, b int) *cert.Graph {
+func completeBipartite(a, b int) *graph.Graph {
 	var es [][2]int
 	for i := 0; i < a; i++ {
 		for j := 0; j < b; j++ {
@@ -72,7 +73,7 @@ func completeBipartite(a, b int) *cert.Graph {
 // vertex in each of its six triangular faces, joined to the face's corners
 // (A. Goldner, F. Harary, "Note on a smallest nonhamiltonian maximal planar
 // graph", Bull. Malaysian Math. Soc. 6(1), 1975): 11 vertices, 27 edges.
-func goldnerHarary() *cert.Graph {
+func goldnerHarary() *graph.Graph {
 	es := [][2]int{{0, 1}, {1, 2}, {0, 2}}
 	for _, apex := range []int{3, 4} {
 		es = append(es, [2]int{0, apex}, [2]int{1, apex}, [2]int{2, apex})
@@ -88,7 +89,7 @@ func goldnerHarary() *cert.Graph {
 func TestPublishedPageNumbers(t *testing.T) {
 	tests := []struct {
 		name string
-		g    *cert.Graph
+		g    *graph.Graph
 		want int
 	}{
 		// bt(K_n) = ceil(n/2) for n >= 4: F. Bernhart, P. C. Kainen, "The book
@@ -162,7 +163,7 @@ func TestTrees(t *testing.T) {
 // variable either still decodes to a layout that passes the independent
 // check or is rejected by Decode, never accepted when invalid.
 func TestDecodeFlips(t *testing.T) {
-	graphs := []*cert.Graph{completeGraph(5), petersen(), hypercube(3), goldnerHarary(), completeBipartite(3, 3)}
+	graphs := []*graph.Graph{completeGraph(5), petersen(), hypercube(3), goldnerHarary(), completeBipartite(3, 3)}
 	pk := []cert.Kind{cert.Stack, cert.Queue, cert.Stack}
 	configs := []Options{
 		{Kind: cert.Stack, Pages: 3}, {Kind: cert.Stack, Pages: 3, Baseline: true},
@@ -211,7 +212,7 @@ func TestDecodeFlips(t *testing.T) {
 func TestDeterminism(t *testing.T) {
 	g := petersen()
 	var edges0, edges1, dimacsText strings.Builder
-	es := append([]cert.Edge(nil), g.Edges()...)
+	es := append([]graph.Edge(nil), g.Edges()...)
 	r := rand.New(rand.NewPCG(3, 4))
 	r.Shuffle(len(es), func(i, j int) { es[i], es[j] = es[j], es[i] })
 	fmt.Fprintf(&dimacsText, "p edge %d %d\n", g.N(), g.M())
@@ -238,7 +239,7 @@ func TestDeterminism(t *testing.T) {
 				want = b.Bytes()
 			}
 			for _, in := range grp {
-				res, err := cert.ReadGraphs(strings.NewReader(in[1]), in[0], cert.FormatAuto)
+				res, err := graph.Read(strings.NewReader(in[1]), in[0], graph.FormatAuto)
 				if err != nil {
 					t.Fatalf("%s: %v", in[0], err)
 				}
@@ -260,7 +261,7 @@ func TestDeterminism(t *testing.T) {
 
 // toGraph6 writes g in graph6 (McKay, formats.txt): N(n) then the upper
 // triangle column by column, 6 bits per byte plus 63.
-func toGraph6(g *cert.Graph) string {
+func toGraph6(g *graph.Graph) string {
 	n := g.N()
 	if n > 62 {
 		return ""

@@ -8,8 +8,7 @@ import (
 
 	"github.com/klauspost/compress/gzip"
 	"github.com/klauspost/compress/zstd"
-
-	"spinecert.dev/cert"
+	"spinecert.dev/textpos"
 )
 
 // Visitor receives a CNF as it is parsed. Header is called exactly once,
@@ -244,7 +243,7 @@ type parser struct {
 }
 
 func (p *parser) errAt(line, col int, format string, args ...any) error {
-	return &cert.ParseError{File: p.name, Line: line, Col: col, Msg: fmt.Sprintf(format, args...)}
+	return &textpos.Error{File: p.name, Line: line, Col: col, Msg: fmt.Sprintf(format, args...)}
 }
 
 func (p *parser) warn(line int, format string, args ...any) {
@@ -255,7 +254,7 @@ func (p *parser) warn(line int, format string, args ...any) {
 
 // Parse streams a DIMACS CNF (plain, gzip or zstd, detected by magic bytes)
 // to v. name is used in error messages. Errors in the input are
-// *cert.ParseError values with file:line:col.
+// *textpos.Error values with file:line:col.
 //
 // In strict mode (the default) the input must have exactly one header
 // "p cnf VARS CLAUSES" before any clause, exactly CLAUSES clauses, every

@@ -8,8 +8,7 @@ import (
 
 	"github.com/klauspost/compress/gzip"
 	"github.com/klauspost/compress/zstd"
-
-	"spinecert.dev/cert"
+	"spinecert.dev/textpos"
 )
 
 // The DIMACS CNF format follows the SAT competition rules ("p cnf VARS
@@ -78,9 +77,9 @@ func TestReadErrors(t *testing.T) {
 			if err == nil {
 				t.Fatalf("no error, want %q", tt.want)
 			}
-			var pe *cert.ParseError
+			var pe *textpos.Error
 			if !errors.As(err, &pe) {
-				t.Fatalf("error %T %v is not a *cert.ParseError", err, err)
+				t.Fatalf("error %T %v is not a *textpos.Error", err, err)
 			}
 			if !strings.HasPrefix(err.Error(), tt.want) {
 				t.Fatalf("error %q, want prefix %q", err, tt.want)
@@ -194,7 +193,7 @@ func FuzzParse(f *testing.F) {
 	f.Fuzz(func(t *testing.T, data []byte, lenient bool) {
 		c, err := ReadCNF(bytes.NewReader(data), "f.cnf", ReadOptions{Lenient: lenient})
 		if err != nil {
-			var pe *cert.ParseError
+			var pe *textpos.Error
 			if !errors.As(err, &pe) && !strings.Contains(err.Error(), "gzip") && !strings.Contains(err.Error(), "zstd") && !strings.Contains(err.Error(), "reading") {
 				t.Fatalf("error %T %v", err, err)
 			}

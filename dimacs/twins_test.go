@@ -10,6 +10,7 @@ import (
 	"testing"
 
 	"spinecert.dev/cert"
+	"spinecert.dev/graph"
 )
 
 // partGraph is the graph of one encoded part on its local vertices.
@@ -296,7 +297,7 @@ func TestEncodeVersionLegacy(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		res, err := cert.ReadGraphFile(filepath.Join(dir, c.graph), cert.FormatAuto)
+		res, err := graph.ReadFile(filepath.Join(dir, c.graph), graph.FormatAuto)
 		if err != nil {
 			t.Fatal(err)
 		}

@@ -11,6 +11,7 @@ import (
 	"strings"
 
 	"spinecert.dev/cert"
+	"spinecert.dev/graph"
 )
 
 // ErrShape is returned (wrapped) when a layout does not fit its graph.
@@ -67,7 +68,7 @@ const (
 func num(f float64) string { return strconv.FormatFloat(math.Round(f*10)/10, 'f', -1, 64) }
 
 // SVG writes an arc diagram of layout l of g to w.
-func SVG(w io.Writer, g *cert.Graph, l *cert.Layout, opts Options) error {
+func SVG(w io.Writer, g *graph.Graph, l *cert.Layout, opts Options) error {
 	n, m := g.N(), g.M()
 	if len(l.Order) != n || len(l.Page) != m {
 		return fmt.Errorf("draw: %w: %d spine vertices and %d edge pages for a graph with %d vertices and %d edges", ErrShape, len(l.Order), len(l.Page), n, m)
@@ -104,7 +105,7 @@ func SVG(w io.Writer, g *cert.Graph, l *cert.Layout, opts Options) error {
 	return bw.Flush()
 }
 
-func layoutGeometry(g *cert.Graph, l *cert.Layout, pos []int32) *geometry {
+func layoutGeometry(g *graph.Graph, l *cert.Layout, pos []int32) *geometry {
 	n := g.N()
 	geo := &geometry{n: n, margin: 24}
 	switch {
@@ -148,7 +149,7 @@ func layoutGeometry(g *cert.Graph, l *cert.Layout, pos []int32) *geometry {
 	return geo
 }
 
-func writeSVG(w *bufio.Writer, g *cert.Graph, l *cert.Layout, pos []int32, geo *geometry, opts Options, hiE map[int]bool, hiV map[int32]bool) {
+func writeSVG(w *bufio.Writer, g *graph.Graph, l *cert.Layout, pos []int32, geo *geometry, opts Options, hiE map[int]bool, hiV map[int32]bool) {
 	height := geo.spineTop + geo.band + geo.below + 8
 	fmt.Fprintf(w, `<svg xmlns="http://www.w3.org/2000/svg" width="%s" height="%s" viewBox="0 0 %s %s" font-family="sans-serif">`+"\n",
 		num(geo.width), num(height), num(geo.width), num(height))
@@ -240,7 +241,7 @@ func writeArc(w *bufio.Writer, geo *geometry, e, p int, a, b int32, hi, dim bool
 		e, p, num(x1), num(y), num(rx), num(ry), sweep, num(x2), num(y), colour, num(width), num(opacity), extra)
 }
 
-func writeLegend(w *bufio.Writer, g *cert.Graph, l *cert.Layout, geo *geometry, title string, hasHighlight bool, label string) {
+func writeLegend(w *bufio.Writer, g *graph.Graph, l *cert.Layout, geo *geometry, title string, hasHighlight bool, label string) {
 	count := make([]int, l.Pages()+1)
 	for _, p := range l.Page {
 		count[p]++

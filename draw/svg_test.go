@@ -11,16 +11,17 @@ import (
 	"testing"
 
 	"spinecert.dev/cert"
+	"spinecert.dev/graph"
 )
 
-func complete(t *testing.T, n int) *cert.Graph {
+func complete(t *testing.T, n int) *graph.Graph {
 	var e [][2]int
 	for i := 0; i < n; i++ {
 		for j := i + 1; j < n; j++ {
 			e = append(e, [2]int{i, j})
 		}
 	}
-	g, err := cert.NewNumbered(n, 1, e)
+	g, err := graph.NewNumbered(n, 1, e)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -30,7 +31,7 @@ func complete(t *testing.T, n int) *cert.Graph {
 // completeLayout is the ⌈n/2⌉-page book embedding of K_n (Bernhart and
 // Kainen, "The book thickness of a graph", JCTB 27, 1979): chords {u, v} of
 // the circle 0..n'-1 (n' = n rounded up to even) go to page ((u+v) mod n')/2 + 1.
-func completeLayout(g *cert.Graph, kind cert.Kind) *cert.Layout {
+func completeLayout(g *graph.Graph, kind cert.Kind) *cert.Layout {
 	n := g.N()
 	nn := n + n%2
 	l := &cert.Layout{Kind: kind}
@@ -121,7 +122,7 @@ func TestSVGComplete(t *testing.T) {
 }
 
 func TestSVGLabelsEscaped(t *testing.T) {
-	b := cert.NewBuilder()
+	b := graph.NewBuilder()
 	u, v, w := b.Vertex("a<b"), b.Vertex(`"q"&`), b.Vertex("ünï")
 	_ = b.AddEdge(u, v)
 	_ = b.AddEdge(v, w)

@@ -7,12 +7,13 @@ import (
 	"time"
 
 	"spinecert.dev/cert"
+	"spinecert.dev/graph"
 )
 
 // benchGraphs are built once per process: the large ones take seconds.
-var benchGraphs = map[string]*cert.Graph{}
+var benchGraphs = map[string]*graph.Graph{}
 
-func benchGraph(b *testing.B, name string, build func() *cert.Graph) *cert.Graph {
+func benchGraph(b *testing.B, name string, build func() *graph.Graph) *graph.Graph {
 	if g, ok := benchGraphs[name]; ok {
 		return g
 	}
@@ -25,15 +26,15 @@ func benchKind(b *testing.B, kind cert.Kind, candidates int) {
 	rng := rand.New(rand.NewPCG(11, 12))
 	cases := []struct {
 		name  string
-		build func() *cert.Graph
+		build func() *graph.Graph
 	}{
-		{"K50", func() *cert.Graph { return complete(b, 50) }},
-		{"K200", func() *cert.Graph { return complete(b, 200) }},
-		{"grid100x100", func() *cert.Graph { return grid(b, 100, 100) }},
-		{"grid1000x1000", func() *cert.Graph { return grid(b, 1000, 1000) }},
-		{"planar1e4", func() *cert.Graph { return randomPlanar(b, rng, 10000/3+2, 10000/3) }},
-		{"planar1e5", func() *cert.Graph { return randomPlanar(b, rng, 100000/3+2, 100000/3) }},
-		{"planar1e6", func() *cert.Graph { return randomPlanar(b, rng, 1000000/3+2, 1000000/3) }},
+		{"K50", func() *graph.Graph { return complete(b, 50) }},
+		{"K200", func() *graph.Graph { return complete(b, 200) }},
+		{"grid100x100", func() *graph.Graph { return grid(b, 100, 100) }},
+		{"grid1000x1000", func() *graph.Graph { return grid(b, 1000, 1000) }},
+		{"planar1e4", func() *graph.Graph { return randomPlanar(b, rng, 10000/3+2, 10000/3) }},
+		{"planar1e5", func() *graph.Graph { return randomPlanar(b, rng, 100000/3+2, 100000/3) }},
+		{"planar1e6", func() *graph.Graph { return randomPlanar(b, rng, 1000000/3+2, 1000000/3) }},
 	}
 	for _, c := range cases {
 		b.Run(c.name, func(b *testing.B) {

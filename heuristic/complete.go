@@ -1,6 +1,9 @@
 package heuristic
 
-import "spinecert.dev/cert"
+import (
+	"spinecert.dev/cert"
+	"spinecert.dev/graph"
+)
 
 // completeStack returns the ⌈n/2⌉-page stack layout of a complete graph K_n
 // (n ≥ 4), or nil when g is not complete.
@@ -10,7 +13,7 @@ import "spinecert.dev/cert"
 // as 0..n-1; the chords {u, v} with (u+v) mod n equal to 2i or 2i+1 form the
 // zigzag path i, i+1, i-1, i+2, i-2, ... and do not cross, so page i+1 takes
 // them. For odd n use the layout of K_{n+1} without its last vertex.
-func completeStack(g *cert.Graph) *cert.Layout {
+func completeStack(g *graph.Graph) *cert.Layout {
 	n := g.N()
 	if n < 4 || int64(g.M()) != int64(n)*int64(n-1)/2 {
 		return nil

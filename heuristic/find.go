@@ -6,6 +6,8 @@ import (
 	"time"
 
 	"spinecert.dev/cert"
+	"spinecert.dev/graph"
+	"spinecert.dev/planar"
 )
 
 // ErrKind is returned (wrapped) by Find for a layout kind it cannot search.
@@ -37,7 +39,7 @@ func (o Options) candidates(kind cert.Kind, m int) int {
 }
 
 // Find returns a layout of kind cert.Stack or cert.Queue for g.
-func Find(g *cert.Graph, kind cert.Kind, opts Options) (*cert.Layout, error) {
+func Find(g *graph.Graph, kind cert.Kind, opts Options) (*cert.Layout, error) {
 	switch kind {
 	case cert.Stack:
 		return Stack(g, opts), nil
@@ -48,7 +50,7 @@ func Find(g *cert.Graph, kind cert.Kind, opts Options) (*cert.Layout, error) {
 }
 
 // Stack returns a stack layout (book embedding) of g.
-func Stack(g *cert.Graph, opts Options) *cert.Layout {
+func Stack(g *graph.Graph, opts Options) *cert.Layout {
 	if l := completeStack(g); l != nil {
 		return l
 	}
@@ -56,8 +58,8 @@ func Stack(g *cert.Graph, opts Options) *cert.Layout {
 	if l.Pages() > 2 && g.N() >= 3 && g.M() <= 3*g.N()-6 && g.M() <= hamiltonMaxEdges {
 		// A planar graph with a Hamiltonian cycle has a 2-page layout with the
 		// cycle as spine (Bernhart & Kainen 1979); try a bounded search.
-		if emb, ok := cert.PlanarEmbedding(g); ok {
-			if h, ok := cert.HamiltonianTwoPage(g, emb, hamiltonBudget(g)); ok {
+		if emb, ok := planar.Embed(g); ok {
+			if h, ok := HamiltonianTwoPage(g, emb, hamiltonBudget(g)); ok {
 				return h
 			}
 		}
@@ -72,15 +74,15 @@ const hamiltonMaxEdges = 200_000
 
 // hamiltonBudget bounds the Hamiltonian cycle search (in path extensions)
 // so that it costs about as much as a few passes over the graph.
-func hamiltonBudget(g *cert.Graph) int { return 20*g.M() + 100_000 }
+func hamiltonBudget(g *graph.Graph) int { return 20*g.M() + 100_000 }
 
 // Queue returns a queue layout of g.
-func Queue(g *cert.Graph, opts Options) *cert.Layout {
+func Queue(g *graph.Graph, opts Options) *cert.Layout {
 	return search(g, cert.Queue, opts)
 }
 
 // search tries spine candidates and keeps the layout with the fewest pages.
-func search(g *cert.Graph, kind cert.Kind, opts Options) *cert.Layout {
+func search(g *graph.Graph, kind cert.Kind, opts Options) *cert.Layout {
 	start := time.Now()
 	var deadline time.Time
 	if opts.TimeLimit > 0 {
@@ -128,7 +130,7 @@ func search(g *cert.Graph, kind cert.Kind, opts Options) *cert.Layout {
 // vertex joined to every vertex is planar (G. Chartrand and F. Harary,
 // "Planar permutation graphs", Ann. Inst. H. Poincaré B 3, 1967; a graph is
 // outerplanar exactly when this apex graph is planar; from memory).
-func outerplanar(g *cert.Graph) bool {
+func outerplanar(g *graph.Graph) bool {
 	n := g.N()
 	if g.M() > 2*n-3 {
 		return false
@@ -140,8 +142,8 @@ func outerplanar(g *cert.Graph) bool {
 	for v := 0; v < n; v++ {
 		edges = append(edges, [2]int{v, n})
 	}
-	a, err := cert.NewNumbered(n+1, 0, edges)
-	return err == nil && cert.IsPlanar(a)
+	a, err := graph.NewNumbered(n+1, 0, edges)
+	return err == nil && planar.IsPlanar(a)
 }
 
 func newLayout(kind cert.Kind, order, page []int32, k int32) *cert.Layout {
@@ -153,7 +155,7 @@ func newLayout(kind cert.Kind, order, page []int32, k int32) *cert.Layout {
 }
 
 // spans returns the spine positions (l < r) of every edge under order.
-func spans(g *cert.Graph, order []int32) (ls, rs []int32) {
+func spans(g *graph.Graph, order []int32) (ls, rs []int32) {
 	pos := make([]int32, g.N())
 	for i, v := range order {
 		pos[v] = int32(i)

@@ -4,19 +4,19 @@ import (
 	"math/rand/v2"
 	"testing"
 
-	"spinecert.dev/cert"
+	"spinecert.dev/graph"
 )
 
-func mustGraph(tb testing.TB, n int, edges [][2]int) *cert.Graph {
+func mustGraph(tb testing.TB, n int, edges [][2]int) *graph.Graph {
 	tb.Helper()
-	g, err := cert.NewNumbered(n, 0, edges)
+	g, err := graph.NewNumbered(n, 0, edges)
 	if err != nil {
 		tb.Fatal(err)
 	}
 	return g
 }
 
-func complete(tb testing.TB, n int) *cert.Graph {
+func complete(tb testing.TB, n int) *graph.Graph {
 	var e [][2]int
 	for i := 0; i < n; i++ {
 		for j := i + 1; j < n; j++ {
@@ -27,7 +27,7 @@ func complete(tb testing.TB, n int) *cert.Graph {
 }
 
 // grid is P_w x P_h with vertex y*w+x.
-func grid(tb testing.TB, w, h int) *cert.Graph {
+func grid(tb testing.TB, w, h int) *graph.Graph {
 	e := make([][2]int, 0, 2*w*h)
 	for y := 0; y < h; y++ {
 		for x := 0; x < w; x++ {
@@ -44,7 +44,7 @@ func grid(tb testing.TB, w, h int) *cert.Graph {
 }
 
 // randomTree attaches every vertex to a random earlier one, then relabels randomly.
-func randomTree(tb testing.TB, rng *rand.Rand, n int) *cert.Graph {
+func randomTree(tb testing.TB, rng *rand.Rand, n int) *graph.Graph {
 	perm := rng.Perm(n)
 	e := make([][2]int, 0, n)
 	for v := 1; v < n; v++ {
@@ -53,7 +53,7 @@ func randomTree(tb testing.TB, rng *rand.Rand, n int) *cert.Graph {
 	return mustGraph(tb, n, e)
 }
 
-func randomGraph(tb testing.TB, rng *rand.Rand, n int, p float64) *cert.Graph {
+func randomGraph(tb testing.TB, rng *rand.Rand, n int, p float64) *graph.Graph {
 	var e [][2]int
 	for i := 0; i < n; i++ {
 		for j := i + 1; j < n; j++ {
@@ -70,7 +70,7 @@ func randomGraph(tb testing.TB, rng *rand.Rand, n int, p float64) *cert.Graph {
 // corners), then random edge flips that keep the graph simple and every
 // degree at least 3; vertices are relabelled randomly. Every step keeps a
 // planar triangulation, so m = 3n-6 (Euler's formula).
-func randomPlanar(tb testing.TB, rng *rand.Rand, n, flips int) *cert.Graph {
+func randomPlanar(tb testing.TB, rng *rand.Rand, n, flips int) *graph.Graph {
 	type face [3]int32
 	faces := []face{{0, 1, 2}, {0, 2, 1}}
 	key := func(a, b int32) uint64 {

@@ -6,13 +6,14 @@ import (
 	"testing"
 
 	"spinecert.dev/cert"
+	"spinecert.dev/graph"
 )
 
 // checkLayout validates l against g by brute force over all pairs of edges on
 // a page (the definitions of stack and queue pages in cert/layout.go); it
 // also checks that the spine is a permutation and every edge has a page in
 // 1..Pages(). It returns the number of pages used.
-func checkLayout(t *testing.T, g *cert.Graph, l *cert.Layout) int {
+func checkLayout(t *testing.T, g *graph.Graph, l *cert.Layout) int {
 	t.Helper()
 	if err := bruteCheck(g, l); err != nil {
 		t.Fatal(err)
@@ -23,7 +24,7 @@ func checkLayout(t *testing.T, g *cert.Graph, l *cert.Layout) int {
 	return l.Pages()
 }
 
-func bruteCheck(g *cert.Graph, l *cert.Layout) error {
+func bruteCheck(g *graph.Graph, l *cert.Layout) error {
 	n := g.N()
 	if len(l.Order) != n {
 		return fmt.Errorf("spine has %d vertices, graph %d", len(l.Order), n)
@@ -76,7 +77,7 @@ func bruteCheck(g *cert.Graph, l *cert.Layout) error {
 // nest like brackets; queue: the right ends, in left-end order within
 // groups of equal left end, never fall below an earlier edge's right end
 // from a strictly smaller left end).
-func checkFast(t *testing.T, g *cert.Graph, l *cert.Layout) int {
+func checkFast(t *testing.T, g *graph.Graph, l *cert.Layout) int {
 	t.Helper()
 	if err := sweepCheck(g, l); err != nil {
 		t.Fatal(err)
@@ -87,7 +88,7 @@ func checkFast(t *testing.T, g *cert.Graph, l *cert.Layout) int {
 	return l.Pages()
 }
 
-func sweepCheck(g *cert.Graph, l *cert.Layout) error {
+func sweepCheck(g *graph.Graph, l *cert.Layout) error {
 	n := g.N()
 	pos := make([]int32, n)
 	seen := make([]bool, n)
@@ -284,7 +285,7 @@ func TestFindKind(t *testing.T) {
 }
 
 func TestEmptyAndTiny(t *testing.T) {
-	for _, g := range []*cert.Graph{mustGraph(t, 0, nil), mustGraph(t, 1, nil), mustGraph(t, 3, nil), mustGraph(t, 2, [][2]int{{0, 1}})} {
+	for _, g := range []*graph.Graph{mustGraph(t, 0, nil), mustGraph(t, 1, nil), mustGraph(t, 3, nil), mustGraph(t, 2, [][2]int{{0, 1}})} {
 		for _, kind := range []cert.Kind{cert.Stack, cert.Queue} {
 			l, _ := Find(g, kind, Options{})
 			k := checkLayout(t, g, l)

@@ -3,13 +3,13 @@ package heuristic
 import (
 	"math"
 
-	"spinecert.dev/cert"
+	"spinecert.dev/graph"
 )
 
 // placement is a stack page assignment under repair: a segment tree for each
 // page below the highest, kept in step with page.
 type placement struct {
-	g      *cert.Graph
+	g      *graph.Graph
 	order  []int32
 	ls, rs []int32
 	page   []int32
@@ -17,7 +17,7 @@ type placement struct {
 	trees  []*segTree // trees[p-1] for pages 1..k-1
 }
 
-func newPlacement(g *cert.Graph, order, ls, rs, page []int32, k int32) *placement {
+func newPlacement(g *graph.Graph, order, ls, rs, page []int32, k int32) *placement {
 	n := g.N()
 	pt := &placement{g: g, order: order, ls: ls, rs: rs, page: page, k: k}
 	pt.trees = make([]*segTree, k-1)

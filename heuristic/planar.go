@@ -1,6 +1,10 @@
 package heuristic
 
-import "spinecert.dev/cert"
+import (
+	"spinecert.dev/graph"
+	"spinecert.dev/planar"
+	"spinecert.dev/planar/planarcert"
+)
 
 // rotation is a planar embedding in flat form: the neighbours of v in cyclic
 // order are nb[off[v]:off[v+1]], and twin[i] is the slot of the reverse
@@ -10,7 +14,7 @@ type rotation struct {
 }
 
 // newRotation flattens emb and pairs every dart with its reverse, in O(n+m).
-func newRotation(emb *cert.Embedding) *rotation {
+func newRotation(emb *planarcert.Embedding) *rotation {
 	n := len(emb.Rotation)
 	off := make([]int32, n+1)
 	for v, r := range emb.Rotation {
@@ -54,11 +58,11 @@ func newRotation(emb *cert.Embedding) *rotation {
 }
 
 // planarEmbedding returns the rotation of g when g is planar, else nil.
-func planarEmbedding(g *cert.Graph) *rotation {
+func planarEmbedding(g *graph.Graph) *rotation {
 	if g.M() > 3*g.N() {
 		return nil
 	}
-	emb, ok := cert.PlanarEmbedding(g)
+	emb, ok := planar.Embed(g)
 	if !ok {
 		return nil
 	}

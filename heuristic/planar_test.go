@@ -4,7 +4,7 @@ import (
 	"math/rand/v2"
 	"testing"
 
-	"spinecert.dev/cert"
+	"spinecert.dev/graph"
 )
 
 // newRotation pairs darts correctly and the embedding it flattens traces
@@ -13,7 +13,7 @@ import (
 // after the reverse dart.
 func TestRotationFaces(t *testing.T) {
 	rng := rand.New(rand.NewPCG(21, 22))
-	for _, g := range []*cert.Graph{randomPlanar(t, rng, 500, 500), grid(t, 12, 9)} {
+	for _, g := range []*graph.Graph{randomPlanar(t, rng, 500, 500), grid(t, 12, 9)} {
 		r := planarEmbedding(g)
 		if r == nil {
 			t.Fatalf("%v: no embedding", g)

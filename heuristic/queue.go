@@ -1,6 +1,6 @@
 package heuristic
 
-import "spinecert.dev/cert"
+import "spinecert.dev/graph"
 
 // queuePages assigns queue pages for a fixed spine order with the fewest
 // pages possible for that order. Two edges nest when a < c < d < b; nesting
@@ -11,7 +11,7 @@ import "spinecert.dev/cert"
 // its longest chain, reached by giving every edge 1 + the highest page of an
 // edge nesting over it. Edges are swept by left end; a Fenwick tree over
 // right ends answers "highest page among edges with a < l and b > r".
-func queuePages(g *cert.Graph, order []int32) ([]int32, int32) {
+func queuePages(g *graph.Graph, order []int32) ([]int32, int32) {
 	n := g.N()
 	ls, rs := spans(g, order)
 	sorted := sortByLeft(ls, rs, n, false)

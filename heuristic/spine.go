@@ -5,11 +5,12 @@ import (
 	"slices"
 
 	"spinecert.dev/cert"
+	"spinecert.dev/graph"
 )
 
 // spines produces the candidate spine orders for one search.
 type spines struct {
-	g    *cert.Graph
+	g    *graph.Graph
 	kind cert.Kind
 	rng  *rand.Rand
 	off  []int32 // CSR offsets of the adjacency (neighbours of v: adj[off[v]:off[v+1]])
@@ -17,7 +18,7 @@ type spines struct {
 	rot  *rotation // planar embedding for queue layouts, or nil
 }
 
-func newSpines(g *cert.Graph, kind cert.Kind, seed int64) *spines {
+func newSpines(g *graph.Graph, kind cert.Kind, seed int64) *spines {
 	n := g.N()
 	off := make([]int32, n+1)
 	for v := 0; v < n; v++ {

@@ -5,7 +5,7 @@ import (
 	"math/rand/v2"
 	"time"
 
-	"spinecert.dev/cert"
+	"spinecert.dev/graph"
 )
 
 // stackPages assigns stack pages for a fixed spine order: the better of a
@@ -15,7 +15,7 @@ import (
 //
 // A candidate whose sweep needs more than twice the pages of the best so far
 // (bestK > 0) is dropped: the result then has nil pages.
-func stackPages(g *cert.Graph, order []int32, deadline time.Time, rng *rand.Rand, bestK int32) ([]int32, int32) {
+func stackPages(g *graph.Graph, order []int32, deadline time.Time, rng *rand.Rand, bestK int32) ([]int32, int32) {
 	n := g.N()
 	ls, rs := spans(g, order)
 	limit := int32(math.MaxInt32)

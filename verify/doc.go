@@ -93,5 +93,5 @@
 // claim, is a conflict and no verdict. PageNumber builds on this: its upper
 // bound is always a directly checked layout; its lower bound is a counting
 // or Kuratowski argument (the Kuratowski subgraph checked by
-// cert.CheckKuratowski) or an "unsatisfiable" verdict for one page fewer.
+// planarcert.CheckKuratowski) or an "unsatisfiable" verdict for one page fewer.
 package verify

@@ -7,7 +7,7 @@ import (
 	"io"
 	"math"
 
-	"spinecert.dev/cert"
+	"spinecert.dev/textpos"
 )
 
 // detectWindow is how many leading bytes of a proof format detection looks at.
@@ -77,11 +77,11 @@ func (p *proofReader) where() string {
 }
 
 func (p *proofReader) textErr(line, col int64, format string, args ...any) error {
-	return fmt.Errorf("verify: %w", &cert.ParseError{File: p.name, Line: int(line), Col: int(col), Msg: fmt.Sprintf(format, args...)})
+	return fmt.Errorf("verify: %w", &textpos.Error{File: p.name, Line: int(line), Col: int(col), Msg: fmt.Sprintf(format, args...)})
 }
 
 func (p *proofReader) binErr(off int64, format string, args ...any) error {
-	return fmt.Errorf("verify: %w", &cert.ParseError{File: p.name, Msg: fmt.Sprintf("byte %d: ", off) + fmt.Sprintf(format, args...)})
+	return fmt.Errorf("verify: %w", &textpos.Error{File: p.name, Msg: fmt.Sprintf("byte %d: ", off) + fmt.Sprintf(format, args...)})
 }
 
 // next returns the next step: del reports a deletion; lits is reused by the

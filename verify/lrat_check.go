@@ -17,8 +17,8 @@ import (
 	"strconv"
 	"strings"
 
-	"spinecert.dev/cert"
 	"spinecert.dev/dimacs"
+	"spinecert.dev/textpos"
 )
 
 // LRATResult is the outcome of CheckLRAT.
@@ -210,7 +210,7 @@ func containsLit(c []int32, l int32) bool {
 
 // CheckLRAT checks an LRAT proof (text; plain, gzip or zstd) of the empty
 // clause for cnf. A rejected proof returns the result and an error wrapping
-// ErrProofRejected; unreadable input returns a *cert.ParseError.
+// ErrProofRejected; unreadable input returns a *textpos.Error.
 func CheckLRAT(ctx context.Context, cnf *dimacs.CNF, r io.Reader, name string) (*LRATResult, error) {
 	dr, err := dimacs.Decompress(r)
 	if err != nil {
@@ -226,7 +226,7 @@ func CheckLRAT(ctx context.Context, cnf *dimacs.CNF, r io.Reader, name string) (
 	br := bufio.NewReaderSize(dr, 1<<16)
 	var lineNo int64
 	parseErr := func(format string, args ...any) error {
-		return fmt.Errorf("verify: %w", &cert.ParseError{File: name, Line: int(lineNo), Msg: fmt.Sprintf(format, args...)})
+		return fmt.Errorf("verify: %w", &textpos.Error{File: name, Line: int(lineNo), Msg: fmt.Sprintf(format, args...)})
 	}
 	reject := func(text, why string) (*LRATResult, error) {
 		res.FailedLine, res.FailedText, res.Reason = lineNo, text, why

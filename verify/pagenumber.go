@@ -10,6 +10,7 @@ import (
 
 	"spinecert.dev/cert"
 	"spinecert.dev/dimacs"
+	"spinecert.dev/graph"
 	"spinecert.dev/heuristic"
 )
 
@@ -61,7 +62,7 @@ type PageNumberResult struct {
 // restricts to one of each block) or from a checked UNSAT step for one page
 // fewer than the upper bound, decided by Decide's rules. Steps go down from
 // the upper bound, so at most one UNSAT step is needed.
-func PageNumber(ctx context.Context, g *cert.Graph, opt PageNumberOptions) (*PageNumberResult, error) {
+func PageNumber(ctx context.Context, g *graph.Graph, opt PageNumberOptions) (*PageNumberResult, error) {
 	start := time.Now()
 	res := &PageNumberResult{Graph: g.ID(), Kind: opt.Kind.String(), PageNumber: -1}
 	defer func() { res.Elapsed = time.Since(start) }()

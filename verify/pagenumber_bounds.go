@@ -4,7 +4,9 @@ import (
 	"fmt"
 	"slices"
 
-	"spinecert.dev/cert"
+	"spinecert.dev/graph"
+	"spinecert.dev/planar"
+	"spinecert.dev/planar/planarcert"
 )
 
 // Bound is one side of a page-number interval with the reason it holds.
@@ -40,7 +42,7 @@ const (
 //     means outerplanar (Bernhart and Kainen 1979), so a checked Kuratowski
 //     subgraph of G gives 3, and one of G plus a vertex joined to all
 //     vertices (planar iff G is outerplanar: common practice) gives 2.
-func stackLowerBounds(g *cert.Graph) Bound {
+func stackLowerBounds(g *graph.Graph) Bound {
 	n, m := g.N(), g.M()
 	if m == 0 {
 		return Bound{0, SourceTrivial, "no edges"}
@@ -69,7 +71,7 @@ func stackLowerBounds(g *cert.Graph) Bound {
 }
 
 // trivialLowerBound is the trivial bound: 0 pages iff there are no edges.
-func trivialLowerBound(g *cert.Graph) Bound {
+func trivialLowerBound(g *graph.Graph) Bound {
 	if g.M() == 0 {
 		return Bound{0, SourceTrivial, "no edges"}
 	}
@@ -77,24 +79,24 @@ func trivialLowerBound(g *cert.Graph) Bound {
 }
 
 // checkedKuratowski returns a Kuratowski subgraph of g that passed
-// cert.CheckKuratowski, or nil when g is planar.
-func checkedKuratowski(g *cert.Graph) (*cert.Kuratowski, error) {
-	if cert.IsPlanar(g) {
+// planarcert.CheckKuratowski, or nil when g is planar.
+func checkedKuratowski(g *graph.Graph) (*planarcert.Kuratowski, error) {
+	if planar.IsPlanar(g) {
 		return nil, nil
 	}
-	k, err := cert.FindKuratowski(g)
+	k, err := planar.FindKuratowski(g)
 	if err != nil {
 		return nil, err
 	}
-	if err := cert.CheckKuratowski(g, k); err != nil {
+	if err := planarcert.CheckKuratowski(g, k); err != nil {
 		return nil, err
 	}
 	return k, nil
 }
 
 // withApex returns g plus one new vertex adjacent to every vertex.
-func withApex(g *cert.Graph) *cert.Graph {
-	b := cert.NewBuilder()
+func withApex(g *graph.Graph) *graph.Graph {
+	b := graph.NewBuilder()
 	for _, l := range g.Labels() {
 		b.Vertex(l)
 	}
@@ -125,7 +127,7 @@ func withApex(g *cert.Graph) *cert.Graph {
 // blocks returns the vertex sets of the biconnected components of g that
 // have at least one edge, largest first. Every layout of g restricts to a
 // layout of each block, so a block's lower bound is one for g.
-func blocks(g *cert.Graph) [][]int32 {
+func blocks(g *graph.Graph) [][]int32 {
 	var out [][]int32
 	edges := g.Edges()
 	for _, blk := range g.Blocks() {

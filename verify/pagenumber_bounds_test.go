@@ -3,10 +3,10 @@ package verify
 import (
 	"testing"
 
-	"spinecert.dev/cert"
+	"spinecert.dev/graph"
 )
 
-func complete(t testing.TB, n int) *cert.Graph {
+func complete(t testing.TB, n int) *graph.Graph {
 	var es [][2]int
 	for i := 0; i < n; i++ {
 		for j := i + 1; j < n; j++ {
@@ -16,16 +16,16 @@ func complete(t testing.TB, n int) *cert.Graph {
 	return numbered(t, n, es)
 }
 
-func numbered(t testing.TB, n int, es [][2]int) *cert.Graph {
+func numbered(t testing.TB, n int, es [][2]int) *graph.Graph {
 	t.Helper()
-	g, err := cert.NewNumbered(n, 1, es)
+	g, err := graph.NewNumbered(n, 1, es)
 	if err != nil {
 		t.Fatal(err)
 	}
 	return g
 }
 
-func cycle(t testing.TB, n int) *cert.Graph {
+func cycle(t testing.TB, n int) *graph.Graph {
 	var es [][2]int
 	for i := 0; i < n; i++ {
 		es = append(es, [2]int{i, (i + 1) % n})
@@ -33,7 +33,7 @@ func cycle(t testing.TB, n int) *cert.Graph {
 	return numbered(t, n, es)
 }
 
-func completeBipartite(t testing.TB, a, b int) *cert.Graph {
+func completeBipartite(t testing.TB, a, b int) *graph.Graph {
 	var es [][2]int
 	for i := 0; i < a; i++ {
 		for j := 0; j < b; j++ {
@@ -44,7 +44,7 @@ func completeBipartite(t testing.TB, a, b int) *cert.Graph {
 }
 
 // petersen is the Petersen graph: outer 5-cycle, inner pentagram, spokes.
-func petersen(t testing.TB) *cert.Graph {
+func petersen(t testing.TB) *graph.Graph {
 	var es [][2]int
 	for i := 0; i < 5; i++ {
 		es = append(es, [2]int{i, (i + 1) % 5}, [2]int{5 + i, 5 + (i+2)%5}, [2]int{i, 5 + i})
@@ -57,7 +57,7 @@ func petersen(t testing.TB) *cert.Graph {
 func TestStackLowerBounds(t *testing.T) {
 	tests := []struct {
 		name   string
-		g      *cert.Graph
+		g      *graph.Graph
 		pages  int
 		source string
 	}{

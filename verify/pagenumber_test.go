@@ -6,9 +6,10 @@ import (
 	"time"
 
 	"spinecert.dev/cert"
+	"spinecert.dev/graph"
 )
 
-func hypercube(t testing.TB, d int) *cert.Graph {
+func hypercube(t testing.TB, d int) *graph.Graph {
 	var es [][2]int
 	for v := 0; v < 1<<d; v++ {
 		for b := 0; b < d; b++ {
@@ -20,7 +21,7 @@ func hypercube(t testing.TB, d int) *cert.Graph {
 	return numbered(t, 1<<d, es)
 }
 
-func grid(t testing.TB, r, c int) *cert.Graph {
+func grid(t testing.TB, r, c int) *graph.Graph {
 	var es [][2]int
 	for i := 0; i < r; i++ {
 		for j := 0; j < c; j++ {
@@ -40,7 +41,7 @@ func grid(t testing.TB, r, c int) *cert.Graph {
 // and 4) with one new vertex in each of its six faces joined to the face's
 // corners: 11 vertices, 27 edges, maximal planar and not Hamiltonian
 // (Goldner and Harary 1975).
-func goldnerHarary(t testing.TB) *cert.Graph {
+func goldnerHarary(t testing.TB) *graph.Graph {
 	es := [][2]int{{0, 1}, {1, 2}, {0, 2}}
 	for _, apex := range []int{3, 4} {
 		es = append(es, [2]int{0, apex}, [2]int{1, apex}, [2]int{2, apex})
@@ -56,7 +57,7 @@ func goldnerHarary(t testing.TB) *cert.Graph {
 }
 
 // tree is a complete binary tree on n vertices.
-func tree(t testing.TB, n int) *cert.Graph {
+func tree(t testing.TB, n int) *graph.Graph {
 	var es [][2]int
 	for v := 1; v < n; v++ {
 		es = append(es, [2]int{(v - 1) / 2, v})
@@ -64,7 +65,7 @@ func tree(t testing.TB, n int) *cert.Graph {
 	return numbered(t, n, es)
 }
 
-func pageNumberOK(t *testing.T, g *cert.Graph, kind cert.Kind, unsatLower bool) *PageNumberResult {
+func pageNumberOK(t *testing.T, g *graph.Graph, kind cert.Kind, unsatLower bool) *PageNumberResult {
 	t.Helper()
 	res, err := PageNumber(context.Background(), g, PageNumberOptions{Kind: kind, Solvers: inProcess(t), Limit: 2 * time.Minute, UnsatLower: unsatLower})
 	if err != nil {
@@ -84,7 +85,7 @@ func pageNumberOK(t *testing.T, g *cert.Graph, kind cert.Kind, unsatLower bool) 
 func TestPageNumberKnown(t *testing.T) {
 	tests := []struct {
 		name string
-		g    *cert.Graph
+		g    *graph.Graph
 		want int
 	}{
 		{"K1", complete(t, 1), 0},
@@ -123,7 +124,7 @@ func TestPageNumberKnown(t *testing.T) {
 func TestPageNumberUnsatLower(t *testing.T) {
 	tests := []struct {
 		name string
-		g    *cert.Graph
+		g    *graph.Graph
 		want int
 	}{
 		{"K5", complete(t, 5), 3},
@@ -147,7 +148,7 @@ func TestPageNumberUnsatLower(t *testing.T) {
 func TestQueueNumberKnown(t *testing.T) {
 	tests := []struct {
 		name string
-		g    *cert.Graph
+		g    *graph.Graph
 		want int
 	}{
 		{"K4", complete(t, 4), 2},

@@ -78,7 +78,7 @@ type ProofResult struct {
 // CheckDRAT checks that proof (DRAT text or binary, plain, gzip or zstd)
 // refutes cnf. A rejected proof returns the result and an error wrapping
 // ErrProofRejected; a proof that cannot be read returns an error wrapping a
-// *cert.ParseError or the I/O error.
+// *textpos.Error or the I/O error.
 func CheckDRAT(ctx context.Context, cnf *dimacs.CNF, proof io.Reader, opt DRATOptions) (*ProofResult, error) {
 	name := opt.Name
 	if name == "" {

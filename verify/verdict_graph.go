@@ -9,6 +9,7 @@ import (
 
 	"spinecert.dev/cert"
 	"spinecert.dev/dimacs"
+	"spinecert.dev/graph"
 )
 
 // GraphOptions controls DecideLayout.
@@ -51,7 +52,7 @@ var ErrEncoderModel = errors.New("model of the CNF decodes to an invalid layout"
 // a layout decoded from the model and checked directly with cert.Validate;
 // if that check fails the verdict is turned into a conflict, since the
 // claim cannot then be trusted either way.
-func DecideLayout(ctx context.Context, g *cert.Graph, opt GraphOptions) (*GraphVerdict, error) {
+func DecideLayout(ctx context.Context, g *graph.Graph, opt GraphOptions) (*GraphVerdict, error) {
 	start := time.Now()
 	enc, err := dimacs.Encode(g, opt.Encoding)
 	if err != nil {

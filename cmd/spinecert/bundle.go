@@ -16,6 +16,7 @@ import (
 	"spinecert.dev/archive"
 	"spinecert.dev/cert"
 	"spinecert.dev/dimacs"
+	"spinecert.dev/graph"
 	"spinecert.dev/verify"
 )
 
@@ -202,11 +203,11 @@ func runBundle(cmd *cobra.Command, o *bundleOptions) error {
 	if err != nil {
 		return err
 	}
-	gf, err := cert.ParseFormat(o.graph.format)
+	gf, err := graph.ParseFormat(o.graph.format)
 	if err != nil {
 		return usageErr(err)
 	}
-	res, err := cert.ReadGraphs(bytes.NewReader(input), o.graphArg, gf)
+	res, err := graph.Read(bytes.NewReader(input), o.graphArg, gf)
 	if err != nil {
 		return usageErr(err)
 	}
@@ -224,10 +225,10 @@ func runBundle(cmd *cobra.Command, o *bundleOptions) error {
 	case len(res.Graphs) > 1:
 		// The bundle stores the input as given: keep only the chosen graph.
 		var b bytes.Buffer
-		if err := cert.WriteEdgeList(&b, res.Graphs[idx-1]); err != nil {
+		if err := graph.WriteEdgeList(&b, res.Graphs[idx-1]); err != nil {
 			return usageErr(err)
 		}
-		input, res.Format = b.Bytes(), cert.FormatEdgeList
+		input, res.Format = b.Bytes(), graph.FormatEdgeList
 	}
 	g := res.Graphs[idx-1]
 	name := o.name

@@ -9,6 +9,7 @@ import (
 	"github.com/spf13/cobra"
 
 	"spinecert.dev/cert"
+	"spinecert.dev/graph"
 )
 
 func init() { register(newCheckCmd) }
@@ -111,7 +112,7 @@ func runCheck(cmd *cobra.Command, o *checkOptions) error {
 	return nil
 }
 
-func printCheckReport(w io.Writer, g *cert.Graph, id string, raw *cert.RawLayout, rep *cert.Report, o *checkOptions) {
+func printCheckReport(w io.Writer, g *graph.Graph, id string, raw *cert.RawLayout, rep *cert.Report, o *checkOptions) {
 	if rep.OK() {
 		fmt.Fprintf(w, "layout passed: %s layout of %s (n=%d, m=%d) on %d page(s)", raw.Kind, o.graphArg, g.N(), g.M(), rep.Used)
 		if rep.Used != raw.Pages {

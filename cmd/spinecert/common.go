@@ -8,8 +8,7 @@ import (
 	"path/filepath"
 
 	"github.com/spf13/cobra"
-
-	"spinecert.dev/cert"
+	"spinecert.dev/graph"
 )
 
 // graphFlags are the flags of every command that reads a GRAPH argument.
@@ -25,12 +24,12 @@ func (f *graphFlags) add(cmd *cobra.Command) {
 }
 
 // load reads the graph chosen by the flags from path ("-" for stdin).
-func (f *graphFlags) load(cmd *cobra.Command, path string) (*cert.Graph, error) {
+func (f *graphFlags) load(cmd *cobra.Command, path string) (*graph.Graph, error) {
 	return loadGraphFormat(cmd.ErrOrStderr(), path, f.format, f.index)
 }
 
 // loadAll reads every graph in path (for commands that run over all of them).
-func (f *graphFlags) loadAll(cmd *cobra.Command, path string) ([]*cert.Graph, error) {
+func (f *graphFlags) loadAll(cmd *cobra.Command, path string) ([]*graph.Graph, error) {
 	res, err := readGraphFile(cmd.ErrOrStderr(), path, f.format)
 	if err != nil {
 		return nil, err
@@ -41,16 +40,16 @@ func (f *graphFlags) loadAll(cmd *cobra.Command, path string) ([]*cert.Graph, er
 // loadGraph reads one graph (auto-detected format) from path; index is
 // 1-based for multi-graph files, 0 when the file must hold exactly one.
 // Warnings go to stderr. Errors are input errors (exit 2).
-func loadGraph(path string, index int) (*cert.Graph, error) {
+func loadGraph(path string, index int) (*graph.Graph, error) {
 	return loadGraphFormat(os.Stderr, path, "auto", index)
 }
 
-func readGraphFile(stderr io.Writer, path, format string) (*cert.ReadResult, error) {
-	f, err := cert.ParseFormat(format)
+func readGraphFile(stderr io.Writer, path, format string) (*graph.ReadResult, error) {
+	f, err := graph.ParseFormat(format)
 	if err != nil {
 		return nil, usageErr(err)
 	}
-	res, err := cert.ReadGraphFile(path, f)
+	res, err := graph.ReadFile(path, f)
 	if err != nil {
 		return nil, usageErr(err)
 	}
@@ -60,7 +59,7 @@ func readGraphFile(stderr io.Writer, path, format string) (*cert.ReadResult, err
 	return res, nil
 }
 
-func loadGraphFormat(stderr io.Writer, path, format string, index int) (*cert.Graph, error) {
+func loadGraphFormat(stderr io.Writer, path, format string, index int) (*graph.Graph, error) {
 	res, err := readGraphFile(stderr, path, format)
 	if err != nil {
 		return nil, err

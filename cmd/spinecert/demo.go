@@ -12,6 +12,7 @@ import (
 	"github.com/spf13/cobra"
 
 	"spinecert.dev/cert"
+	"spinecert.dev/graph"
 )
 
 //go:embed demodata/*.edges
@@ -136,7 +137,7 @@ func runDemoCommand(dir string, args []string, stdout, stderr io.Writer) int {
 // oneLayerPlan writes a layout that puts every wire of the controller on
 // layer 1 in the spine order spinecert found: a claim that must be rejected.
 func oneLayerPlan(dir string) error {
-	res, err := cert.ReadGraphFile(filepath.Join(dir, "controller.edges"), cert.FormatAuto)
+	res, err := graph.ReadFile(filepath.Join(dir, "controller.edges"), graph.FormatAuto)
 	if err != nil {
 		return err
 	}

@@ -9,6 +9,9 @@ import (
 
 	"spinecert.dev/cert"
 	"spinecert.dev/draw"
+	"spinecert.dev/graph"
+	"spinecert.dev/planar"
+	"spinecert.dev/planar/planarcert"
 )
 
 func init() { register(newDrawCmd) }
@@ -142,18 +145,18 @@ func runDraw(cmd *cobra.Command, o *drawOptions) error {
 }
 
 // drawKuratowski returns the Kuratowski subgraph to highlight, checked with
-// cert.CheckKuratowski, or nil when none is asked for.
-func drawKuratowski(g *cert.Graph, o *drawOptions) (*cert.Kuratowski, error) {
+// planarcert.CheckKuratowski, or nil when none is asked for.
+func drawKuratowski(g *graph.Graph, o *drawOptions) (*planarcert.Kuratowski, error) {
 	switch {
 	case o.kuratowski:
-		k, err := cert.FindKuratowski(g)
-		if errors.Is(err, cert.ErrPlanar) {
+		k, err := planar.FindKuratowski(g)
+		if errors.Is(err, planar.ErrPlanar) {
 			return nil, usageErr(fmt.Errorf("%s: graph is planar: no Kuratowski subgraph", o.graphArg))
 		}
 		if err != nil {
 			return nil, undecided(fmt.Errorf("kuratowski: %w", err))
 		}
-		if err := cert.CheckKuratowski(g, k); err != nil {
+		if err := planarcert.CheckKuratowski(g, k); err != nil {
 			return nil, undecided(fmt.Errorf("kuratowski: the subdivision found does not pass the checker, not drawn: %w", err))
 		}
 		return k, nil
@@ -165,7 +168,7 @@ func drawKuratowski(g *cert.Graph, o *drawOptions) (*cert.Kuratowski, error) {
 		if c.Planar {
 			return nil, usageErr(fmt.Errorf("%s: certificate says planar: nothing to highlight", o.kuratowskiCert))
 		}
-		if err := cert.CheckKuratowski(g, c.Kuratowski); err != nil {
+		if err := planarcert.CheckKuratowski(g, c.Kuratowski); err != nil {
 			return nil, refuted(fmt.Errorf("%s: certificate rejected, not drawn: %w", o.kuratowskiCert, err))
 		}
 		return c.Kuratowski, nil
@@ -174,7 +177,7 @@ func drawKuratowski(g *cert.Graph, o *drawOptions) (*cert.Kuratowski, error) {
 }
 
 // drawPathEdges lists the edges on the paths of a checked subdivision.
-func drawPathEdges(g *cert.Graph, k *cert.Kuratowski) []int {
+func drawPathEdges(g *graph.Graph, k *planarcert.Kuratowski) []int {
 	var out []int
 	for _, p := range k.Paths {
 		for i := 1; i < len(p); i++ {

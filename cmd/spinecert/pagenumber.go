@@ -12,6 +12,7 @@ import (
 
 	"spinecert.dev/cert"
 	"spinecert.dev/dimacs"
+	"spinecert.dev/graph"
 	"spinecert.dev/verify"
 )
 
@@ -145,7 +146,7 @@ func runPageNumber(cmd *cobra.Command, o *pageNumberOptions) error {
 	return nil
 }
 
-func writePageNumberJSON(w io.Writer, g *cert.Graph, res *verify.PageNumberResult, planarity *planarityRecord) error {
+func writePageNumberJSON(w io.Writer, g *graph.Graph, res *verify.PageNumberResult, planarity *planarityRecord) error {
 	type evidence struct {
 		Lower  verify.Bound            `json:"lower"`
 		Upper  verify.Bound            `json:"upper"`

@@ -6,8 +6,9 @@ import (
 	"io"
 
 	"github.com/spf13/cobra"
-
-	"spinecert.dev/cert"
+	"spinecert.dev/graph"
+	"spinecert.dev/planar"
+	"spinecert.dev/planar/planarcert"
 )
 
 func init() { register(newPlanarCmd) }
@@ -98,16 +99,16 @@ func runPlanar(cmd *cobra.Command, o *planarOptions) error {
 	if err != nil {
 		return err
 	}
-	res, err := cert.Planarity(g)
+	res, err := planar.Decide(g)
 	if err != nil {
 		return undecided(fmt.Errorf("planarity: %w", err))
 	}
-	if err := cert.CheckPlanarCert(g, res.Cert); err != nil {
+	if err := planarcert.Check(g, res.Cert); err != nil {
 		return undecided(fmt.Errorf("planarity: the certificate found does not pass the checker: %w", err))
 	}
 	if o.out != "" {
 		err := writeFileAtomic(o.out, cmd.OutOrStdout(), func(w io.Writer) error {
-			return cert.WritePlanarCert(w, g, res.Cert)
+			return planarcert.Write(w, g, res.Cert)
 		})
 		if err != nil {
 			return err
@@ -124,7 +125,7 @@ func runPlanar(cmd *cobra.Command, o *planarOptions) error {
 	return nil
 }
 
-func planarSummary(g *cert.Graph, c *cert.PlanarCert) planarReport {
+func planarSummary(g *graph.Graph, c *planarcert.Cert) planarReport {
 	rep := planarReport{Graph: g.ID(), Vertices: g.N(), Edges: g.M(), Planar: c.Planar, Checked: true}
 	if k := c.Kuratowski; k != nil {
 		rep.Kuratowski = k.Kind.String()
@@ -168,7 +169,7 @@ func runPlanarCheck(cmd *cobra.Command, o *planarOptions) error {
 		return err
 	}
 	rep := planarSummary(g, c)
-	if err := cert.CheckPlanarCert(g, c); err != nil {
+	if err := planarcert.Check(g, c); err != nil {
 		rep.Checked = false
 		rep.Rejected = err.Error()
 		if perr := printPlanar(cmd, o, rep, false); perr != nil {

@@ -4,26 +4,28 @@ import (
 	"fmt"
 	"os"
 
-	"spinecert.dev/cert"
+	"spinecert.dev/graph"
+	"spinecert.dev/planar"
+	"spinecert.dev/planar/planarcert"
 )
 
 // planarityRecord is the planarity verdict that pagenumber and bundle record:
-// found by cert.Planarity and always checked by the independent certificate
+// found by planar.Decide and always checked by the independent certificate
 // checker before it is reported.
 type planarityRecord struct {
 	Planar      bool   `json:"planar"`
 	Certificate string `json:"certificate"` // "embedding", "K5 subdivision" or "K3,3 subdivision"
 	Checked     bool   `json:"checked"`
-	cert        *cert.PlanarCert
+	cert        *planarcert.Cert
 }
 
 // checkedPlanarity decides planarity and checks the certificate.
-func checkedPlanarity(g *cert.Graph) (*planarityRecord, error) {
-	pr, err := cert.Planarity(g)
+func checkedPlanarity(g *graph.Graph) (*planarityRecord, error) {
+	pr, err := planar.Decide(g)
 	if err != nil {
 		return nil, fmt.Errorf("planarity: %w", err)
 	}
-	if err := cert.CheckPlanarCert(g, pr.Cert); err != nil {
+	if err := planarcert.Check(g, pr.Cert); err != nil {
 		return nil, undecided(fmt.Errorf("planarity certificate rejected by its checker: %w", err))
 	}
 	rec := &planarityRecord{Planar: pr.Planar, Certificate: "embedding", Checked: true, cert: pr.Cert}
@@ -53,13 +55,13 @@ func requirePlanar(name string, p *planarityRecord) error {
 
 // readPlanarCertFile reads a planarity certificate for g from path; errors
 // are input errors (exit 2). The certificate is not checked here.
-func readPlanarCertFile(path string, g *cert.Graph) (*cert.PlanarCert, error) {
+func readPlanarCertFile(path string, g *graph.Graph) (*planarcert.Cert, error) {
 	f, err := os.Open(path)
 	if err != nil {
 		return nil, usageErr(err)
 	}
 	defer f.Close()
-	c, err := cert.ReadPlanarCert(f, path, g)
+	c, err := planarcert.Read(f, path, g)
 	if err != nil {
 		return nil, usageErr(err)
 	}

@@ -25,7 +25,7 @@ func TestScripts(t *testing.T) {
 	testscript.Run(t, testscript.Params{
 		Dir: "testdata/script",
 		// [tool:NAME] is true when NAME is on PATH; when it is not and
-		// SPINECERT_RESPINECERT_TOOLS=1, the scenario fails instead of skipping.
+		// SPINECERT_REQUIRE_TOOLS=1, the scenario fails instead of skipping.
 		Condition: func(cond string) (bool, error) {
 			name, ok := strings.CutPrefix(cond, "tool:")
 			if !ok {
@@ -40,7 +40,7 @@ func TestScripts(t *testing.T) {
 			return true, nil
 		},
 		Setup: func(env *testscript.Env) error {
-			env.Setenv("SPINECERT_RESPINECERT_TOOLS", os.Getenv("SPINECERT_RESPINECERT_TOOLS"))
+			env.Setenv("SPINECERT_REQUIRE_TOOLS", os.Getenv("SPINECERT_REQUIRE_TOOLS"))
 			return nil
 		},
 	})

@@ -1,5 +1,5 @@
 // Package testtools lets tests find outside reference tools (Debian's SAT
-// solvers, nauty) and skip when they are absent, unless SPINECERT_RESPINECERT_TOOLS=1
+// solvers, nauty) and skip when they are absent, unless SPINECERT_REQUIRE_TOOLS=1
 // asks for a failure instead (CI sets it after installing the tools).
 package testtools
 
@@ -10,11 +10,11 @@ import (
 )
 
 // RequireEnv is the environment variable that turns missing-tool skips into failures.
-const RequireEnv = "SPINECERT_RESPINECERT_TOOLS"
+const RequireEnv = "SPINECERT_REQUIRE_TOOLS"
 
 // Require returns the path of program on PATH. When it is absent the test is
 // skipped with a message naming the Debian package, or fails when
-// SPINECERT_RESPINECERT_TOOLS=1.
+// SPINECERT_REQUIRE_TOOLS=1.
 func Require(t testing.TB, program, debianPackage string) string {
 	t.Helper()
 	path, err := exec.LookPath(program)

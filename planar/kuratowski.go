@@ -1,16 +1,19 @@
-package cert
+package planar
 
 import (
 	"cmp"
 	"errors"
 	"fmt"
 	"slices"
+
+	"spinecert.dev/graph"
+	"spinecert.dev/planar/planarcert"
 )
 
 // ErrPlanar is returned (wrapped) by FindKuratowski when the graph is planar.
 var ErrPlanar = errors.New("graph is planar")
 
-// FindKuratowski returns a subdivision of K5 or K3,3 in g, found by edge
+// FindKuratowski returns a subdivision of planarcert.K5 or K3,3 in g, found by edge
 // deletion guided by the planarity test:
 //
 // The work graph consists of "required" edges, which every non-planar
@@ -22,15 +25,15 @@ var ErrPlanar = errors.New("graph is planar")
 // planarity: vertices of degree one are pruned, vertices of degree two are
 // suppressed (their two edges merge into one edge standing for a path), and
 // parallel edges are merged. When the required edges alone are not planar
-// they form an edge-minimal non-planar subgraph, which by Kuratowski's
-// theorem is a subdivision of K5 or K3,3. The candidates start in breadth-first
+// they form an edge-minimal non-planar subgraph, which by planarcert.Kuratowski's
+// theorem is a subdivision of planarcert.K5 or K3,3. The candidates start in breadth-first
 // order, so the first prefix found is a small region of the graph when the
 // obstruction is local.
-func FindKuratowski(g *Graph) (*Kuratowski, error) {
+func FindKuratowski(g *graph.Graph) (*planarcert.Kuratowski, error) {
 	lg, perm := lrOf(g)
 	r := lrTest(lg, false)
 	if r.planar {
-		return nil, fmt.Errorf("cert: no Kuratowski subgraph: %w", ErrPlanar)
+		return nil, fmt.Errorf("cert: no planarcert.Kuratowski subgraph: %w", ErrPlanar)
 	}
 	fail := r.fail
 	if fail >= 0 {
@@ -41,7 +44,7 @@ func FindKuratowski(g *Graph) (*Kuratowski, error) {
 
 // kuratowskiFrom runs the search on the non-planar g, starting the first
 // breadth-first order at fail (or vertex 0 when fail is -1).
-func kuratowskiFrom(g *Graph, fail int32) (*Kuratowski, error) {
+func kuratowskiFrom(g *graph.Graph, fail int32) (*planarcert.Kuratowski, error) {
 	ks := newKurSearch(g, max(fail, 0))
 	ks.run()
 	return ks.readOff()
@@ -50,7 +53,7 @@ func kuratowskiFrom(g *Graph, fail int32) (*Kuratowski, error) {
 // kurSearch holds the work graph. Super-edges 0..m-1 are the edges of g;
 // later ones stand for the concatenation of two earlier ones (kids).
 type kurSearch struct {
-	g        *Graph
+	g        *graph.Graph
 	ea, eb   []int32    // ends of each super-edge (vertices of g)
 	kids     [][2]int32 // for super-edge m+i: the two it merges
 	into     []int32    // what a dead super-edge became: another id, or -1 if deleted
@@ -64,7 +67,7 @@ type kurSearch struct {
 	tests, rounds int
 }
 
-func newKurSearch(g *Graph, center int32) *kurSearch {
+func newKurSearch(g *graph.Graph, center int32) *kurSearch {
 	m := g.M()
 	ks := &kurSearch{g: g, ea: make([]int32, m), eb: make([]int32, m), into: make([]int32, m),
 		alive: make([]bool, m), req: make([]bool, m),
@@ -81,7 +84,7 @@ func newKurSearch(g *Graph, center int32) *kurSearch {
 // bfsEdgeOrder lists the edges of g by the later breadth-first rank of their
 // ends, the search starting at center (the vertex where the planarity test
 // found its conflict) and then at the other components.
-func bfsEdgeOrder(g *Graph, center int32) []int32 {
+func bfsEdgeOrder(g *graph.Graph, center int32) []int32 {
 	n := g.N()
 	rank := make([]int32, n)
 	for i := range rank {
@@ -362,7 +365,7 @@ func (ks *kurSearch) reduce() {
 }
 
 // readOff expands the required super-edges and reads off the subdivision.
-func (ks *kurSearch) readOff() (*Kuratowski, error) {
+func (ks *kurSearch) readOff() (*planarcert.Kuratowski, error) {
 	m := int32(ks.g.M())
 	adj := make(map[int32][]int32)
 	var stack []int32
@@ -392,12 +395,12 @@ func (ks *kurSearch) readOff() (*Kuratowski, error) {
 	for i, b := range branch {
 		isBranch[b] = i
 	}
-	var k Kuratowski
+	var k planarcert.Kuratowski
 	switch {
 	case len(branch) == 5 && allDegree(adj, branch, 4):
-		k.Kind = K5
+		k.Kind = planarcert.K5
 	case len(branch) == 6 && allDegree(adj, branch, 3):
-		k.Kind = K33
+		k.Kind = planarcert.K33
 	default:
 		return nil, fmt.Errorf("cert: internal error: minimal non-planar subgraph has %d branch vertices", len(branch))
 	}
@@ -429,7 +432,7 @@ func (ks *kurSearch) readOff() (*Kuratowski, error) {
 		}
 	}
 	k.Branch = branch
-	if k.Kind == K33 {
+	if k.Kind == planarcert.K33 {
 		side := make([]int, len(branch))
 		for i := range side {
 			side[i] = -1

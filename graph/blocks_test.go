@@ -1,12 +1,14 @@
-package cert
+package graph_test
 
 import (
 	"math/rand/v2"
 	"slices"
 	"testing"
+
+	"spinecert.dev/internal/fixture"
 )
 
-// TestBlocksAgainstCycles compares Blocks with the definition: two edges are
+// TestBlocksAgainstCycles compares graph.Blocks with the definition: two edges are
 // in the same block exactly when they lie on a common simple cycle, and a
 // bridge is a block of its own (F. Harary, "Graph Theory", 1969, ch. 3; the
 // edge relation "on a common cycle" is an equivalence whose classes are the
@@ -14,7 +16,7 @@ import (
 func TestBlocksAgainstCycles(t *testing.T) {
 	r := rand.New(rand.NewPCG(11, 12))
 	for trial := 0; trial < 300; trial++ {
-		g := randomLayoutGraph(r, 1+r.IntN(7), r.Float64())
+		g := fixture.RandomGNP(r, 1+r.IntN(7), r.Float64())
 		m := g.M()
 		parent := make([]int, m)
 		for i := range parent {

@@ -1,4 +1,4 @@
-package cert
+package planarcert
 
 import (
 	"bufio"
@@ -9,15 +9,18 @@ import (
 	"io"
 	"strconv"
 	"unicode/utf8"
+
+	"spinecert.dev/graph"
+	"spinecert.dev/textpos"
 )
 
-// PlanarCertFormat is the format name in planarity certificate files.
-const PlanarCertFormat = "spinecert-planarity"
+// Format is the format name in planarity certificate files.
+const Format = "spinecert-planarity"
 
-// PlanarCertVersion is the version of the planarity certificate format.
-const PlanarCertVersion = 1
+// Version is the version of the planarity certificate format.
+const Version = 1
 
-// WritePlanarCert writes c for g as JSON (format spinecert-planarity, version 1):
+// Write writes c for g as JSON (format spinecert-planarity, version 1):
 //
 //	{"format":"spinecert-planarity","version":1,"graph":ID,"vertices":N,"edges":M,
 //	 "planar":true,"rotation":[["a","b","c"],...]}
@@ -26,13 +29,13 @@ const PlanarCertVersion = 1
 //
 // Each rotation entry is a vertex followed by its neighbours in cyclic order;
 // every vertex has an entry, in vertex order. The output is the same bytes for the same certificate.
-func WritePlanarCert(w io.Writer, g *Graph, c *PlanarCert) error {
+func Write(w io.Writer, g *graph.Graph, c *Cert) error {
 	if c == nil || (c.Planar && c.Embedding == nil) || (!c.Planar && c.Kuratowski == nil) {
 		return errors.New("cert: incomplete planarity certificate")
 	}
 	bw := bufio.NewWriterSize(w, 1<<16)
 	fmt.Fprintf(bw, "{\n  \"format\": %q,\n  \"version\": %d,\n  \"graph\": %q,\n  \"vertices\": %d,\n  \"edges\": %d,\n",
-		PlanarCertFormat, PlanarCertVersion, g.ID(), g.N(), g.M())
+		Format, Version, g.ID(), g.N(), g.M())
 	var buf []byte
 	str := func(v int32) {
 		buf = planarAppendJSON(buf[:0], g.Label(v))
@@ -115,19 +118,19 @@ type planarFile struct {
 	} `json:"kuratowski"`
 }
 
-// ReadPlanarCert reads a planarity certificate for g written by
-// WritePlanarCert (or by anything else in its format); name is used in error
-// messages, which are *ParseError values with line and column. Reading
+// Read reads a planarity certificate for g written by
+// Write (or by anything else in its format); name is used in error
+// messages, which are *textpos.Error values with line and column. Reading
 // resolves labels against g and checks that the certificate is for g; it
-// does not check the certificate itself (CheckPlanarCert does).
-func ReadPlanarCert(r io.Reader, name string, g *Graph) (*PlanarCert, error) {
+// does not check the certificate itself (Check does).
+func Read(r io.Reader, name string, g *graph.Graph) (*Cert, error) {
 	data, err := io.ReadAll(r)
 	if err != nil {
 		return nil, fmt.Errorf("cert: reading %s: %w", name, err)
 	}
 	perr := func(off int64, format string, args ...any) error {
 		line, col := offsetPosition(data, off)
-		return &ParseError{File: name, Line: line, Col: col, Msg: fmt.Sprintf(format, args...)}
+		return &textpos.Error{File: name, Line: line, Col: col, Msg: fmt.Sprintf(format, args...)}
 	}
 	dec := json.NewDecoder(bytes.NewReader(data))
 	dec.DisallowUnknownFields()
@@ -139,10 +142,10 @@ func ReadPlanarCert(r io.Reader, name string, g *Graph) (*PlanarCert, error) {
 		return nil, perr(dec.InputOffset(), "expected end of input after the certificate object")
 	}
 	switch {
-	case f.Format == nil || *f.Format != PlanarCertFormat:
-		return nil, perr(0, "expected \"format\": %q", PlanarCertFormat)
-	case f.Version == nil || *f.Version != PlanarCertVersion:
-		return nil, perr(0, "expected \"version\": %d", PlanarCertVersion)
+	case f.Format == nil || *f.Format != Format:
+		return nil, perr(0, "expected \"format\": %q", Format)
+	case f.Version == nil || *f.Version != Version:
+		return nil, perr(0, "expected \"version\": %d", Version)
 	case f.Graph == nil:
 		return nil, perr(0, "expected \"graph\": the graph's identity")
 	case *f.Graph != g.ID():
@@ -165,7 +168,7 @@ func ReadPlanarCert(r io.Reader, name string, g *Graph) (*PlanarCert, error) {
 		if err != nil {
 			return nil, err
 		}
-		return &PlanarCert{Planar: true, Embedding: emb}, nil
+		return &Cert{Planar: true, Embedding: emb}, nil
 	}
 	if f.Kuratowski == nil || f.Rotation != nil {
 		return nil, perr(0, "a non-planar certificate has \"kuratowski\" and no \"rotation\"")
@@ -200,11 +203,11 @@ func ReadPlanarCert(r io.Reader, name string, g *Graph) (*PlanarCert, error) {
 		}
 		k.Paths = append(k.Paths, vs)
 	}
-	return &PlanarCert{Kuratowski: k}, nil
+	return &Cert{Kuratowski: k}, nil
 }
 
 // readRotation reads [["vertex", "neighbour", ...], ...].
-func readRotation(raw json.RawMessage, g *Graph, perr func(int64, string, ...any) error) (*Embedding, error) {
+func readRotation(raw json.RawMessage, g *graph.Graph, perr func(int64, string, ...any) error) (*Embedding, error) {
 	var entries [][]string
 	if err := json.Unmarshal(raw, &entries); err != nil {
 		var syn *json.SyntaxError
@@ -251,7 +254,7 @@ func offsetPosition(data []byte, off int64) (int, int) {
 	return line, col
 }
 
-// jsonError turns an encoding/json error into a *ParseError.
+// jsonError turns an encoding/json error into a *textpos.Error.
 func jsonError(data []byte, name string, err error, fallback int64) error {
 	off := fallback
 	var syn *json.SyntaxError
@@ -267,5 +270,5 @@ func jsonError(data []byte, name string, err error, fallback int64) error {
 		msg = "expected a JSON object, found end of input"
 	}
 	line, col := offsetPosition(data, off)
-	return &ParseError{File: name, Line: line, Col: col, Msg: msg}
+	return &textpos.Error{File: name, Line: line, Col: col, Msg: msg}
 }

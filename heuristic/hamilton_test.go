@@ -1,18 +1,24 @@
-package cert
+package heuristic
 
 import (
 	"math/rand/v2"
 	"testing"
+
+	"spinecert.dev/cert"
+	"spinecert.dev/graph"
+	"spinecert.dev/internal/fixture"
+	"spinecert.dev/planar"
+	"spinecert.dev/planar/planarcert"
 )
 
-// plCheckTwoPage validates a layout with the layout checker (Validate) and
+// plCheckTwoPage validates a layout with the layout checker (cert.Validate) and
 // checks that the spine is the Hamiltonian cycle.
-func plCheckTwoPage(t *testing.T, g *Graph, l *Layout) {
+func plCheckTwoPage(t *testing.T, g *graph.Graph, l *cert.Layout) {
 	t.Helper()
-	if l.Kind != Stack || len(l.PageKinds) != 2 {
+	if l.Kind != cert.Stack || len(l.PageKinds) != 2 {
 		t.Fatalf("%v: layout kind %v pages %d", g, l.Kind, len(l.PageKinds))
 	}
-	if r := Validate(g, l); !r.OK() {
+	if r := cert.Validate(g, l); !r.OK() {
 		t.Fatalf("%v: layout rejected: %+v", g, r.Problems)
 	}
 	n := len(l.Order)
@@ -32,8 +38,8 @@ func TestHamiltonianTwoPage(t *testing.T) {
 	for i := 1; i <= 9; i++ {
 		wheel = append(wheel, [2]int{0, i}, [2]int{i, i%9 + 1})
 	}
-	octahedron := plNumbered(6, [][2]int{{0, 1}, {0, 2}, {0, 3}, {0, 4}, {5, 1}, {5, 2}, {5, 3}, {5, 4}, {1, 2}, {2, 3}, {3, 4}, {4, 1}})
-	gs := []*Graph{plGridGraph(4, 6), plGridGraph(10, 10), plNumbered(10, wheel), octahedron, plCompleteGraph(4), plCompleteBipartite(2, 2)}
+	octahedron := fixture.Numbered(6, [][2]int{{0, 1}, {0, 2}, {0, 3}, {0, 4}, {5, 1}, {5, 2}, {5, 3}, {5, 4}, {1, 2}, {2, 3}, {3, 4}, {4, 1}})
+	gs := []*graph.Graph{fixture.Grid(4, 6), fixture.Grid(10, 10), fixture.Numbered(10, wheel), octahedron, fixture.Complete(4), fixture.CompleteBipartite(2, 2)}
 	for _, g := range gs {
 		l, ok := HamiltonianTwoPage(g, nil, 1_000_000)
 		if !ok {
@@ -44,8 +50,8 @@ func TestHamiltonianTwoPage(t *testing.T) {
 	rng := rand.New(rand.NewPCG(5, 5))
 	found := 0
 	for i := 0; i < 30; i++ {
-		g := plRandomTriangulation(rng, 10+rng.IntN(40))
-		emb, _ := PlanarEmbedding(g)
+		g := fixture.RandomTriangulation(rng, 10+rng.IntN(40))
+		emb, _ := planar.Embed(g)
 		if l, ok := HamiltonianTwoPage(g, emb, 200_000); ok {
 			plCheckTwoPage(t, g, l)
 			found++
@@ -60,7 +66,7 @@ func TestHamiltonianTwoPage(t *testing.T) {
 // of vertices is bipartite with unequal sides (common practice, no source),
 // K2,3 likewise, and the Goldner–Harary graph is a non-Hamiltonian maximal
 // planar graph (Goldner & Harary 1975); a path has a vertex of degree one;
-// K5 is not planar.
+// planarcert.K5 is not planar.
 func TestHamiltonianTwoPageNone(t *testing.T) {
 	// Goldner–Harary: the triangular bipyramid (triangle 0 1 2, apexes 3 and
 	// 4) with a vertex stacked into each of its six faces; 11 vertices, 27
@@ -73,11 +79,11 @@ func TestHamiltonianTwoPageNone(t *testing.T) {
 			e = append(e, [2]int{5 + i, x})
 		}
 	}
-	gh := plNumbered(11, e)
-	if gh.M() != 27 || !IsMaximalPlanar(gh) {
-		t.Fatalf("Goldner–Harary graph: %d edges, maximal planar %v", gh.M(), IsMaximalPlanar(gh))
+	gh := fixture.Numbered(11, e)
+	if gh.M() != 27 || !planar.IsMaximal(gh) {
+		t.Fatalf("Goldner–Harary graph: %d edges, maximal planar %v", gh.M(), planar.IsMaximal(gh))
 	}
-	for _, g := range []*Graph{plGridGraph(3, 3), plCompleteBipartite(2, 3), plGridGraph(1, 5), plCompleteGraph(5), gh} {
+	for _, g := range []*graph.Graph{fixture.Grid(3, 3), fixture.CompleteBipartite(2, 3), fixture.Grid(1, 5), fixture.Complete(5), gh} {
 		if _, ok := HamiltonianTwoPage(g, nil, 100_000); ok {
 			t.Fatalf("%v: layout from a non-Hamiltonian graph", g)
 		}
@@ -85,27 +91,27 @@ func TestHamiltonianTwoPageNone(t *testing.T) {
 }
 
 func TestIsMaximalPlanarSmall(t *testing.T) {
-	if !IsMaximalPlanar(plNumbered(2, [][2]int{{0, 1}})) || IsMaximalPlanar(plNumbered(2, nil)) {
+	if !planar.IsMaximal(fixture.Numbered(2, [][2]int{{0, 1}})) || planar.IsMaximal(fixture.Numbered(2, nil)) {
 		t.Fatal("two-vertex cases wrong")
 	}
 }
 
 // A rotation system that is not an embedding of the graph gives no layout.
 func TestHamiltonianTwoPageBadEmbedding(t *testing.T) {
-	g := plGridGraph(4, 4)
-	emb, _ := PlanarEmbedding(g)
-	bad := &Embedding{Rotation: make([][]int32, g.N())}
+	g := fixture.Grid(4, 4)
+	emb, _ := planar.Embed(g)
+	bad := &planarcert.Embedding{Rotation: make([][]int32, g.N())}
 	for v, r := range emb.Rotation {
 		bad.Rotation[v] = append([]int32(nil), r...)
 	}
 	r := bad.Rotation[5]
 	r[1] = r[0] // a repeated neighbour; one edge at vertex 5 is never placed
 	if l, ok := HamiltonianTwoPage(g, bad, 100_000); ok {
-		if rep := Validate(g, l); !rep.OK() {
+		if rep := cert.Validate(g, l); !rep.OK() {
 			t.Fatalf("invalid layout returned: %+v", rep.Problems)
 		}
 	}
-	if _, ok := HamiltonianTwoPage(g, &Embedding{}, 100_000); ok {
+	if _, ok := HamiltonianTwoPage(g, &planarcert.Embedding{}, 100_000); ok {
 		t.Fatal("layout from an empty rotation system")
 	}
 }

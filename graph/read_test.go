@@ -1,4 +1,4 @@
-package cert
+package graph
 
 import (
 	"bytes"
@@ -14,12 +14,13 @@ import (
 	"testing"
 
 	"spinecert.dev/internal/testtools"
+	"spinecert.dev/textpos"
 )
 
 // ioRead reads src with the given format and fails the test on error.
 func ioRead(t testing.TB, src string, f Format) *ReadResult {
 	t.Helper()
-	res, err := ReadGraphs(strings.NewReader(src), "test", f)
+	res, err := Read(strings.NewReader(src), "test", f)
 	if err != nil {
 		t.Fatalf("reading %q as %v: %v", src, f, err)
 	}
@@ -65,7 +66,7 @@ func TestFormatsTxtExamples(t *testing.T) {
 	}{
 		// formats.txt: n=5 with edges 0-2, 0-4, 1-3, 3-4 is "DQc".
 		{"DQc", FormatGraph6, 5, [][2]int{{0, 2}, {0, 4}, {1, 3}, {3, 4}}},
-		// K4 = "C~" and K5 = "D~{": derived from the graph6 definition in
+		// K4 = "C~" and planarcert.K5 = "D~{": derived from the graph6 definition in
 		// formats.txt (N(4) = 'C', six 1-bits = '~'; N(5) = 'D', ten 1-bits
 		// padded with two 0-bits = '~' '{').
 		{"C~", FormatGraph6, 4, ioComplete(4)},
@@ -170,7 +171,7 @@ func TestSparse6Padding(t *testing.T) {
 	if res := ioRead(t, ":CoJ\n", FormatSparse6); res.Graphs[0].ID() != g.ID() {
 		t.Errorf(":CoJ decodes to %v", ioIndexEdges(res.Graphs[0]))
 	}
-	if _, err := ReadGraphs(strings.NewReader(":CoN\n"), "pad", FormatSparse6); err == nil || !strings.Contains(err.Error(), "self-loop at vertex 3") {
+	if _, err := Read(strings.NewReader(":CoN\n"), "pad", FormatSparse6); err == nil || !strings.Contains(err.Error(), "self-loop at vertex 3") {
 		t.Errorf(":CoN: error %v, want the self-loop the padding rule avoids", err)
 	}
 	// Round trips over the four special (n, k) and their neighbourhoods.
@@ -242,7 +243,7 @@ func TestDetectLongGraph6(t *testing.T) {
 	if len(line) <= detectPeek {
 		t.Fatalf("test graph6 line has %d bytes, not longer than %d", len(line), detectPeek)
 	}
-	res, err := ReadGraphs(bytes.NewReader(append(line, '\n')), "big", FormatAuto)
+	res, err := Read(bytes.NewReader(append(line, '\n')), "big", FormatAuto)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -477,10 +478,10 @@ func TestSparse6MultiEdgesAndLoops(t *testing.T) {
 		}
 	}
 	loops := ioTool(t, nil, genrang, "-q", "-S12", "-l1", "-P1/2", "10", "5")
-	_, err := ReadGraphs(bytes.NewReader(loops), "loops.s6", FormatSparse6)
-	var pe *ParseError
+	_, err := Read(bytes.NewReader(loops), "loops.s6", FormatSparse6)
+	var pe *textpos.Error
 	if !errors.As(err, &pe) || pe.Line < 1 || !strings.Contains(pe.Msg, "self-loop") {
-		t.Errorf("sparse6 with loops: error %v, want a self-loop ParseError with a line", err)
+		t.Errorf("sparse6 with loops: error %v, want a self-loop textpos.Error with a line", err)
 	}
 }
 
@@ -527,10 +528,10 @@ func TestBadInputs(t *testing.T) {
 		path := filepath.Join("testdata", "graphs", "bad", c.file)
 		seen[c.file] = true
 		for _, f := range []Format{c.f, FormatAuto} {
-			_, err := ReadGraphFile(path, f)
-			var pe *ParseError
+			_, err := ReadFile(path, f)
+			var pe *textpos.Error
 			if !errors.As(err, &pe) {
-				t.Errorf("%s (%v): error %v, want a *ParseError", c.file, f, err)
+				t.Errorf("%s (%v): error %v, want a *textpos.Error", c.file, f, err)
 				continue
 			}
 			prefix := path + ":"
@@ -573,7 +574,7 @@ func TestGoodFiles(t *testing.T) {
 		{"formats_examples.g6", FormatGraph6, 3, 5, 4, false},
 	}
 	for _, c := range cases {
-		res, err := ReadGraphFile(filepath.Join("testdata", "graphs", c.file), FormatAuto)
+		res, err := ReadFile(filepath.Join("testdata", "graphs", c.file), FormatAuto)
 		if err != nil {
 			t.Errorf("%s: %v", c.file, err)
 			continue
@@ -616,7 +617,7 @@ func BenchmarkReadEdgeList(b *testing.B) {
 	b.SetBytes(st.Size())
 	b.ResetTimer()
 	for i := 0; i < b.N; i++ {
-		if _, err := ReadGraphFile(path, FormatEdgeList); err != nil {
+		if _, err := ReadFile(path, FormatEdgeList); err != nil {
 			b.Fatal(err)
 		}
 	}

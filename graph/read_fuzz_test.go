@@ -1,4 +1,4 @@
-package cert
+package graph
 
 import (
 	"bytes"
@@ -7,10 +7,12 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
+
+	"spinecert.dev/textpos"
 )
 
 // The fuzz targets check that the readers never panic, that every failure is
-// a *ParseError, and that what they accept round-trips: parse, write, parse
+// a *textpos.Error, and that what they accept round-trips: parse, write, parse
 // gives the same graphs (the same IDs) and writing again gives the same bytes.
 // Seeds: testdata/fuzz/FuzzRead*/ and the files of testdata/graphs.
 
@@ -33,15 +35,15 @@ func ioFuzzSeeds(f *testing.F, exts ...string) {
 // ioFuzzRoundTrip reads data as format, then checks the round trip through write.
 func ioFuzzRoundTrip(t *testing.T, data []byte, format Format, write func(*bytes.Buffer, *Graph) error) {
 	// Detection must not panic either, whatever it decides.
-	if _, err := ReadGraphs(bytes.NewReader(data), "fuzz", FormatAuto); err != nil {
-		var pe *ParseError
+	if _, err := Read(bytes.NewReader(data), "fuzz", FormatAuto); err != nil {
+		var pe *textpos.Error
 		if !errors.As(err, &pe) {
 			t.Fatalf("auto-detected read failed without a ParseError: %v", err)
 		}
 	}
-	res, err := ReadGraphs(bytes.NewReader(data), "fuzz", format)
+	res, err := Read(bytes.NewReader(data), "fuzz", format)
 	if err != nil {
-		var pe *ParseError
+		var pe *textpos.Error
 		if !errors.As(err, &pe) {
 			t.Fatalf("read failed without a ParseError: %v", err)
 		}
@@ -53,7 +55,7 @@ func ioFuzzRoundTrip(t *testing.T, data []byte, format Format, write func(*bytes
 			t.Fatalf("cannot write what was read (%v): %v", g, err)
 		}
 	}
-	res2, err := ReadGraphs(bytes.NewReader(out.Bytes()), "fuzz-out", format)
+	res2, err := Read(bytes.NewReader(out.Bytes()), "fuzz-out", format)
 	if err != nil {
 		t.Fatalf("cannot read what was written: %v\n%q", err, out.Bytes())
 	}

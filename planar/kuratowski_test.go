@@ -1,4 +1,4 @@
-package cert
+package planar
 
 import (
 	"bytes"
@@ -7,31 +7,35 @@ import (
 	"slices"
 	"strings"
 	"testing"
+
+	"spinecert.dev/graph"
+	"spinecert.dev/internal/fixture"
+	"spinecert.dev/planar/planarcert"
 )
 
-func plNonPlanarCert(t *testing.T, g *Graph) *Kuratowski {
+func plNonPlanarCert(t *testing.T, g *graph.Graph) *planarcert.Kuratowski {
 	t.Helper()
-	res, err := Planarity(g)
+	res, err := Decide(g)
 	if err != nil {
 		t.Fatal(err)
 	}
 	if res.Planar {
 		t.Fatalf("%v found planar", g)
 	}
-	if err := CheckPlanarCert(g, res.Cert); err != nil {
+	if err := planarcert.Check(g, res.Cert); err != nil {
 		t.Fatalf("%v: %v", g, err)
 	}
 	return res.Cert.Kuratowski
 }
 
-// K5 and K3,3 are not planar and are their own Kuratowski subgraphs
-// (K. Kuratowski, "Sur le problème des courbes gauches en topologie",
+// planarcert.K5 and K3,3 are not planar and are their own planarcert.Kuratowski subgraphs
+// (K. planarcert.Kuratowski, "Sur le problème des courbes gauches en topologie",
 // Fund. Math. 15, 1930).
 func TestKuratowskiSelf(t *testing.T) {
 	for _, c := range []struct {
-		g    *Graph
-		kind KuratowskiKind
-	}{{plCompleteGraph(5), K5}, {plCompleteBipartite(3, 3), K33}} {
+		g    *graph.Graph
+		kind planarcert.KuratowskiKind
+	}{{fixture.Complete(5), planarcert.K5}, {fixture.CompleteBipartite(3, 3), planarcert.K33}} {
 		k := plNonPlanarCert(t, c.g)
 		if k.Kind != c.kind {
 			t.Fatalf("%v: kind %s, want %s", c.g, k.Kind, c.kind)
@@ -46,7 +50,7 @@ func TestKuratowskiSelf(t *testing.T) {
 		if used != c.g.M() {
 			t.Fatalf("%v: %d paths for %d edges", c.g, used, c.g.M())
 		}
-		if c.kind == K33 {
+		if c.kind == planarcert.K33 {
 			// The sides of K3,3 as built: {0,1,2} and {3,4,5}.
 			a := slices.Sorted(slices.Values(k.Branch[:3]))
 			b := slices.Sorted(slices.Values(k.Branch[3:]))
@@ -59,10 +63,10 @@ func TestKuratowskiSelf(t *testing.T) {
 }
 
 // The Petersen graph is not planar; it contains a subdivision of K3,3 and,
-// being cubic, none of K5 (common knowledge, no source).
+// being cubic, none of planarcert.K5 (common knowledge, no source).
 func TestKuratowskiPetersen(t *testing.T) {
-	k := plNonPlanarCert(t, plPetersen())
-	if k.Kind != K33 {
+	k := plNonPlanarCert(t, fixture.Petersen())
+	if k.Kind != planarcert.K33 {
 		t.Fatalf("Petersen: %s subdivision", k.Kind)
 	}
 }
@@ -71,23 +75,23 @@ func TestKuratowskiPetersen(t *testing.T) {
 // one extra edge far away.
 func TestKuratowskiVarious(t *testing.T) {
 	rng := rand.New(rand.NewPCG(7, 7))
-	gs := []*Graph{plCompleteGraph(6), plCompleteGraph(9), plCompleteBipartite(3, 7), plCompleteBipartite(4, 4)}
+	gs := []*graph.Graph{fixture.Complete(6), fixture.Complete(9), fixture.CompleteBipartite(3, 7), fixture.CompleteBipartite(4, 4)}
 	for i := 0; i < 40; i++ {
-		gs = append(gs, plRandomGraph(rng, 50+rng.IntN(300), 400+rng.IntN(400)))
+		gs = append(gs, fixture.RandomGraph(rng, 50+rng.IntN(300), 400+rng.IntN(400)))
 	}
 	for _, g := range gs {
 		plNonPlanarCert(t, g)
 	}
-	if _, err := FindKuratowski(plGridGraph(5, 5)); !errors.Is(err, ErrPlanar) {
+	if _, err := FindKuratowski(fixture.Grid(5, 5)); !errors.Is(err, ErrPlanar) {
 		t.Fatalf("grid: %v, want ErrPlanar", err)
 	}
 }
 
 func TestKuratowskiMutations(t *testing.T) {
-	g := plPetersen()
+	g := fixture.Petersen()
 	k := plNonPlanarCert(t, g)
-	clone := func() *Kuratowski {
-		c := &Kuratowski{Kind: k.Kind, Branch: slices.Clone(k.Branch)}
+	clone := func() *planarcert.Kuratowski {
+		c := &planarcert.Kuratowski{Kind: k.Kind, Branch: slices.Clone(k.Branch)}
 		for _, p := range k.Paths {
 			c.Paths = append(c.Paths, slices.Clone(p))
 		}
@@ -102,57 +106,57 @@ func TestKuratowskiMutations(t *testing.T) {
 	if len(k.Paths[long]) < 3 {
 		t.Fatal("Petersen subdivision with no subdivided path")
 	}
-	cases := map[string]func(c *Kuratowski){
-		"break a path": func(c *Kuratowski) {
+	cases := map[string]func(c *planarcert.Kuratowski){
+		"break a path": func(c *planarcert.Kuratowski) {
 			p := c.Paths[long]
 			c.Paths[long] = append(p[:1:1], p[2:]...)
 		},
-		"drop a path":     func(c *Kuratowski) { c.Paths = c.Paths[1:] },
-		"wrong kind":      func(c *Kuratowski) { c.Kind = K5 },
-		"swap sides":      func(c *Kuratowski) { c.Branch[0], c.Branch[3] = c.Branch[3], c.Branch[0] },
-		"repeat a path":   func(c *Kuratowski) { c.Paths[1] = slices.Clone(c.Paths[0]) },
-		"branch repeated": func(c *Kuratowski) { c.Branch[1] = c.Branch[0] },
+		"drop a path":     func(c *planarcert.Kuratowski) { c.Paths = c.Paths[1:] },
+		"wrong kind":      func(c *planarcert.Kuratowski) { c.Kind = planarcert.K5 },
+		"swap sides":      func(c *planarcert.Kuratowski) { c.Branch[0], c.Branch[3] = c.Branch[3], c.Branch[0] },
+		"repeat a path":   func(c *planarcert.Kuratowski) { c.Paths[1] = slices.Clone(c.Paths[0]) },
+		"branch repeated": func(c *planarcert.Kuratowski) { c.Branch[1] = c.Branch[0] },
 	}
 	for name, mutate := range cases {
 		c := clone()
 		mutate(c)
-		if err := CheckKuratowski(g, c); !errors.Is(err, ErrBadPlanarCert) {
+		if err := planarcert.CheckKuratowski(g, c); !errors.Is(err, planarcert.ErrRejected) {
 			t.Errorf("%s: accepted (%v)", name, err)
 		}
 	}
 	// Two paths sharing an inner vertex: K3,3 with an extra vertex x on the
 	// paths 0–3 and 1–4 (both through x, which is adjacent to 0, 1, 3, 4).
-	h := plNumbered(7, [][2]int{{0, 3}, {0, 4}, {0, 5}, {1, 3}, {1, 4}, {1, 5}, {2, 3}, {2, 4}, {2, 5}, {0, 6}, {1, 6}, {3, 6}, {4, 6}})
-	bad := &Kuratowski{Kind: K33, Branch: []int32{0, 1, 2, 3, 4, 5}, Paths: [][]int32{
+	h := fixture.Numbered(7, [][2]int{{0, 3}, {0, 4}, {0, 5}, {1, 3}, {1, 4}, {1, 5}, {2, 3}, {2, 4}, {2, 5}, {0, 6}, {1, 6}, {3, 6}, {4, 6}})
+	bad := &planarcert.Kuratowski{Kind: planarcert.K33, Branch: []int32{0, 1, 2, 3, 4, 5}, Paths: [][]int32{
 		{0, 6, 3}, {0, 4}, {0, 5}, {1, 3}, {1, 6, 4}, {1, 5}, {2, 3}, {2, 4}, {2, 5}}}
-	if err := CheckKuratowski(h, bad); err == nil || !strings.Contains(err.Error(), "share") {
+	if err := planarcert.CheckKuratowski(h, bad); err == nil || !strings.Contains(err.Error(), "share") {
 		t.Fatalf("shared inner vertex: %v", err)
 	}
 	bad.Paths[4] = []int32{1, 4}
-	if err := CheckKuratowski(h, bad); err != nil {
+	if err := planarcert.CheckKuratowski(h, bad); err != nil {
 		t.Fatalf("repaired certificate: %v", err)
 	}
 }
 
 func TestKuratowskiJSONRoundTrip(t *testing.T) {
-	for _, g := range []*Graph{plPetersen(), plCompleteGraph(5), plCompleteGraph(7)} {
-		res, err := Planarity(g)
+	for _, g := range []*graph.Graph{fixture.Petersen(), fixture.Complete(5), fixture.Complete(7)} {
+		res, err := Decide(g)
 		if err != nil {
 			t.Fatal(err)
 		}
 		var a bytes.Buffer
-		if err := WritePlanarCert(&a, g, res.Cert); err != nil {
+		if err := planarcert.Write(&a, g, res.Cert); err != nil {
 			t.Fatal(err)
 		}
-		c, err := ReadPlanarCert(bytes.NewReader(a.Bytes()), "k.json", g)
+		c, err := planarcert.Read(bytes.NewReader(a.Bytes()), "k.json", g)
 		if err != nil {
 			t.Fatalf("%v\n%s", err, a.String())
 		}
-		if err := CheckPlanarCert(g, c); err != nil {
+		if err := planarcert.Check(g, c); err != nil {
 			t.Fatal(err)
 		}
 		var b bytes.Buffer
-		if err := WritePlanarCert(&b, g, c); err != nil {
+		if err := planarcert.Write(&b, g, c); err != nil {
 			t.Fatal(err)
 		}
 		if !bytes.Equal(a.Bytes(), b.Bytes()) {

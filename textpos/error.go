@@ -1,17 +1,17 @@
-package cert
+package textpos
 
 import "fmt"
 
-// ParseError reports bad input at a position in a named file.
+// Error reports bad input at a position in a named file.
 // Line and Col are 1-based; 0 means unknown.
-type ParseError struct {
+type Error struct {
 	File string
 	Line int
 	Col  int
 	Msg  string
 }
 
-func (e *ParseError) Error() string {
+func (e *Error) Error() string {
 	switch {
 	case e.Line > 0 && e.Col > 0:
 		return fmt.Sprintf("%s:%d:%d: %s", e.File, e.Line, e.Col, e.Msg)

@@ -1,10 +1,12 @@
-package cert
+package graph
 
 import (
 	"bufio"
 	"fmt"
 	"io"
 	"strconv"
+
+	"spinecert.dev/textpos"
 )
 
 // The DIMACS graph format as described in "Clique and Coloring Problems
@@ -73,7 +75,7 @@ func dimacsUint(f []byte) (uint64, bool) {
 func readDIMACSGraph(br *bufio.Reader, name string, res *ReadResult) (*Graph, error) {
 	lr := &lineReader{br: br, max: 1 << 20}
 	perr := func(line, col int, format string, a ...any) error {
-		return &ParseError{File: name, Line: line, Col: col, Msg: fmt.Sprintf(format, a...)}
+		return &textpos.Error{File: name, Line: line, Col: col, Msg: fmt.Sprintf(format, a...)}
 	}
 	var (
 		fields   [4][]byte
@@ -172,7 +174,7 @@ func readDIMACSGraph(br *bufio.Reader, name string, res *ReadResult) (*Graph, er
 		}
 	}
 	if pline == 0 {
-		return nil, &ParseError{File: name, Msg: "no problem line 'p edge NODES EDGES' found"}
+		return nil, &textpos.Error{File: name, Msg: "no problem line 'p edge NODES EDGES' found"}
 	}
 	if elines != m {
 		return nil, perr(pline, 0, "problem line declares %d edges, found %d edge lines", m, elines)

@@ -1,4 +1,4 @@
-package cert
+package planar
 
 import (
 	"bufio"
@@ -10,14 +10,17 @@ import (
 	"strings"
 	"testing"
 
+	"spinecert.dev/graph"
+	"spinecert.dev/internal/fixture"
 	"spinecert.dev/internal/testtools"
+	"spinecert.dev/planar/planarcert"
 )
 
 // plDecodeGraph6 reads one graph6 line of nauty's output with the package's
 // own reader (checked against formats.txt and nauty in read_test.go).
-func plDecodeGraph6(t testing.TB, line string) *Graph {
+func plDecodeGraph6(t testing.TB, line string) *graph.Graph {
 	t.Helper()
-	res, err := ReadGraphs(strings.NewReader(line), "nauty.g6", FormatGraph6)
+	res, err := graph.Read(strings.NewReader(line), "nauty.g6", graph.FormatGraph6)
 	if err != nil || len(res.Graphs) != 1 {
 		t.Fatalf("graph6 line %q: %v", line, err)
 	}
@@ -25,7 +28,7 @@ func plDecodeGraph6(t testing.TB, line string) *Graph {
 }
 
 // plGraph6Big encodes g in graph6 in vertex order, for any n.
-func plGraph6Big(g *Graph) string { return string(AppendGraph6(nil, g)) }
+func plGraph6Big(g *graph.Graph) string { return string(graph.AppendGraph6(nil, g)) }
 
 func plRunTool(t testing.TB, stdin []byte, name string, args ...string) []byte {
 	t.Helper()
@@ -52,7 +55,7 @@ func plLines(b []byte) []string {
 	return out
 }
 
-// checkAgainstPlanarg decides every graph6 line with Planarity, checks each
+// checkAgainstPlanarg decides every graph6 line with Decide, checks each
 // certificate, compares with nauty-planarg and returns the planar count.
 func plCheckAgainstPlanarg(t *testing.T, input []byte) int {
 	t.Helper()
@@ -64,14 +67,14 @@ func plCheckAgainstPlanarg(t *testing.T, input []byte) int {
 	count := 0
 	for _, l := range plLines(input) {
 		g := plDecodeGraph6(t, l)
-		res, err := Planarity(g)
+		res, err := Decide(g)
 		if err != nil {
 			t.Fatalf("%s: %v", l, err)
 		}
 		if res.Planar != ref[l] {
 			t.Fatalf("%s: planar=%v, nauty-planarg says %v", l, res.Planar, ref[l])
 		}
-		if err := CheckPlanarCert(g, res.Cert); err != nil {
+		if err := planarcert.Check(g, res.Cert); err != nil {
 			t.Fatalf("%s: certificate rejected: %v", l, err)
 		}
 		if res.Planar {
@@ -123,17 +126,17 @@ func TestPlanarRandomAgainstPlanarg(t *testing.T) {
 	testtools.Require(t, "nauty-planarg", "nauty")
 	rng := rand.New(rand.NewPCG(6, 1))
 	var buf bytes.Buffer
-	var gs []*Graph
+	var gs []*graph.Graph
 	for i := 0; i < 300; i++ {
 		n := 10 + rng.IntN(991)
-		var g *Graph
+		var g *graph.Graph
 		switch i % 3 {
 		case 0:
-			g = plRandomGraph(rng, n, n+rng.IntN(2*n))
+			g = fixture.RandomGraph(rng, n, n+rng.IntN(2*n))
 		case 1:
-			g = plRandomPlanarPlus(rng, n, rng.IntN(3))
+			g = fixture.RandomPlanarPlus(rng, n, rng.IntN(3))
 		default:
-			g = plRandomTriangulation(rng, n)
+			g = fixture.RandomTriangulation(rng, n)
 		}
 		gs = append(gs, g)
 		buf.WriteString(plGraph6Big(g))
@@ -146,14 +149,14 @@ func TestPlanarRandomAgainstPlanarg(t *testing.T) {
 	}
 	var planar, nonPlanar int
 	for i, g := range gs {
-		res, err := Planarity(g)
+		res, err := Decide(g)
 		if err != nil {
 			t.Fatalf("graph %d (%v): %v", i, g, err)
 		}
 		if want := ref[plGraph6Big(g)]; res.Planar != want {
 			t.Fatalf("graph %d (%v): planar=%v, nauty-planarg says %v", i, g, res.Planar, want)
 		}
-		if err := CheckPlanarCert(g, res.Cert); err != nil {
+		if err := planarcert.Check(g, res.Cert); err != nil {
 			t.Fatalf("graph %d (%v): %v", i, g, err)
 		}
 		if res.Planar {
@@ -170,7 +173,7 @@ func TestPlanarRandomAgainstPlanarg(t *testing.T) {
 func TestGraph6Helpers(t *testing.T) {
 	// formats.txt example: 'DQc' is n=5 with edges 0-2, 0-4, 1-3, 3-4 (McKay, formats.txt).
 	g := plDecodeGraph6(t, "DQc")
-	want := []Edge{{0, 2}, {0, 4}, {1, 3}, {3, 4}}
+	want := []graph.Edge{{U: 0, V: 2}, {U: 0, V: 4}, {U: 1, V: 3}, {U: 3, V: 4}}
 	if fmt.Sprint(g.Edges()) != fmt.Sprint(want) {
 		t.Fatalf("DQc decodes to %v, want %v", g.Edges(), want)
 	}

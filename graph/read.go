@@ -1,4 +1,4 @@
-package cert
+package graph
 
 import (
 	"bufio"
@@ -9,6 +9,8 @@ import (
 	"path/filepath"
 	"strconv"
 	"strings"
+
+	"spinecert.dev/textpos"
 )
 
 // Format is a graph file format.
@@ -57,22 +59,22 @@ type ReadResult struct {
 	Warnings []string // for example repeated edges that were merged
 }
 
-// ReadGraphFile reads the graphs in the file at path; "-" reads standard input.
-func ReadGraphFile(path string, f Format) (*ReadResult, error) {
+// ReadFile reads the graphs in the file at path; "-" reads standard input.
+func ReadFile(path string, f Format) (*ReadResult, error) {
 	if path == "-" {
-		return ReadGraphs(os.Stdin, "<stdin>", f)
+		return Read(os.Stdin, "<stdin>", f)
 	}
 	file, err := os.Open(path)
 	if err != nil {
 		return nil, fmt.Errorf("cert: %w", err)
 	}
 	defer file.Close()
-	return ReadGraphs(file, path, f)
+	return Read(file, path, f)
 }
 
-// ReadGraphs reads one or more graphs from r; name is used in messages and
+// Read reads one or more graphs from r; name is used in messages and
 // its extension as a format hint when f is FormatAuto.
-func ReadGraphs(r io.Reader, name string, f Format) (*ReadResult, error) {
+func Read(r io.Reader, name string, f Format) (*ReadResult, error) {
 	br := bufio.NewReaderSize(r, 1<<20)
 	if f == FormatAuto {
 		head, _ := br.Peek(detectPeek)
@@ -102,7 +104,7 @@ func ReadGraphs(r io.Reader, name string, f Format) (*ReadResult, error) {
 		return nil, err
 	}
 	if len(res.Graphs) == 0 {
-		return nil, &ParseError{File: name, Msg: "no graph found"}
+		return nil, &textpos.Error{File: name, Msg: "no graph found"}
 	}
 	return res, nil
 }
@@ -139,7 +141,7 @@ func DetectFormat(head []byte, name string) Format {
 	return content
 }
 
-// detectPeek is how much of a file ReadGraphs shows DetectFormat. A head of
+// detectPeek is how much of a file Read shows DetectFormat. A head of
 // this size may end inside a line (a graph6 line of a graph with more than
 // about 360 vertices is longer), so its last unterminated line is only
 // required to be a possible start of a graph6 string.
@@ -221,13 +223,13 @@ func readEdgeList(br *bufio.Reader, name string, res *ReadResult) (*Graph, error
 		data, err := br.Peek(br.Size())
 		eof := err == io.EOF
 		if err != nil && !eof {
-			return nil, &ParseError{File: name, Line: line + 1, Msg: err.Error()}
+			return nil, &textpos.Error{File: name, Line: line + 1, Msg: err.Error()}
 		}
 		end := len(data)
 		if !eof {
 			end = bytes.LastIndexByte(data, '\n') + 1
 			if end == 0 {
-				return nil, &ParseError{File: name, Line: line + 1, Msg: "line longer than 1 MiB"}
+				return nil, &textpos.Error{File: name, Line: line + 1, Msg: "line longer than 1 MiB"}
 			}
 		}
 		var perr error
@@ -300,7 +302,7 @@ func (st *edgeListReader) chunk(d []byte, line int) (int, error) {
 				}
 				if ok && (q == len(d) || d[q] == '\n') {
 					if u == v {
-						return line, &ParseError{File: st.name, Line: line, Col: vstart - p + 1, Msg: fmt.Sprintf("self-loop at vertex %q (spinecert graphs are simple)", strconv.Itoa(u))}
+						return line, &textpos.Error{File: st.name, Line: line, Col: vstart - p + 1, Msg: fmt.Sprintf("self-loop at vertex %q (spinecert graphs are simple)", strconv.Itoa(u))}
 					}
 					st.addNum(u, v)
 					p = q + 1
@@ -345,10 +347,10 @@ func (st *edgeListReader) general(raw []byte, line int) error {
 		i = j
 	}
 	if nt == 3 {
-		return &ParseError{File: st.name, Line: line, Col: col[2], Msg: "expected one or two vertex labels, found more"}
+		return &textpos.Error{File: st.name, Line: line, Col: col[2], Msg: "expected one or two vertex labels, found more"}
 	}
 	if nt == 2 && bytes.Equal(tok[0], tok[1]) {
-		return &ParseError{File: st.name, Line: line, Col: col[1], Msg: fmt.Sprintf("self-loop at vertex %q (spinecert graphs are simple)", tok[0])}
+		return &textpos.Error{File: st.name, Line: line, Col: col[1], Msg: fmt.Sprintf("self-loop at vertex %q (spinecert graphs are simple)", tok[0])}
 	}
 	var num [2]int
 	if st.b == nil {

@@ -1,4 +1,4 @@
-package cert
+package planarcert_test
 
 import (
 	"bytes"
@@ -9,18 +9,24 @@ import (
 	"slices"
 	"strings"
 	"testing"
+
+	"spinecert.dev/graph"
+	"spinecert.dev/internal/fixture"
+	"spinecert.dev/planar"
+	"spinecert.dev/planar/planarcert"
+	"spinecert.dev/textpos"
 )
 
-func plPlanarCert(t *testing.T, g *Graph) *Embedding {
+func plPlanarCert(t *testing.T, g *graph.Graph) *planarcert.Embedding {
 	t.Helper()
-	res, err := Planarity(g)
+	res, err := planar.Decide(g)
 	if err != nil {
 		t.Fatal(err)
 	}
 	if !res.Planar {
 		t.Fatalf("%v found not planar", g)
 	}
-	if err := CheckPlanarCert(g, res.Cert); err != nil {
+	if err := planarcert.Check(g, res.Cert); err != nil {
 		t.Fatalf("%v: %v", g, err)
 	}
 	return res.Cert.Embedding
@@ -32,11 +38,11 @@ func plPlanarCert(t *testing.T, g *Graph) *Embedding {
 func TestTriangulations(t *testing.T) {
 	rng := rand.New(rand.NewPCG(3, 3))
 	for _, n := range []int{3, 4, 5, 10, 100, 2000} {
-		g := plRandomTriangulation(rng, n)
+		g := fixture.RandomTriangulation(rng, n)
 		if g.M() != 3*n-6 {
 			t.Fatalf("n=%d: %d edges", n, g.M())
 		}
-		if !IsMaximalPlanar(g) {
+		if !planar.IsMaximal(g) {
 			t.Fatalf("n=%d: not maximal planar", n)
 		}
 		emb := plPlanarCert(t, g)
@@ -51,31 +57,25 @@ func TestTriangulations(t *testing.T) {
 			if a == b || g.HasEdge(int32(a), int32(b)) {
 				continue
 			}
-			h := plNumbered(n, append(plEdgePairs(g), [2]int{a, b}))
-			if IsPlanar(h) {
+			h := fixture.Numbered(n, append(fixture.EdgePairs(g), [2]int{a, b}))
+			if planar.IsPlanar(h) {
 				t.Fatalf("n=%d: triangulation plus an edge is planar", n)
 			}
-			plNonPlanarCert(t, h)
+			if res, err := planar.Decide(h); err != nil || res.Planar || planarcert.Check(h, res.Cert) != nil {
+				t.Fatalf("n=%d: triangulation plus an edge: no checked Kuratowski certificate (%v)", n, err)
+			}
 		}
 	}
-	if IsMaximalPlanar(plGridGraph(3, 3)) {
+	if planar.IsMaximal(fixture.Grid(3, 3)) {
 		t.Fatal("3x3 grid reported maximal planar")
 	}
-	if !IsMaximalPlanar(plCompleteGraph(4)) || IsMaximalPlanar(plCompleteGraph(5)) {
-		t.Fatal("K4 / K5 maximal planarity wrong")
+	if !planar.IsMaximal(fixture.Complete(4)) || planar.IsMaximal(fixture.Complete(5)) {
+		t.Fatal("K4 / planarcert.K5 maximal planarity wrong")
 	}
-}
-
-func plEdgePairs(g *Graph) [][2]int {
-	var e [][2]int
-	for _, x := range g.Edges() {
-		e = append(e, [2]int{int(x.U), int(x.V)})
-	}
-	return e
 }
 
 // countFaces traces faces independently of the checker, for the tests.
-func plCountFaces(emb *Embedding) int {
+func plCountFaces(emb *planarcert.Embedding) int {
 	type dart struct{ u, v int32 }
 	pos := make(map[dart]int)
 	for u, r := range emb.Rotation {
@@ -101,10 +101,10 @@ func plCountFaces(emb *Embedding) int {
 }
 
 func TestPlanarSmallCases(t *testing.T) {
-	cases := []*Graph{
-		plNumbered(0, nil), plNumbered(1, nil), plNumbered(3, nil), plNumbered(2, [][2]int{{0, 1}}),
-		plCompleteGraph(4), plGridGraph(1, 10), plGridGraph(7, 9), plCompleteBipartite(2, 9),
-		plNumbered(9, [][2]int{{0, 1}, {1, 2}, {2, 0}, {4, 5}, {6, 7}, {7, 8}}),
+	cases := []*graph.Graph{
+		fixture.Numbered(0, nil), fixture.Numbered(1, nil), fixture.Numbered(3, nil), fixture.Numbered(2, [][2]int{{0, 1}}),
+		fixture.Complete(4), fixture.Grid(1, 10), fixture.Grid(7, 9), fixture.CompleteBipartite(2, 9),
+		fixture.Numbered(9, [][2]int{{0, 1}, {1, 2}, {2, 0}, {4, 5}, {6, 7}, {7, 8}}),
 	}
 	for _, g := range cases {
 		plPlanarCert(t, g)
@@ -122,15 +122,15 @@ func TestPlanarDeep(t *testing.T) {
 	for i := 0; i+1 < n; i++ {
 		e = append(e, [2]int{i, i + 1})
 	}
-	plPlanarCert(t, plNumbered(n, e))
-	plPlanarCert(t, plGridGraph(2, n/2))
+	plPlanarCert(t, fixture.Numbered(n, e))
+	plPlanarCert(t, fixture.Grid(2, n/2))
 }
 
 func TestEmbeddingMutations(t *testing.T) {
-	g := plGridGraph(4, 4)
+	g := fixture.Grid(4, 4)
 	emb := plPlanarCert(t, g)
-	clone := func() *Embedding {
-		c := &Embedding{}
+	clone := func() *planarcert.Embedding {
+		c := &planarcert.Embedding{}
 		for _, r := range emb.Rotation {
 			c.Rotation = append(c.Rotation, slices.Clone(r))
 		}
@@ -145,26 +145,26 @@ func TestEmbeddingMutations(t *testing.T) {
 	if plCountFaces(c) == plCountFaces(emb) {
 		t.Fatal("swap kept the face count")
 	}
-	if err := CheckEmbedding(g, c); !errors.Is(err, ErrBadPlanarCert) || !strings.Contains(err.Error(), "Euler") {
+	if err := planarcert.CheckEmbedding(g, c); !errors.Is(err, planarcert.ErrRejected) || !strings.Contains(err.Error(), "Euler") {
 		t.Fatalf("swapped rotation: %v", err)
 	}
 	c = clone()
 	c.Rotation[v] = c.Rotation[v][1:]
-	if err := CheckEmbedding(g, c); err == nil {
+	if err := planarcert.CheckEmbedding(g, c); err == nil {
 		t.Fatal("missing neighbour accepted")
 	}
 	c = clone()
 	c.Rotation[v][0] = c.Rotation[v][1]
-	if err := CheckEmbedding(g, c); err == nil || !strings.Contains(err.Error(), "twice") {
+	if err := planarcert.CheckEmbedding(g, c); err == nil || !strings.Contains(err.Error(), "twice") {
 		t.Fatalf("repeated neighbour: %v", err)
 	}
 	c = clone()
 	c.Rotation[0][0] = 15
-	if err := CheckEmbedding(g, c); err == nil || !strings.Contains(err.Error(), "not a neighbour") {
+	if err := planarcert.CheckEmbedding(g, c); err == nil || !strings.Contains(err.Error(), "not a neighbour") {
 		t.Fatalf("non-neighbour: %v", err)
 	}
-	// A rotation system of K5 exists (on the torus) but cannot pass.
-	k5 := plCompleteGraph(5)
+	// A rotation system of planarcert.K5 exists (on the torus) but cannot pass.
+	k5 := fixture.Complete(5)
 	rot := make([][]int32, 5)
 	for u := range rot {
 		for w := int32(0); w < 5; w++ {
@@ -173,39 +173,39 @@ func TestEmbeddingMutations(t *testing.T) {
 			}
 		}
 	}
-	if err := CheckEmbedding(k5, &Embedding{Rotation: rot}); !errors.Is(err, ErrBadPlanarCert) {
+	if err := planarcert.CheckEmbedding(k5, &planarcert.Embedding{Rotation: rot}); !errors.Is(err, planarcert.ErrRejected) {
 		t.Fatalf("K5 rotation accepted: %v", err)
 	}
-	if err := CheckPlanarCert(g, &PlanarCert{Planar: true}); err == nil {
+	if err := planarcert.Check(g, &planarcert.Cert{Planar: true}); err == nil {
 		t.Fatal("empty certificate accepted")
 	}
 }
 
 func TestPlanarJSON(t *testing.T) {
-	g := plMustNumbered(t, 6, [][2]int{{0, 1}, {1, 2}, {2, 0}, {2, 3}, {3, 4}})
-	res, err := Planarity(g)
+	g := fixture.MustNumbered(t, 6, [][2]int{{0, 1}, {1, 2}, {2, 0}, {2, 3}, {3, 4}})
+	res, err := planar.Decide(g)
 	if err != nil {
 		t.Fatal(err)
 	}
 	var a bytes.Buffer
-	if err := WritePlanarCert(&a, g, res.Cert); err != nil {
+	if err := planarcert.Write(&a, g, res.Cert); err != nil {
 		t.Fatal(err)
 	}
-	c, err := ReadPlanarCert(bytes.NewReader(a.Bytes()), "p.json", g)
+	c, err := planarcert.Read(bytes.NewReader(a.Bytes()), "p.json", g)
 	if err != nil {
 		t.Fatalf("%v\n%s", err, a.String())
 	}
-	if err := CheckPlanarCert(g, c); err != nil {
+	if err := planarcert.Check(g, c); err != nil {
 		t.Fatal(err)
 	}
 	var b bytes.Buffer
-	if err := WritePlanarCert(&b, g, c); err != nil {
+	if err := planarcert.Write(&b, g, c); err != nil {
 		t.Fatal(err)
 	}
 	if !bytes.Equal(a.Bytes(), b.Bytes()) {
 		t.Fatalf("rewrite differs:\n%s\n%s", a.String(), b.String())
 	}
-	if _, err := ReadPlanarCert(bytes.NewReader(a.Bytes()), "p.json", plCompleteGraph(4)); err == nil || !strings.Contains(err.Error(), "not for this graph") {
+	if _, err := planarcert.Read(bytes.NewReader(a.Bytes()), "p.json", fixture.Complete(4)); err == nil || !strings.Contains(err.Error(), "not for this graph") {
 		t.Fatalf("other graph: %v", err)
 	}
 }
@@ -238,22 +238,22 @@ func TestPlanarCertBadFiles(t *testing.T) {
 			t.Fatal(err)
 		}
 		data = bytes.ReplaceAll(data, []byte("GRAPHID"), []byte(g.ID()))
-		_, err = ReadPlanarCert(bytes.NewReader(data), "p.json", g)
+		_, err = planarcert.Read(bytes.NewReader(data), "p.json", g)
 		w, ok := want[filepath.Base(f)]
 		if !ok {
 			t.Errorf("%s: no expectation", f)
 			continue
 		}
-		var pe *ParseError
+		var pe *textpos.Error
 		if err == nil || !errors.As(err, &pe) || !strings.Contains(err.Error(), w) {
 			t.Errorf("%s: error %v, want a parse error containing %q", f, err, w)
 		}
 	}
 }
 
-func plPlanarTestdataGraph(t testing.TB) *Graph {
+func plPlanarTestdataGraph(t testing.TB) *graph.Graph {
 	// The triangle a b c with the pendant path c d e, and the isolated vertex f.
-	b := NewBuilder()
+	b := graph.NewBuilder()
 	for _, l := range []string{"a", "b", "c", "d", "e", "f"} {
 		b.Vertex(l)
 	}

@@ -1,8 +1,13 @@
-package cert
+package heuristic
 
 import (
 	"math/rand/v2"
 	"slices"
+
+	"spinecert.dev/cert"
+	"spinecert.dev/graph"
+	"spinecert.dev/planar"
+	"spinecert.dev/planar/planarcert"
 )
 
 // HamiltonianCycle searches for a Hamiltonian cycle of g by backtracking:
@@ -13,7 +18,7 @@ import (
 // number of path extensions; the search gives up (false) when it is used up.
 // The cycle is returned as the vertex order along it. The search is
 // deterministic for a given graph and budget.
-func HamiltonianCycle(g *Graph, budget int) ([]int32, bool) {
+func HamiltonianCycle(g *graph.Graph, budget int) ([]int32, bool) {
 	n := g.N()
 	if n < 3 {
 		return nil, false
@@ -49,7 +54,7 @@ func HamiltonianCycle(g *Graph, budget int) ([]int32, bool) {
 	return nil, false
 }
 
-func connected(g *Graph) bool {
+func connected(g *graph.Graph) bool {
 	n := g.N()
 	seen := make([]bool, n)
 	stack := []int32{0}
@@ -70,7 +75,7 @@ func connected(g *Graph) bool {
 }
 
 // hamiltonRun is one backtracking search with at most budget extensions.
-func hamiltonRun(g *Graph, start int32, budget int, rng *rand.Rand) ([]int32, bool, int) {
+func hamiltonRun(g *graph.Graph, start int32, budget int, rng *rand.Rand) ([]int32, bool, int) {
 	n := g.N()
 	free := make([]int32, n) // unvisited neighbours of each vertex
 	onPath := make([]bool, n)
@@ -190,7 +195,7 @@ func hamiltonRun(g *Graph, start int32, budget int, rng *rand.Rand) ([]int32, bo
 // compute one. The layout is checked before it is returned; false means no
 // cycle was found within the budget, g is not planar, or emb is not a planar
 // embedding of g.
-func HamiltonianTwoPage(g *Graph, emb *Embedding, budget int) (*Layout, bool) {
+func HamiltonianTwoPage(g *graph.Graph, emb *planarcert.Embedding, budget int) (*cert.Layout, bool) {
 	n := g.N()
 	if n < 3 {
 		order := make([]int32, n)
@@ -201,11 +206,11 @@ func HamiltonianTwoPage(g *Graph, emb *Embedding, budget int) (*Layout, bool) {
 		for i := range page {
 			page[i] = 1
 		}
-		return &Layout{Kind: Stack, PageKinds: []Kind{Stack, Stack}, Order: order, Page: page}, true
+		return &cert.Layout{Kind: cert.Stack, PageKinds: []cert.Kind{cert.Stack, cert.Stack}, Order: order, Page: page}, true
 	}
 	if emb == nil {
 		var ok bool
-		if emb, ok = PlanarEmbedding(g); !ok {
+		if emb, ok = planar.Embed(g); !ok {
 			return nil, false
 		}
 	}
@@ -251,7 +256,7 @@ func HamiltonianTwoPage(g *Graph, emb *Embedding, budget int) (*Layout, bool) {
 		e := g.EdgeIndex(cyc[i], cyc[(i+1)%n])
 		page[e] = 1
 	}
-	l := &Layout{Kind: Stack, PageKinds: []Kind{Stack, Stack}, Order: cyc, Page: page}
+	l := &cert.Layout{Kind: cert.Stack, PageKinds: []cert.Kind{cert.Stack, cert.Stack}, Order: cyc, Page: page}
 	if !twoPageValid(g, pos, page) {
 		return nil, false
 	}
@@ -260,7 +265,7 @@ func HamiltonianTwoPage(g *Graph, emb *Embedding, budget int) (*Layout, bool) {
 
 // twoPageValid checks that no two edges on the same page cross, by a stack
 // scan of each page's edges sorted by left end and then longest first.
-func twoPageValid(g *Graph, pos []int32, page []int32) bool {
+func twoPageValid(g *graph.Graph, pos []int32, page []int32) bool {
 	for _, p := range page {
 		if p != 1 && p != 2 {
 			return false // an edge the rotation system did not place

@@ -1,7 +1,7 @@
-package cert
+package planar
 
 // The left-right planarity test of de Fraysseix and Rosenstiehl, in the form
-// given by U. Brandes, "The Left-Right Planarity Test" (manuscript, 2009):
+// given by U. Brandes, "The Left-Right Decide Test" (manuscript, 2009):
 // a DFS orients the graph and computes lowpoints and nesting depths, a second
 // DFS in nesting order keeps conflict pairs of return-edge intervals on a
 // stack and fails as soon as two intervals must lie on the same side, and a
@@ -11,7 +11,7 @@ package cert
 
 // lrGraph is a compact multigraph-free graph on vertices 0..n-1 given by its
 // edge endpoints; it is what the test runs on, so that subgraphs can be tested
-// without building a Graph.
+// without building a graph.Graph.
 type lrGraph struct {
 	n      int
 	eu, ev []int32

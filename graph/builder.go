@@ -1,4 +1,4 @@
-package cert
+package graph
 
 import (
 	"errors"
@@ -23,9 +23,10 @@ type Builder struct {
 // NewBuilder returns an empty builder.
 func NewBuilder() *Builder { return &Builder{index: make(map[string]int32)} }
 
-const numFast = 1 << 24
+// FastNumbers bounds the decimal labels that VertexNumber takes.
+const FastNumbers = 1 << 24
 
-// smallNumber returns the value of a canonical decimal label below numFast.
+// smallNumber returns the value of a canonical decimal label below FastNumbers.
 func smallNumber(b []byte) (int, bool) {
 	if len(b) == 0 || len(b) > 8 || (b[0] == '0' && len(b) > 1) {
 		return 0, false
@@ -37,7 +38,7 @@ func smallNumber(b []byte) (int, bool) {
 		}
 		n = n*10 + int(c-'0')
 	}
-	return n, n < numFast
+	return n, n < FastNumbers
 }
 
 // Vertex returns the vertex with the given label, adding it if new.
@@ -46,7 +47,7 @@ func (b *Builder) Vertex(label string) int32 { return b.VertexBytes([]byte(label
 // VertexBytes is Vertex for a byte slice; the bytes are copied when a vertex is added.
 func (b *Builder) VertexBytes(label []byte) int32 {
 	if k, ok := smallNumber(label); ok {
-		return b.vertexNumber(k)
+		return b.VertexNumber(k)
 	}
 	if v, ok := b.index[string(label)]; ok {
 		return v
@@ -58,8 +59,13 @@ func (b *Builder) VertexBytes(label []byte) int32 {
 	return v
 }
 
-// vertexNumber is VertexBytes for the decimal label of k, 0 ≤ k < numFast.
-func (b *Builder) vertexNumber(k int) int32 {
+// Labels returns the labels added so far, in the order they were added.
+// The slice must not be modified.
+func (b *Builder) Labels() []string { return b.labels }
+
+// VertexNumber is VertexBytes for the decimal label of k, without formatting
+// it first; k must be at least 0 and below FastNumbers.
+func (b *Builder) VertexNumber(k int) int32 {
 	{
 		if k < len(b.num) && b.num[k] != 0 {
 			return b.num[k] - 1
@@ -183,7 +189,7 @@ func radixSort64(a []uint64, n int) {
 // CompareLabels orders labels canonically: canonical decimal integers first,
 // by value; then all other labels bytewise.
 func CompareLabels(a, b string) int {
-	na, nb := isDecimal(a), isDecimal(b)
+	na, nb := IsDecimal(a), IsDecimal(b)
 	switch {
 	case na && nb:
 		if len(a) != len(b) {
@@ -206,8 +212,8 @@ func CompareLabels(a, b string) int {
 	return 0
 }
 
-// isDecimal reports whether s is a canonical non-negative decimal integer.
-func isDecimal(s string) bool {
+// IsDecimal reports whether s is a canonical non-negative decimal integer.
+func IsDecimal(s string) bool {
 	if s == "" || (s[0] == '0' && len(s) > 1) {
 		return false
 	}

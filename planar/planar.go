@@ -1,70 +1,26 @@
-package cert
+package planar
 
 import (
 	"errors"
-	"fmt"
+
+	"spinecert.dev/graph"
+	"spinecert.dev/planar/planarcert"
 )
 
 // ErrNotPlanar is returned (wrapped) where a planar graph is required.
 var ErrNotPlanar = errors.New("graph is not planar")
 
-// Embedding is a combinatorial embedding (rotation system) of a graph:
-// Rotation[v] lists the neighbours of v in cyclic order around v. A rotation
-// system is planar when tracing its faces gives V − E + F = 2C.
-type Embedding struct {
-	Rotation [][]int32
-}
-
-// KuratowskiKind tells which Kuratowski graph a subdivision is of.
-type KuratowskiKind uint8
-
-const (
-	// K5 is the complete graph on five vertices.
-	K5 KuratowskiKind = iota + 1
-	// K33 is the complete bipartite graph K3,3.
-	K33
-)
-
-// String returns "K5" or "K3,3".
-func (k KuratowskiKind) String() string {
-	switch k {
-	case K5:
-		return "K5"
-	case K33:
-		return "K3,3"
-	}
-	return fmt.Sprintf("kuratowski(%d)", uint8(k))
-}
-
-// Kuratowski is a subdivision of K5 or K3,3 inside a graph: the branch
-// vertices and one path of the graph for every edge of K5 or K3,3. For K3,3
-// the first three branch vertices form one side and the last three the other.
-// Each path lists its vertices from one branch vertex to another.
-type Kuratowski struct {
-	Kind   KuratowskiKind
-	Branch []int32
-	Paths  [][]int32
-}
-
-// PlanarCert is evidence about the planarity of one graph: an embedding when
-// Planar, a Kuratowski subgraph when not.
-type PlanarCert struct {
-	Planar     bool
-	Embedding  *Embedding
-	Kuratowski *Kuratowski
-}
-
-// PlanarityResult is the outcome of Planarity: the verdict and its certificate.
-type PlanarityResult struct {
+// Result is the outcome of Decide: the verdict and its certificate.
+type Result struct {
 	Planar bool
-	Cert   *PlanarCert
+	Cert   *planarcert.Cert
 }
 
 // lrOf returns the compact form of g that the planarity test runs on. The
 // vertices are renumbered in breadth-first order (perm[new] = old) and the
 // edges sorted by their lower new end, which keeps the test's memory accesses
 // local on large graphs whatever the input numbering.
-func lrOf(g *Graph) (*lrGraph, []int32) {
+func lrOf(g *graph.Graph) (*lrGraph, []int32) {
 	n := g.N()
 	perm := make([]int32, 0, n)
 	rank := make([]int32, n)
@@ -109,13 +65,13 @@ func lrOf(g *Graph) (*lrGraph, []int32) {
 }
 
 // IsPlanar reports whether g is planar, in O(n + m) time.
-func IsPlanar(g *Graph) bool {
+func IsPlanar(g *graph.Graph) bool {
 	lg, _ := lrOf(g)
 	return lrTest(lg, false).planar
 }
 
-// PlanarEmbedding returns a planar embedding of g, or false when g is not planar.
-func PlanarEmbedding(g *Graph) (*Embedding, bool) {
+// Embed returns a planar embedding of g, or false when g is not planar.
+func Embed(g *graph.Graph) (*planarcert.Embedding, bool) {
 	lg, perm := lrOf(g)
 	r := lrTest(lg, true)
 	if !r.planar {
@@ -126,7 +82,7 @@ func PlanarEmbedding(g *Graph) (*Embedding, bool) {
 
 // embeddingFromLR reads the rotation system off the test's result, in the
 // vertex numbers of the graph (perm maps the test's numbers back).
-func embeddingFromLR(lg *lrGraph, perm []int32, r lrResult) *Embedding {
+func embeddingFromLR(lg *lrGraph, perm []int32, r lrResult) *planarcert.Embedding {
 	n := lg.n
 	rot := make([][]int32, n)
 	deg := make([]int32, n)
@@ -151,13 +107,13 @@ func embeddingFromLR(lg *lrGraph, perm []int32, r lrResult) *Embedding {
 		}
 		rot[perm[v]] = list
 	}
-	return &Embedding{Rotation: rot}
+	return &planarcert.Embedding{Rotation: rot}
 }
 
-// IsMaximalPlanar reports whether g is maximal planar: planar with no edge
+// IsMaximal reports whether g is maximal planar: planar with no edge
 // that can be added keeping it planar. For n >= 3 that is m = 3n − 6 and
 // planar; the graphs on one or two vertices are maximal planar when complete.
-func IsMaximalPlanar(g *Graph) bool {
+func IsMaximal(g *graph.Graph) bool {
 	n, m := g.N(), g.M()
 	if n < 3 {
 		return m == n*(n-1)/2
@@ -165,15 +121,15 @@ func IsMaximalPlanar(g *Graph) bool {
 	return m == 3*n-6 && IsPlanar(g)
 }
 
-// Planarity decides whether g is planar and returns the certificate: a planar
-// embedding, or a subdivision of K5 or K3,3. The certificate is not checked
-// here; CheckPlanarCert does that independently of this code.
-func Planarity(g *Graph) (*PlanarityResult, error) {
+// Decide decides whether g is planar and returns the certificate: a planar
+// embedding, or a subdivision of planarcert.K5 or K3,3. The certificate is not checked
+// here; planarcert.Check does that independently of this code.
+func Decide(g *graph.Graph) (*Result, error) {
 	lg, perm := lrOf(g)
 	r := lrTest(lg, true)
 	if r.planar {
 		emb := embeddingFromLR(lg, perm, r)
-		return &PlanarityResult{Planar: true, Cert: &PlanarCert{Planar: true, Embedding: emb}}, nil
+		return &Result{Planar: true, Cert: &planarcert.Cert{Planar: true, Embedding: emb}}, nil
 	}
 	fail := r.fail
 	if fail >= 0 {
@@ -183,5 +139,5 @@ func Planarity(g *Graph) (*PlanarityResult, error) {
 	if err != nil {
 		return nil, err
 	}
-	return &PlanarityResult{Planar: false, Cert: &PlanarCert{Kuratowski: k}}, nil
+	return &Result{Planar: false, Cert: &planarcert.Cert{Kuratowski: k}}, nil
 }

@@ -1,10 +1,15 @@
-package cert
+package planarcert_test
 
 import (
 	"bytes"
 	"os"
 	"path/filepath"
 	"testing"
+
+	"spinecert.dev/graph"
+	"spinecert.dev/internal/fixture"
+	"spinecert.dev/planar"
+	"spinecert.dev/planar/planarcert"
 )
 
 // FuzzPlanarCert reads arbitrary bytes as a planarity certificate for a
@@ -21,33 +26,33 @@ func FuzzPlanarCert(f *testing.F) {
 		}
 		f.Add(bytes.ReplaceAll(data, []byte("GRAPHID"), []byte(g.ID())))
 	}
-	for _, h := range []*Graph{g} {
-		res, err := Planarity(h)
+	for _, h := range []*graph.Graph{g} {
+		res, err := planar.Decide(h)
 		if err != nil {
 			f.Fatal(err)
 		}
 		var b bytes.Buffer
-		if err := WritePlanarCert(&b, h, res.Cert); err != nil {
+		if err := planarcert.Write(&b, h, res.Cert); err != nil {
 			f.Fatal(err)
 		}
 		f.Add(b.Bytes())
 	}
 	f.Fuzz(func(t *testing.T, data []byte) {
-		c, err := ReadPlanarCert(bytes.NewReader(data), "fuzz.json", g)
+		c, err := planarcert.Read(bytes.NewReader(data), "fuzz.json", g)
 		if err != nil {
 			return
 		}
-		_ = CheckPlanarCert(g, c)
+		_ = planarcert.Check(g, c)
 		var a bytes.Buffer
-		if err := WritePlanarCert(&a, g, c); err != nil {
+		if err := planarcert.Write(&a, g, c); err != nil {
 			return // e.g. a rotation that does not list every vertex
 		}
-		c2, err := ReadPlanarCert(bytes.NewReader(a.Bytes()), "fuzz.json", g)
+		c2, err := planarcert.Read(bytes.NewReader(a.Bytes()), "fuzz.json", g)
 		if err != nil {
 			t.Fatalf("rewritten certificate does not read: %v\n%s", err, a.String())
 		}
 		var b bytes.Buffer
-		if err := WritePlanarCert(&b, g, c2); err != nil {
+		if err := planarcert.Write(&b, g, c2); err != nil {
 			t.Fatal(err)
 		}
 		if !bytes.Equal(a.Bytes(), b.Bytes()) {
@@ -59,23 +64,23 @@ func FuzzPlanarCert(f *testing.F) {
 // FuzzKuratowskiCert fuzzes the reader and checker of non-planar certificates
 // against K3,3 plus a subdivided edge.
 func FuzzKuratowskiCert(f *testing.F) {
-	g := plNumbered(7, [][2]int{{0, 3}, {0, 4}, {0, 6}, {6, 5}, {1, 3}, {1, 4}, {1, 5}, {2, 3}, {2, 4}, {2, 5}})
-	res, err := Planarity(g)
+	g := fixture.Numbered(7, [][2]int{{0, 3}, {0, 4}, {0, 6}, {6, 5}, {1, 3}, {1, 4}, {1, 5}, {2, 3}, {2, 4}, {2, 5}})
+	res, err := planar.Decide(g)
 	if err != nil || res.Planar {
 		f.Fatalf("seed graph: %v %v", err, res)
 	}
 	var b bytes.Buffer
-	if err := WritePlanarCert(&b, g, res.Cert); err != nil {
+	if err := planarcert.Write(&b, g, res.Cert); err != nil {
 		f.Fatal(err)
 	}
 	f.Add(b.Bytes())
 	f.Add(bytes.Replace(b.Bytes(), []byte(`"6"`), []byte(`"5"`), 1))
 	f.Fuzz(func(t *testing.T, data []byte) {
-		c, err := ReadPlanarCert(bytes.NewReader(data), "fuzz.json", g)
+		c, err := planarcert.Read(bytes.NewReader(data), "fuzz.json", g)
 		if err != nil {
 			return
 		}
-		if CheckPlanarCert(g, c) == nil && c.Planar {
+		if planarcert.Check(g, c) == nil && c.Planar {
 			t.Fatal("a planar certificate passed for a non-planar graph")
 		}
 	})
@@ -99,7 +104,7 @@ func FuzzEmbeddingCheck(f *testing.F) {
 				e = append(e, [2]int{a, b})
 			}
 		}
-		g := plNumbered(n, e)
+		g := fixture.Numbered(n, e)
 		rot := make([][]int32, n)
 		k := 0
 		for v := 0; v < n; v++ {
@@ -114,7 +119,7 @@ func FuzzEmbeddingCheck(f *testing.F) {
 			}
 			rot[v] = nb
 		}
-		if CheckEmbedding(g, &Embedding{Rotation: rot}) == nil && !IsPlanar(g) {
+		if planarcert.CheckEmbedding(g, &planarcert.Embedding{Rotation: rot}) == nil && !planar.IsPlanar(g) {
 			t.Fatalf("rotation accepted for a non-planar graph %v", g.Edges())
 		}
 	})

@@ -1,4 +1,4 @@
-package cert
+package graph
 
 import (
 	"bufio"
@@ -6,6 +6,8 @@ import (
 	"fmt"
 	"io"
 	"strconv"
+
+	"spinecert.dev/textpos"
 )
 
 // graph6 and sparse6 as described by B. D. McKay, "Description of graph6,
@@ -77,7 +79,7 @@ func readNauty(br *bufio.Reader, name string, f Format, res *ReadResult) ([]*Gra
 			break
 		}
 		if err != nil {
-			return nil, &ParseError{File: name, Line: lr.line + 1, Msg: err.Error()}
+			return nil, &textpos.Error{File: name, Line: lr.line + 1, Msg: err.Error()}
 		}
 		g, warn, perr := parseNautyLine(l)
 		if perr != nil {
@@ -97,7 +99,7 @@ func readNauty(br *bufio.Reader, name string, f Format, res *ReadResult) ([]*Gra
 
 // parseNautyLine decodes one line. It returns a nil graph and nil error for a
 // line holding only a header. The error's File and Line are left to the caller.
-func parseNautyLine(l []byte) (*Graph, string, *ParseError) {
+func parseNautyLine(l []byte) (*Graph, string, *textpos.Error) {
 	col := 1
 	want := byte(0)
 	switch {
@@ -106,28 +108,28 @@ func parseNautyLine(l []byte) (*Graph, string, *ParseError) {
 	case bytes.HasPrefix(l, []byte(sparse6Header)):
 		l, col, want = l[len(sparse6Header):], col+len(sparse6Header), 's'
 	case bytes.HasPrefix(l, []byte(">>digraph6<<")):
-		return nil, "", &ParseError{Col: 1, Msg: "digraph6 is not supported: spinecert graphs are undirected"}
+		return nil, "", &textpos.Error{Col: 1, Msg: "digraph6 is not supported: spinecert graphs are undirected"}
 	}
 	if len(l) == 0 {
 		if want != 0 {
 			return nil, "", nil
 		}
-		return nil, "", &ParseError{Col: 1, Msg: "empty line: expected a graph6 or sparse6 graph"}
+		return nil, "", &textpos.Error{Col: 1, Msg: "empty line: expected a graph6 or sparse6 graph"}
 	}
 	switch l[0] {
 	case ':':
 		if want == 'g' {
-			return nil, "", &ParseError{Col: col, Msg: "sparse6 graph (':') after a >>graph6<< header"}
+			return nil, "", &textpos.Error{Col: col, Msg: "sparse6 graph (':') after a >>graph6<< header"}
 		}
 		g, warn, err := parseSparse6(l[1:], col+1)
 		return g, warn, err
 	case ';':
-		return nil, "", &ParseError{Col: col, Msg: "incremental sparse6 (a line starting with ';') is not supported: write plain sparse6 (':') instead"}
+		return nil, "", &textpos.Error{Col: col, Msg: "incremental sparse6 (a line starting with ';') is not supported: write plain sparse6 (':') instead"}
 	case '&':
-		return nil, "", &ParseError{Col: col, Msg: "digraph6 ('&') is not supported: spinecert graphs are undirected"}
+		return nil, "", &textpos.Error{Col: col, Msg: "digraph6 ('&') is not supported: spinecert graphs are undirected"}
 	}
 	if want == 's' {
-		return nil, "", &ParseError{Col: col, Msg: "expected a sparse6 graph starting with ':' after a >>sparse6<< header"}
+		return nil, "", &textpos.Error{Col: col, Msg: "expected a sparse6 graph starting with ':' after a >>sparse6<< header"}
 	}
 	g, err := parseGraph6(l, col)
 	return g, "", err
@@ -135,7 +137,7 @@ func parseNautyLine(l []byte) (*Graph, string, *ParseError) {
 
 // decodeN reads N(n) from the start of b and returns n and its width in bytes.
 // Only the shortest form formats.txt allows for n is accepted.
-func decodeN(b []byte, col int) (uint64, int, *ParseError) {
+func decodeN(b []byte, col int) (uint64, int, *textpos.Error) {
 	for i, c := range b {
 		if c < 63 || c > 126 {
 			return 0, 0, badByte(c, col+i)
@@ -145,7 +147,7 @@ func decodeN(b []byte, col int) (uint64, int, *ParseError) {
 		}
 	}
 	if len(b) == 0 {
-		return 0, 0, &ParseError{Col: col, Msg: "expected the vertex count N(n)"}
+		return 0, 0, &textpos.Error{Col: col, Msg: "expected the vertex count N(n)"}
 	}
 	if b[0] != 126 {
 		return uint64(b[0] - 63), 1, nil
@@ -155,7 +157,7 @@ func decodeN(b []byte, col int) (uint64, int, *ParseError) {
 		width, lo = 8, 258048
 	}
 	if len(b) < width {
-		return 0, 0, &ParseError{Col: col, Msg: fmt.Sprintf("truncated vertex count: the long form N(n) takes %d bytes, found %d", width, len(b))}
+		return 0, 0, &textpos.Error{Col: col, Msg: fmt.Sprintf("truncated vertex count: the long form N(n) takes %d bytes, found %d", width, len(b))}
 	}
 	var n uint64
 	start := 1
@@ -166,19 +168,19 @@ func decodeN(b []byte, col int) (uint64, int, *ParseError) {
 		n = n<<6 | uint64(c-63)
 	}
 	if n < lo {
-		return 0, 0, &ParseError{Col: col, Msg: fmt.Sprintf("vertex count %d written in a %d-byte N(n); formats.txt uses that form only for n >= %d", n, width, lo)}
+		return 0, 0, &textpos.Error{Col: col, Msg: fmt.Sprintf("vertex count %d written in a %d-byte N(n); formats.txt uses that form only for n >= %d", n, width, lo)}
 	}
 	return n, width, nil
 }
 
-func badByte(c byte, col int) *ParseError {
-	return &ParseError{Col: col, Msg: fmt.Sprintf("unexpected byte %s: graph6/sparse6 data bytes are 63..126 ('?'..'~')", strconv.QuoteRune(rune(c)))}
+func badByte(c byte, col int) *textpos.Error {
+	return &textpos.Error{Col: col, Msg: fmt.Sprintf("unexpected byte %s: graph6/sparse6 data bytes are 63..126 ('?'..'~')", strconv.QuoteRune(rune(c)))}
 }
 
 // checkVertices rejects vertex counts too large to hold.
-func checkVertices(n uint64, col int) *ParseError {
+func checkVertices(n uint64, col int) *textpos.Error {
 	if n > uint64(maxVertices) {
-		return &ParseError{Col: col, Msg: fmt.Sprintf("graph has %d vertices; spinecert reads at most %d", n, maxVertices)}
+		return &textpos.Error{Col: col, Msg: fmt.Sprintf("graph has %d vertices; spinecert reads at most %d", n, maxVertices)}
 	}
 	return nil
 }
@@ -220,7 +222,7 @@ func isGraph6Prefix(t []byte) bool {
 
 // parseGraph6 decodes N(n) R(x), x the upper triangle of the adjacency
 // matrix in the order (0,1),(0,2),(1,2),(0,3),... with zero padding bits.
-func parseGraph6(b []byte, col int) (*Graph, *ParseError) {
+func parseGraph6(b []byte, col int) (*Graph, *textpos.Error) {
 	n, w, err := decodeN(b, col)
 	if err != nil {
 		return nil, err
@@ -235,9 +237,9 @@ func parseGraph6(b []byte, col int) (*Graph, *ParseError) {
 	}
 	if uint64(len(data)) != need {
 		if uint64(len(data)) < need {
-			return nil, &ParseError{Col: col + len(b), Msg: fmt.Sprintf("truncated graph6: n = %d needs %d data bytes after N(n), found %d", n, need, len(data))}
+			return nil, &textpos.Error{Col: col + len(b), Msg: fmt.Sprintf("truncated graph6: n = %d needs %d data bytes after N(n), found %d", n, need, len(data))}
 		}
-		return nil, &ParseError{Col: col + w + int(need), Msg: fmt.Sprintf("graph6 too long: n = %d needs %d data bytes after N(n), found %d", n, need, len(data))}
+		return nil, &textpos.Error{Col: col + w + int(need), Msg: fmt.Sprintf("graph6 too long: n = %d needs %d data bytes after N(n), found %d", n, need, len(data))}
 	}
 	var pairs []uint64
 	i, j := uint64(0), uint64(1)
@@ -255,7 +257,7 @@ func parseGraph6(b []byte, col int) (*Graph, *ParseError) {
 			bit := x >> (5 - t) & 1
 			if base+t >= bits {
 				if bit != 0 {
-					return nil, &ParseError{Col: col + w + k, Msg: "graph6 padding bits must be zero"}
+					return nil, &textpos.Error{Col: col + w + k, Msg: "graph6 padding bits must be zero"}
 				}
 				continue
 			}
@@ -287,7 +289,7 @@ func sparse6Bits(n uint64) uint {
 // decoder in nauty does, but a pair that starts before the last five bits
 // and names a vertex beyond n-1 is an error. An incomplete pair at the end
 // is discarded. Repeated edges are merged and reported in the warning.
-func parseSparse6(b []byte, col int) (*Graph, string, *ParseError) {
+func parseSparse6(b []byte, col int) (*Graph, string, *textpos.Error) {
 	n, w, err := decodeN(b, col)
 	if err != nil {
 		return nil, "", err
@@ -319,7 +321,7 @@ func parseSparse6(b []byte, col int) (*Graph, string, *ParseError) {
 			v++
 		}
 		if (v >= n || x >= n) && start+5 < total {
-			return nil, "", &ParseError{Col: col + w + int(start/6), Msg: fmt.Sprintf("sparse6 names vertex %d, beyond n-1 = %d, before the final padding", max(v, x), int64(n)-1)}
+			return nil, "", &textpos.Error{Col: col + w + int(start/6), Msg: fmt.Sprintf("sparse6 names vertex %d, beyond n-1 = %d, before the final padding", max(v, x), int64(n)-1)}
 		}
 		if x > v {
 			v = x
@@ -329,7 +331,7 @@ func parseSparse6(b []byte, col int) (*Graph, string, *ParseError) {
 			continue // padding
 		}
 		if x == v {
-			return nil, "", &ParseError{Col: col + w + int(start/6), Msg: fmt.Sprintf("self-loop at vertex %d (spinecert graphs are simple)", v)}
+			return nil, "", &textpos.Error{Col: col + w + int(start/6), Msg: fmt.Sprintf("self-loop at vertex %d (spinecert graphs are simple)", v)}
 		}
 		pairs = append(pairs, x<<32|v)
 	}

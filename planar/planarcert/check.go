@@ -1,26 +1,28 @@
-package cert
+package planarcert
 
 import (
 	"errors"
 	"fmt"
+
+	"spinecert.dev/graph"
 )
 
 // This file checks planarity certificates. It trusts nothing in the
 // certificate and shares no code with the planarity test or the Kuratowski
-// search: it uses only the Graph accessors.
+// search: it uses only the graph.Graph accessors.
 
-// ErrBadPlanarCert is returned (wrapped) when a planarity certificate is rejected.
-var ErrBadPlanarCert = errors.New("planarity certificate rejected")
+// ErrRejected is returned (wrapped) when a planarity certificate is rejected.
+var ErrRejected = errors.New("planarity certificate rejected")
 
 func badPlanar(format string, args ...any) error {
-	return fmt.Errorf("cert: %w: %s", ErrBadPlanarCert, fmt.Sprintf(format, args...))
+	return fmt.Errorf("cert: %w: %s", ErrRejected, fmt.Sprintf(format, args...))
 }
 
-// CheckPlanarCert checks a planarity certificate against g: an embedding must
+// Check checks a planarity certificate against g: an embedding must
 // be a planar rotation system of g, a Kuratowski subgraph must be a
 // subdivision of K5 or K3,3 in g. A nil error means the certificate proves
 // what c.Planar says.
-func CheckPlanarCert(g *Graph, c *PlanarCert) error {
+func Check(g *graph.Graph, c *Cert) error {
 	switch {
 	case c == nil:
 		return badPlanar("no certificate")
@@ -40,7 +42,7 @@ func CheckPlanarCert(g *Graph, c *PlanarCert) error {
 // V_i, E_i, F_i has V_i − E_i + F_i = 2 − 2γ_i ≤ 2 (γ_i the genus of the
 // surface its rotation system defines), so the sum equals 2C exactly when
 // every component is embedded in the plane.
-func CheckEmbedding(g *Graph, emb *Embedding) error {
+func CheckEmbedding(g *graph.Graph, emb *Embedding) error {
 	n, m := g.N(), g.M()
 	if emb == nil || len(emb.Rotation) != n {
 		return badPlanar("the rotation system must list all %d vertices", n)
@@ -147,7 +149,7 @@ func CheckEmbedding(g *Graph, emb *Embedding) error {
 	return nil
 }
 
-func checkLabel(g *Graph, v int32) string {
+func checkLabel(g *graph.Graph, v int32) string {
 	if v < 0 || int(v) >= g.N() {
 		return fmt.Sprintf("vertex #%d", v)
 	}
@@ -158,7 +160,7 @@ func checkLabel(g *Graph, v int32) string {
 // branch vertices, one path per pair of branch vertices that K5 (all ten
 // pairs) or K3,3 (the nine pairs across its sides) joins, every path a path of
 // g whose inner vertices are not branch vertices and lie on no other path.
-func CheckKuratowski(g *Graph, k *Kuratowski) error {
+func CheckKuratowski(g *graph.Graph, k *Kuratowski) error {
 	if k == nil {
 		return badPlanar("no Kuratowski subgraph")
 	}

@@ -1,4 +1,4 @@
-package cert
+package graph
 
 import (
 	"bytes"
@@ -54,7 +54,7 @@ func TestRoundTripRandom(t *testing.T) {
 			g := ioRandom(r, n, p, base)
 			out := ioWrite(t, f, g)
 			for _, rf := range []Format{f, FormatAuto} {
-				res, err := ReadGraphs(bytes.NewReader(out), "rt", rf)
+				res, err := Read(bytes.NewReader(out), "rt", rf)
 				if err != nil {
 					t.Fatalf("trial %d %v (read as %v): %v\n%s", trial, f, rf, err, out)
 				}
@@ -116,7 +116,7 @@ func TestEdgeListForms(t *testing.T) {
 		{"1 2\n3 3 # c\n", "t:2:3: self-loop at vertex \"3\""},
 		{"1 2 3\n", "t:1:5: expected one or two vertex labels, found more"},
 	} {
-		_, err := ReadGraphs(strings.NewReader(c.src), "t", FormatEdgeList)
+		_, err := Read(strings.NewReader(c.src), "t", FormatEdgeList)
 		if err == nil || !strings.HasPrefix(err.Error(), c.want) {
 			t.Errorf("%q: error %v, want %q", c.src, err, c.want)
 		}
@@ -161,7 +161,7 @@ func TestEdgeListLongInput(t *testing.T) {
 	if g.N() != h.N()+2 || g.M() != h.M()+1 {
 		t.Errorf("with a labelled edge at the end: %v, without: %v", g, h)
 	}
-	if _, err := ReadGraphs(strings.NewReader(strings.Repeat("a", 1<<21)), "long", FormatEdgeList); err == nil || !strings.Contains(err.Error(), "long:1: line longer than 1 MiB") {
+	if _, err := Read(strings.NewReader(strings.Repeat("a", 1<<21)), "long", FormatEdgeList); err == nil || !strings.Contains(err.Error(), "long:1: line longer than 1 MiB") {
 		t.Errorf("a 2 MiB line: error %v", err)
 	}
 }

@@ -17,7 +17,7 @@ import (
 	"spinecert.dev/dimacs"
 	"spinecert.dev/graph"
 	"spinecert.dev/planar/planarcert"
-	"spinecert.dev/verify"
+	"spinecert.dev/proof"
 )
 
 // ErrRejected is wrapped by Build when the evidence given does not hold up:
@@ -262,20 +262,20 @@ func buildRefutation(ctx context.Context, ev *Evidence, enc Encoder, tmpDir stri
 		r.CNF.Member = memberCNF
 	}
 	format := in.ProofFormat
-	if format == "" || format == verify.ProofRUP {
+	if format == "" || format == proof.RUP {
 		format, err = detectFormat(in.Proof)
 		if err != nil {
 			return nil, nil, err
 		}
 	}
 	proofPath, converted := in.Proof, ""
-	if format == verify.ProofDRAT {
+	if format == proof.DRAT {
 		// Store text proofs as binary DRAT: smaller, and compresses better.
 		bin, err := convertProof(in.Proof, tmpDir)
 		if err != nil {
 			return nil, nil, err
 		}
-		proofPath, format, converted = bin, verify.ProofDRATBinary, verify.ProofDRAT
+		proofPath, format, converted = bin, proof.DRATBinary, proof.DRAT
 	}
 	f, err := os.Open(proofPath)
 	if err != nil {
@@ -283,7 +283,7 @@ func buildRefutation(ctx context.Context, ev *Evidence, enc Encoder, tmpDir stri
 	}
 	defer f.Close()
 	psum := sha256.New()
-	out := CheckProof(ctx, checkAgainst, io.TeeReader(bufio.NewReaderSize(f, 1<<20), psum), in.Proof, format, tmpDir)
+	out := proof.CheckRefutation(ctx, checkAgainst, io.TeeReader(bufio.NewReaderSize(f, 1<<20), psum), proof.RefutationOptions{Format: format, Name: in.Proof, TempDir: tmpDir})
 	if err := ctx.Err(); err != nil {
 		return nil, nil, err
 	}
@@ -319,10 +319,10 @@ func detectFormat(path string) (string, error) {
 	defer f.Close()
 	head := make([]byte, 1024)
 	n, _ := io.ReadFull(f, head)
-	if verify.DetectProofFormat(head[:n]) == verify.ProofDRAT && isLRATHead(head[:n]) {
+	if proof.DetectFormat(head[:n]) == proof.DRAT && isLRATHead(head[:n]) {
 		return "lrat", nil
 	}
-	return verify.DetectProofFormat(head[:n]), nil
+	return proof.DetectFormat(head[:n]), nil
 }
 
 // isLRATHead reports whether the first line of a text proof looks like an
@@ -352,7 +352,7 @@ func convertProof(path, tmpDir string) (string, error) {
 	}
 	dr, err := dimacs.Decompress(in)
 	if err == nil {
-		err = DRATToBinary(dr, out, path)
+		err = proof.TextToBinary(dr, out, path)
 		dr.Close()
 	}
 	if cerr := out.Close(); err == nil {

@@ -37,8 +37,8 @@
 //
 // Verify re-checks a bundle from scratch and streams it once: layouts with
 // cert.Check; proofs (binary DRAT as stored; text DRAT given to Build is
-// converted to binary) with verify.CheckDRAT, whose LRAT output is checked
-// again by verify.CheckLRAT, against the CNF rebuilt from the graph by the
+// converted to binary) with proof.CheckDRAT, whose LRAT output is checked
+// again by proof.CheckLRAT, against the CNF rebuilt from the graph by the
 // current encoder. When the current encoder gives another CNF for the claim
 // (encoder drift), the report says so with both versions; the CNF is then
 // rebuilt with the recorded version if the encoder can still reproduce it

@@ -443,3 +443,9 @@ func (m *Manifest) Validate() error {
 	slices.Sort(errs)
 	return &BundleError{Member: ManifestName, Kind: ErrManifest, Detail: strings.Join(errs, "; ")}
 }
+
+// Checker names recorded in manifests for spinecert's own checkers.
+const (
+	CheckerDRAT = "spinecert drat + lrat re-check"
+	CheckerLRAT = "spinecert lrat"
+)

@@ -16,6 +16,7 @@ import (
 	"spinecert.dev/dimacs"
 	"spinecert.dev/graph"
 	"spinecert.dev/planar/planarcert"
+	"spinecert.dev/proof"
 )
 
 // maxHeld bounds the bytes of members other than proofs that Verify holds
@@ -123,7 +124,7 @@ func Verify(ctx context.Context, r io.Reader, name string, opt VerifyOptions) *R
 	if opt.Limits == (Limits{}) {
 		opt.Limits = DefaultLimits()
 	}
-	v := &verifier{ctx: ctx, opt: opt, rep: &Report{Bundle: name}, files: map[string][]byte{}, outcomes: map[string]ProofOutcome{}}
+	v := &verifier{ctx: ctx, opt: opt, rep: &Report{Bundle: name}, files: map[string][]byte{}, outcomes: map[string]proof.Outcome{}}
 	c, err := Walk(ctx, r, name, opt.Limits, v.member)
 	v.finish(c, err)
 	v.rep.Seconds = time.Since(start).Seconds()
@@ -145,7 +146,7 @@ type verifier struct {
 	target   *dimacs.CNF // what proofs are checked against to establish the claim (nil = nothing)
 	stored   *dimacs.CNF // a CNF stored in the bundle, checked only for information
 	layoutOK bool
-	outcomes map[string]ProofOutcome // proof member -> outcome against target or stored
+	outcomes map[string]proof.Outcome // proof member -> outcome against target or stored
 }
 
 func (v *verifier) member(m Member, r io.Reader) error {
@@ -186,7 +187,7 @@ func (v *verifier) member(m Member, r io.Reader) error {
 	if against == nil {
 		return nil
 	}
-	v.outcomes[m.Name] = CheckProof(v.ctx, against, r, m.Name, p.Format, v.opt.TempDir)
+	v.outcomes[m.Name] = proof.CheckRefutation(v.ctx, against, r, proof.RefutationOptions{Format: p.Format, Name: m.Name, TempDir: v.opt.TempDir})
 	return nil
 }
 
@@ -561,7 +562,7 @@ func (v *verifier) finishProofs() bool {
 			return false
 		}
 		defer f.Close()
-		out := CheckProof(v.ctx, v.cur, f, res.Proof, format, v.opt.TempDir)
+		out := proof.CheckRefutation(v.ctx, v.cur, f, proof.RefutationOptions{Format: format, Name: res.Proof, TempDir: v.opt.TempDir})
 		if !out.OK() {
 			v.rep.add("resolve", StatusFail, "the new proof: %s", describe(out))
 			return false
@@ -582,7 +583,7 @@ func (v *verifier) finishProofs() bool {
 	return false
 }
 
-func describe(o ProofOutcome) string {
+func describe(o proof.Outcome) string {
 	if o.OK() {
 		if o.Format == "lrat" {
 			return "spinecert's LRAT checker accepted it"

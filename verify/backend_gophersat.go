@@ -12,6 +12,7 @@ import (
 	"github.com/crillab/gophersat/solver"
 
 	"spinecert.dev/dimacs"
+	"spinecert.dev/proof"
 )
 
 // gophersatVersion is the gophersat release spinecert is built against (see go.mod).
@@ -57,7 +58,7 @@ func NewGophersat(child ChildCommand) *Gophersat {
 		Label:       "gophersat",
 		Argv:        []string{child.Path, ArgCNF, ArgProof},
 		Env:         child.Env,
-		ProofFormat: ProofRUP,
+		ProofFormat: proof.RUP,
 		Version:     gophersatVersion,
 	}}
 }

@@ -8,7 +8,7 @@
 // 2014). A text step is an optional "d", literals, and 0; lines starting
 // with "c" are comments. A binary step is the byte 'a' (addition) or 'd'
 // (deletion), literals as unsigned LEB128 numbers 2*v+sign (sign 1 for a
-// negative literal) and a 0 byte. DetectProofFormat tells them apart: a proof
+// negative literal) and a 0 byte. proof.DetectFormat tells them apart: a proof
 // is binary when one of its first 1024 bytes is neither printable ASCII nor
 // white space. "rup" names DRAT text without deletions whose lemmas must all
 // be RUP. Proofs may be plain, gzip or zstd (dimacs.Decompress).
@@ -17,7 +17,7 @@
 // Schneider-Kamp, "Efficient certified RAT verification" (CADE 2017): "id
 // lits 0 hints 0" and "id d ids 0".
 //
-// # The DRAT checker (CheckDRAT)
+// # The DRAT checker (proof.CheckDRAT)
 //
 // It trusts the DIMACS reader for the formula and its own code: the proof
 // reader, unit propagation with two watched literals, and conflict analysis.
@@ -36,7 +36,7 @@
 // Deletions are matched by a hash of the clause's literal set. Like
 // drat-trim in its default mode, the checker ignores a deletion of a clause
 // that is the reason of a unit at the top level at that moment (counted in
-// ProofResult.IgnoredDeletions) and a deletion that names no current clause
+// proof.DRATResult.IgnoredDeletions) and a deletion that names no current clause
 // (MissingDeletions). Ignoring a deletion keeps more clauses and so can only
 // make more lemmas pass; the refutation is still sound because every kept
 // clause is an original clause or a lemma that is itself checked when used.
@@ -52,12 +52,12 @@
 // scans the current clauses for the negated pivot, so proofs with many RAT
 // lemmas cost time proportional to their number times the formula size.
 //
-// With DRATOptions.LRAT the checked proof is written as LRAT: RUP hints in
+// With proof.DRATOptions.LRAT the checked proof is written as LRAT: RUP hints in
 // the order propagation used them, the falsified clause last; RAT lemmas with
 // one group "-j hints" per clause j containing the negated pivot, each group
 // complete on its own. In backward mode only core lemmas are written.
 //
-// # The LRAT checker (CheckLRAT)
+// # The LRAT checker (proof.CheckLRAT)
 //
 // A second, deliberately small checker in its own file, sharing no code with
 // the DRAT checker beyond the DIMACS reader. It trusts the DIMACS reader and
@@ -88,9 +88,9 @@
 // checked model decides "satisfiable" (DecideLayout then decodes it and
 // checks the layout directly with cert.Validate). "Unsatisfiable" needs
 // UNSAT from at least two differently named backends and at least one of
-// their proofs accepted by CheckDRAT and, on the LRAT it writes, by
-// CheckLRAT (DefaultPolicy). A suspect backend, or a model beside an UNSAT
-// claim, is a conflict and no verdict. PageNumber builds on this: its upper
+// their proofs accepted by proof.CheckDRAT and, on the LRAT it writes, by
+// proof.CheckLRAT (DefaultPolicy). A suspect backend, or a model beside an UNSAT
+// claim, is a conflict and no verdict. pagenumber.Compute builds on this: its upper
 // bound is always a directly checked layout; its lower bound is a counting
 // or Kuratowski argument (the Kuratowski subgraph checked by
 // planarcert.CheckKuratowski) or an "unsatisfiable" verdict for one page fewer.

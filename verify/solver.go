@@ -39,13 +39,6 @@ func (a Answer) String() string {
 // MarshalJSON writes the answer as its string.
 func (a Answer) MarshalJSON() ([]byte, error) { return json.Marshal(a.String()) }
 
-// Proof formats a backend may write.
-const (
-	ProofDRAT       = "drat"        // DRAT text (Wetzler, Heule, Hunt, SAT 2014)
-	ProofDRATBinary = "drat-binary" // binary DRAT, same paper
-	ProofRUP        = "rup"         // DRAT text without deletions or RAT lemmas
-)
-
 // Result is the outcome of one solver run.
 type Result struct {
 	Backend     string        `json:"backend"`

@@ -7,6 +7,8 @@ import (
 	"strings"
 	"sync"
 	"time"
+
+	"spinecert.dev/proof"
 )
 
 // knownExternal describes how to run a solver program spinecert knows by name.
@@ -20,8 +22,8 @@ type knownExternal struct {
 // on PATH. Debian's cadical and kissat write binary DRAT to their second
 // argument by default; minisat writes no proof and its answer to a file.
 var knownExternals = map[string]knownExternal{
-	"cadical": {argv: []string{"-q", ArgCNF, ArgProof}, proofFormat: ProofDRATBinary, versionArg: "--version"},
-	"kissat":  {argv: []string{"-q", ArgCNF, ArgProof}, proofFormat: ProofDRATBinary, versionArg: "--version"},
+	"cadical": {argv: []string{"-q", ArgCNF, ArgProof}, proofFormat: proof.DRATBinary, versionArg: "--version"},
+	"kissat":  {argv: []string{"-q", ArgCNF, ArgProof}, proofFormat: proof.DRATBinary, versionArg: "--version"},
 	"minisat": {argv: []string{"-verb=0", ArgCNF, ArgResult}},
 }
 

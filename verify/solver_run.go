@@ -9,6 +9,7 @@ import (
 	"time"
 
 	"spinecert.dev/dimacs"
+	"spinecert.dev/proof"
 )
 
 // EventKind tells what a progress Event reports.
@@ -63,9 +64,9 @@ func (p *progress) send(e Event) {
 // ProofFileName is the name RunAll gives the proof of backend in ProofDir.
 func ProofFileName(backend, format string) string {
 	switch format {
-	case ProofDRATBinary:
+	case proof.DRATBinary:
 		return backend + ".drat.bin"
-	case ProofRUP:
+	case proof.RUP:
 		return backend + ".rup"
 	}
 	return backend + ".drat"
@@ -79,7 +80,7 @@ func proofFormatOf(s Solver) string {
 			return b.ProofFormat
 		}
 	case *Gophersat:
-		return ProofRUP
+		return proof.RUP
 	}
 	return ""
 }

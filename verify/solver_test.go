@@ -12,7 +12,9 @@ import (
 	"time"
 
 	"spinecert.dev/dimacs"
+	"spinecert.dev/internal/fixture"
 	"spinecert.dev/internal/testtools"
+	"spinecert.dev/proof"
 )
 
 // gophersatForTest runs gophersat in a child copy of the test binary (see TestMain).
@@ -54,7 +56,7 @@ func solveOK(t *testing.T, s Solver, cnf *dimacs.CNF, proof string) *Result {
 func TestPigeonholeUnsat(t *testing.T) {
 	backends := inProcess(t)
 	for _, n := range []int{1, 2, 3, 4, 5, 6} {
-		cnf := pigeonhole(n)
+		cnf := fixture.Pigeonhole(n)
 		// Sizes from the definition: n(n+1) variables, (n+1) + n*C(n+1,2) clauses.
 		if cnf.Vars != n*(n+1) || len(cnf.Clauses) != n+1+n*(n+1)*n/2 {
 			t.Fatalf("PHP(%d,%d) has %d vars %d clauses", n+1, n, cnf.Vars, len(cnf.Clauses))
@@ -73,7 +75,7 @@ func TestPigeonholeUnsat(t *testing.T) {
 		t.Run("cadical", func(t *testing.T) {
 			s := cadicalForTest(t)
 			r := solveOK(t, s, cnf, filepath.Join(t.TempDir(), "proof"))
-			if r.Answer != Unsat || r.Proof == "" || r.ProofFormat != ProofDRATBinary {
+			if r.Answer != Unsat || r.Proof == "" || r.ProofFormat != proof.DRATBinary {
 				t.Errorf("PHP(%d,%d) with cadical: %+v", n+1, n, r)
 			}
 		})
@@ -108,7 +110,7 @@ func TestRandom3SATAgree(t *testing.T) {
 	sat, unsat := 0, 0
 	backends := inProcess(t)
 	for seed := range uint64(count) {
-		cnf := random3SAT(seed+1, n, m)
+		cnf := fixture.Random3SAT(seed+1, n, m)
 		cnfs = append(cnfs, cnf)
 		var first Answer
 		for i, s := range backends {
@@ -191,7 +193,7 @@ func script(t *testing.T, name string) *External {
 	if err != nil {
 		t.Fatal(err)
 	}
-	return &External{Label: name, Argv: []string{path, ArgCNF, ArgProof}, ProofFormat: ProofDRAT}
+	return &External{Label: name, Argv: []string{path, ArgCNF, ArgProof}, ProofFormat: proof.DRAT}
 }
 
 // TestFaultInjection: solvers that lie, crash, hang or print garbage never
@@ -264,7 +266,7 @@ func TestHangKilled(t *testing.T) {
 // on a formula far beyond it (PHP(13,12) needs exponential resolution
 // proofs, Haken 1985) and on cancellation.
 func TestTimeoutInProcess(t *testing.T) {
-	cnf := pigeonhole(12)
+	cnf := fixture.Pigeonhole(12)
 	for _, s := range inProcess(t) {
 		start := time.Now()
 		r, err := s.Solve(context.Background(), cnf, 300*time.Millisecond, filepath.Join(t.TempDir(), "proof"))

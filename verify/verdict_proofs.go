@@ -1,13 +1,13 @@
 package verify
 
 import (
-	"bufio"
 	"context"
 	"fmt"
 	"os"
 	"time"
 
 	"spinecert.dev/dimacs"
+	"spinecert.dev/proof"
 )
 
 // ProofCheckOptions controls CheckProofs.
@@ -21,8 +21,8 @@ type ProofCheckOptions struct {
 }
 
 // CheckProofs checks the proof of every UNSAT result that has one, in
-// order: spinecert's DRAT checker (CheckDRAT, backward, writing LRAT), then the
-// separate LRAT checker (CheckLRAT) on that LRAT output. Results without a
+// order: spinecert's DRAT checker (proof.CheckDRAT, backward, writing LRAT), then the
+// separate LRAT checker (proof.CheckLRAT) on that LRAT output. Results without a
 // proof get no entry; the result of a proof check that could not run at
 // all carries the reason in Error.
 func CheckProofs(ctx context.Context, cnf *dimacs.CNF, results []*Result, opt ProofCheckOptions) []ProofCheck {
@@ -47,7 +47,8 @@ func CheckProofs(ctx context.Context, cnf *dimacs.CNF, results []*Result, opt Pr
 	return out
 }
 
-// checkOneProof runs both checkers on one result's proof.
+// checkOneProof runs both checkers on one result's proof, through
+// proof.CheckRefutation; the LRAT it writes goes beside the proof.
 func checkOneProof(ctx context.Context, cnf *dimacs.CNF, r *Result, keepLRAT bool, pr *progress) (c ProofCheck) {
 	start := time.Now()
 	c = ProofCheck{Backend: r.Backend, Format: r.ProofFormat}
@@ -59,59 +60,22 @@ func checkOneProof(ctx context.Context, cnf *dimacs.CNF, r *Result, keepLRAT boo
 	}
 	defer f.Close()
 	lratPath := r.Proof + ".lrat"
-	lf, err := os.Create(lratPath)
-	if err != nil {
-		c.Error = err.Error()
-		return c
-	}
 	if !keepLRAT {
 		defer os.Remove(lratPath)
 	}
-	lw := bufio.NewWriterSize(lf, 256<<10)
-	res, err := CheckDRAT(ctx, cnf, f, DRATOptions{
-		Format: r.ProofFormat,
-		LRAT:   lw,
-		Name:   r.Proof,
-		Progress: func(p DRATProgress) {
+	out := proof.CheckRefutation(ctx, cnf, f, proof.RefutationOptions{
+		Format: r.ProofFormat, Name: r.Proof, LRATPath: lratPath,
+		Progress: func(p proof.Progress) {
 			pr.send(Event{Kind: ProofProgress, Backend: r.Backend, Phase: p.Phase, Done: int64(p.Steps), Total: int64(p.Total), Elapsed: time.Since(start)})
 		},
 	})
-	ferr := lw.Flush()
-	if cerr := lf.Close(); ferr == nil {
-		ferr = cerr
+	if out.Format != "" {
+		c.Format = out.Format
 	}
-	if res != nil {
-		c.Format = res.Format
-		c.Lemmas, c.Core = int64(res.Lemmas), int64(res.CoreLemmas)
+	c.Lemmas, c.Core = out.Lemmas, out.Core
+	c.DRAT, c.LRAT = out.DRAT, out.LRAT
+	if !out.OK() {
+		c.Error = out.Detail
 	}
-	if err != nil {
-		c.Error = "DRAT check: " + err.Error()
-		return c
-	}
-	if res == nil || !res.Accepted {
-		c.Error = "DRAT check did not accept the proof"
-		return c
-	}
-	c.DRAT = true
-	if ferr != nil {
-		c.Error = "writing LRAT: " + ferr.Error()
-		return c
-	}
-	lin, err := os.Open(lratPath)
-	if err != nil {
-		c.Error = err.Error()
-		return c
-	}
-	defer lin.Close()
-	lres, err := CheckLRAT(ctx, cnf, lin, lratPath)
-	if err != nil {
-		c.Error = "LRAT re-check: " + err.Error()
-		return c
-	}
-	if lres == nil || !lres.Accepted {
-		c.Error = "LRAT re-check did not accept the proof"
-		return c
-	}
-	c.LRAT = true
 	return c
 }

@@ -8,6 +8,8 @@ import (
 
 	"spinecert.dev/cert"
 	"spinecert.dev/dimacs"
+	"spinecert.dev/internal/fixture"
+	"spinecert.dev/proof"
 )
 
 // TestPipelinePigeonhole runs the whole UNSAT path on PHP(n+1, n), which is
@@ -15,7 +17,7 @@ import (
 // through spinecert's DRAT checker and the LRAT re-check, then Decide.
 func TestPipelinePigeonhole(t *testing.T) {
 	for _, n := range []int{3, 5} {
-		cnf := pigeonhole(n)
+		cnf := fixture.Pigeonhole(n)
 		solvers := inProcess(t)
 		results, err := RunAll(context.Background(), cnf, solvers, RunOptions{Limit: time.Minute, ProofDir: t.TempDir()})
 		if err != nil {
@@ -31,13 +33,13 @@ func TestPipelinePigeonhole(t *testing.T) {
 		}
 	}
 	t.Run("cadical", func(t *testing.T) {
-		cnf := pigeonhole(6)
+		cnf := fixture.Pigeonhole(6)
 		results, err := RunAll(context.Background(), cnf, []Solver{cadicalForTest(t), Gini{}}, RunOptions{Limit: time.Minute, ProofDir: t.TempDir()})
 		if err != nil {
 			t.Fatal(err)
 		}
 		checks := CheckProofs(context.Background(), cnf, results, ProofCheckOptions{})
-		if len(checks) != 1 || !checks[0].DRAT || !checks[0].LRAT || checks[0].Format != ProofDRATBinary {
+		if len(checks) != 1 || !checks[0].DRAT || !checks[0].LRAT || checks[0].Format != proof.DRATBinary {
 			t.Fatalf("proof checks %+v", checks)
 		}
 		if v := Decide(results, checks, DefaultPolicy()); v.Outcome != Unsatisfiable {
@@ -80,7 +82,7 @@ func TestPipelineLiars(t *testing.T) {
 // possible, so its proof is not checked; K4 has no 1-page layout (it is not
 // outerplanar, Bernhart & Kainen 1979).
 func TestDecideLayoutSkipsHopelessProofs(t *testing.T) {
-	gv, err := DecideLayout(context.Background(), complete(t, 4), GraphOptions{
+	gv, err := DecideLayout(context.Background(), fixture.Complete(4), GraphOptions{
 		Encoding: dimacs.Options{Kind: cert.Stack, Pages: 1},
 		Solvers:  []Solver{gophersatForTest(t)},
 		Limit:    time.Minute,
@@ -91,7 +93,7 @@ func TestDecideLayoutSkipsHopelessProofs(t *testing.T) {
 	if gv.Verdict.Outcome != Undecided || len(gv.Checks) != 1 || gv.Checks[0].Skipped == "" {
 		t.Fatalf("verdict %+v checks %+v", gv.Verdict, gv.Checks)
 	}
-	gv, err = DecideLayout(context.Background(), complete(t, 4), GraphOptions{
+	gv, err = DecideLayout(context.Background(), fixture.Complete(4), GraphOptions{
 		Encoding: dimacs.Options{Kind: cert.Stack, Pages: 1},
 		Solvers:  inProcess(t),
 		Limit:    time.Minute,

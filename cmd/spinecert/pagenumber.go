@@ -13,6 +13,7 @@ import (
 	"spinecert.dev/cert"
 	"spinecert.dev/dimacs"
 	"spinecert.dev/graph"
+	"spinecert.dev/pagenumber"
 	"spinecert.dev/verify"
 )
 
@@ -105,7 +106,7 @@ func runPageNumber(cmd *cobra.Command, o *pageNumberOptions) error {
 	}
 	prog := newSolveProgress(cmd.ErrOrStderr(), o.solver.quiet, solvers)
 	step := -1
-	res, err := verify.PageNumber(cmd.Context(), g, verify.PageNumberOptions{
+	res, err := pagenumber.Compute(cmd.Context(), g, pagenumber.Options{
 		Kind:       kind,
 		Solvers:    solvers,
 		Limit:      o.solver.timeLimit,
@@ -121,7 +122,7 @@ func runPageNumber(cmd *cobra.Command, o *pageNumberOptions) error {
 		},
 	})
 	prog.finish()
-	if err != nil && !errors.Is(err, verify.ErrUndecided) {
+	if err != nil && !errors.Is(err, pagenumber.ErrUndecided) {
 		return usageErr(err)
 	}
 	if res.Layout != nil && o.output != "" {
@@ -146,12 +147,12 @@ func runPageNumber(cmd *cobra.Command, o *pageNumberOptions) error {
 	return nil
 }
 
-func writePageNumberJSON(w io.Writer, g *graph.Graph, res *verify.PageNumberResult, planarity *planarityRecord) error {
+func writePageNumberJSON(w io.Writer, g *graph.Graph, res *pagenumber.Result, planarity *planarityRecord) error {
 	type evidence struct {
-		Lower  verify.Bound            `json:"lower"`
-		Upper  verify.Bound            `json:"upper"`
-		Layout json.RawMessage         `json:"layout,omitempty"`
-		Steps  []verify.PageNumberStep `json:"steps"`
+		Lower  pagenumber.Bound  `json:"lower"`
+		Upper  pagenumber.Bound  `json:"upper"`
+		Layout json.RawMessage   `json:"layout,omitempty"`
+		Steps  []pagenumber.Step `json:"steps"`
 	}
 	type result struct {
 		Graph      string           `json:"graph"`
@@ -166,7 +167,7 @@ func writePageNumberJSON(w io.Writer, g *graph.Graph, res *verify.PageNumberResu
 	r := result{Graph: g.ID(), Kind: res.Kind, Lower: res.Lower.Pages, Upper: res.Upper.Pages, Elapsed: res.Elapsed, Planarity: planarity,
 		Evidence: evidence{Lower: res.Lower, Upper: res.Upper, Steps: res.Steps}}
 	if r.Evidence.Steps == nil {
-		r.Evidence.Steps = []verify.PageNumberStep{}
+		r.Evidence.Steps = []pagenumber.Step{}
 	}
 	if res.PageNumber >= 0 {
 		pn := res.PageNumber
@@ -182,7 +183,7 @@ func writePageNumberJSON(w io.Writer, g *graph.Graph, res *verify.PageNumberResu
 	return writeJSON(w, r)
 }
 
-func printPageNumber(w io.Writer, name string, res *verify.PageNumberResult, err error) {
+func printPageNumber(w io.Writer, name string, res *pagenumber.Result, err error) {
 	what := "page number"
 	if res.Kind == cert.Queue.String() {
 		what = "queue number"

@@ -12,7 +12,7 @@ import (
 	"golang.org/x/term"
 
 	"spinecert.dev/dimacs"
-	"spinecert.dev/verify"
+	"spinecert.dev/proof"
 )
 
 func init() { register(newProofCmd) }
@@ -69,20 +69,20 @@ Progress goes to stderr when it is a terminal (not with --quiet).`,
 
 // proofReport is the JSON output of spinecert proof.
 type proofReport struct {
-	CNF    string              `json:"cnf"`
-	Proof  string              `json:"proof"`
-	Kind   string              `json:"checker"` // "drat" or "lrat"
-	LRAT   string              `json:"lrat_written,omitempty"`
-	Result *verify.ProofResult `json:"drat,omitempty"`
-	Check  *verify.LRATResult  `json:"lrat,omitempty"`
-	Error  string              `json:"error,omitempty"`
+	CNF    string            `json:"cnf"`
+	Proof  string            `json:"proof"`
+	Kind   string            `json:"checker"` // "drat" or "lrat"
+	LRAT   string            `json:"lrat_written,omitempty"`
+	Result *proof.DRATResult `json:"drat,omitempty"`
+	Check  *proof.LRATResult `json:"lrat,omitempty"`
+	Error  string            `json:"error,omitempty"`
 }
 
 func runProof(cmd *cobra.Command, o *proofOptions) error {
 	switch o.format {
-	case "", verify.ProofDRAT, verify.ProofDRATBinary, verify.ProofRUP:
+	case "", proof.DRAT, proof.DRATBinary, proof.RUP:
 	default:
-		return usageErr(fmt.Errorf("--format must be %s, %s or %s, got %q", verify.ProofDRAT, verify.ProofDRATBinary, verify.ProofRUP, o.format))
+		return usageErr(fmt.Errorf("--format must be %s, %s or %s, got %q", proof.DRAT, proof.DRATBinary, proof.RUP, o.format))
 	}
 	if o.lratCheck && (o.format != "" || o.forward || o.lrat != "") {
 		return usageErr(errors.New("--lrat-check takes no --format, --forward or --lrat"))
@@ -104,16 +104,16 @@ func runProof(cmd *cobra.Command, o *proofOptions) error {
 	var checkErr error
 	if o.lratCheck {
 		rep.Kind = "lrat"
-		rep.Check, checkErr = verify.CheckLRAT(ctx, cnf, f, o.proof)
+		rep.Check, checkErr = proof.CheckLRAT(ctx, cnf, f, o.proof)
 	} else {
 		bar := newProofBar(cmd.ErrOrStderr(), o.quiet)
-		opt := verify.DRATOptions{Format: o.format, Forward: o.forward, Name: o.proof, Progress: bar.update}
+		opt := proof.DRATOptions{Format: o.format, Forward: o.forward, Name: o.proof, Progress: bar.update}
 		if o.lrat == "" {
-			rep.Result, checkErr = verify.CheckDRAT(ctx, cnf, f, opt)
+			rep.Result, checkErr = proof.CheckDRAT(ctx, cnf, f, opt)
 		} else {
 			werr := writeFileAtomic(o.lrat, cmd.OutOrStdout(), func(w io.Writer) error {
 				opt.LRAT = w
-				rep.Result, checkErr = verify.CheckDRAT(ctx, cnf, f, opt)
+				rep.Result, checkErr = proof.CheckDRAT(ctx, cnf, f, opt)
 				return checkErr
 			})
 			if checkErr == nil && werr != nil {
@@ -125,7 +125,7 @@ func runProof(cmd *cobra.Command, o *proofOptions) error {
 		}
 		bar.finish()
 	}
-	rejected := errors.Is(checkErr, verify.ErrProofRejected)
+	rejected := errors.Is(checkErr, proof.ErrRejected)
 	if checkErr != nil && !rejected {
 		return usageErr(checkErr)
 	}
@@ -192,7 +192,7 @@ func newProofBar(w io.Writer, quiet bool) *proofBar {
 	return &proofBar{w: w}
 }
 
-func (b *proofBar) update(p verify.DRATProgress) {
+func (b *proofBar) update(p proof.Progress) {
 	if b == nil {
 		return
 	}

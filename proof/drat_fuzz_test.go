@@ -1,4 +1,4 @@
-package verify
+package proof
 
 import (
 	"bytes"
@@ -15,7 +15,7 @@ func FuzzDRATText(f *testing.F) {
 		f.Add([]byte(s))
 	}
 	f.Fuzz(func(t *testing.T, data []byte) {
-		steps, err := fuzzSteps(data, ProofDRAT)
+		steps, err := fuzzSteps(data, DRAT)
 		if err != nil {
 			return
 		}
@@ -23,7 +23,7 @@ func FuzzDRATText(f *testing.F) {
 		for _, s := range steps {
 			text.WriteString(s + "\n")
 		}
-		again, err := fuzzSteps(text.Bytes(), ProofDRAT)
+		again, err := fuzzSteps(text.Bytes(), DRAT)
 		if err != nil || len(again) != len(steps) {
 			t.Fatalf("re-reading %q: %v", text.String(), err)
 		}
@@ -41,7 +41,7 @@ func FuzzDRATBinary(f *testing.F) {
 	f.Add([]byte("a\x02\x05\x00d\x02\x00"))
 	f.Add([]byte("a\x80\x00"))
 	f.Fuzz(func(t *testing.T, data []byte) {
-		pr, _, err := newProofReader(bytes.NewReader(data), "fuzz", ProofDRATBinary)
+		pr, _, err := newProofReader(bytes.NewReader(data), "fuzz", DRATBinary)
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -74,8 +74,8 @@ func FuzzDRATBinary(f *testing.F) {
 		}
 		// overlong encodings (0x80 continuation with zero bits) re-encode
 		// shorter; compare by decoding again
-		a, errA := fuzzSteps(data, ProofDRATBinary)
-		b, errB := fuzzSteps(out, ProofDRATBinary)
+		a, errA := fuzzSteps(data, DRATBinary)
+		b, errB := fuzzSteps(out, DRATBinary)
 		if errA != nil || errB != nil || len(a) != len(b) {
 			t.Fatalf("round trip: %v %v", errA, errB)
 		}
@@ -119,7 +119,7 @@ func FuzzDRATCheck(f *testing.F) {
 			var lrat bytes.Buffer
 			res, err := CheckDRAT(context.Background(), cnf, bytes.NewReader(proof), DRATOptions{Forward: forward, LRAT: &lrat})
 			if err != nil {
-				if errors.Is(err, ErrProofRejected) && (res == nil || res.Accepted || res.Reason == "") {
+				if errors.Is(err, ErrRejected) && (res == nil || res.Accepted || res.Reason == "") {
 					t.Fatalf("rejection without a reason: %+v", res)
 				}
 				continue

@@ -1,4 +1,4 @@
-package verify
+package proof
 
 import (
 	"context"
@@ -9,12 +9,12 @@ import (
 	"spinecert.dev/dimacs"
 )
 
-// ErrProofRejected is wrapped by the error of a check that read its input
+// ErrRejected is wrapped by the error of a check that read its input
 // and found the proof wrong. Other errors mean the input could not be read.
-var ErrProofRejected = errors.New("proof rejected")
+var ErrRejected = errors.New("proof rejected")
 
-// DRATProgress reports how far a proof check has come.
-type DRATProgress struct {
+// Progress reports how far a proof check has come.
+type Progress struct {
 	Phase   string // "reading" (forward pass) or "checking" (backward pass)
 	Steps   uint64 // steps of the proof passed in this phase
 	Total   uint64 // steps this phase will pass, 0 when not known yet
@@ -23,8 +23,8 @@ type DRATProgress struct {
 
 // DRATOptions configures CheckDRAT.
 type DRATOptions struct {
-	// Format is ProofDRAT, ProofDRATBinary or ProofRUP; empty means detect
-	// it (see DetectProofFormat). ProofRUP is DRAT text without deletions,
+	// Format is DRAT, DRATBinary or RUP; empty means detect
+	// it (see DetectFormat). RUP is DRAT text without deletions,
 	// whose lemmas must all be RUP.
 	Format string
 	// Forward checks every lemma in proof order instead of checking
@@ -35,13 +35,13 @@ type DRATOptions struct {
 	// LRAT, when non-nil, receives the checked proof in LRAT text.
 	LRAT io.Writer
 	// Progress, when non-nil, is called from time to time.
-	Progress func(DRATProgress)
+	Progress func(Progress)
 	// Name is the proof's name in messages.
 	Name string
 }
 
-// ProofResult is the outcome of CheckDRAT.
-type ProofResult struct {
+// DRATResult is the outcome of CheckDRAT.
+type DRATResult struct {
 	Accepted bool   `json:"accepted"`
 	Format   string `json:"format"`
 	Detected bool   `json:"format_detected"`
@@ -77,9 +77,9 @@ type ProofResult struct {
 
 // CheckDRAT checks that proof (DRAT text or binary, plain, gzip or zstd)
 // refutes cnf. A rejected proof returns the result and an error wrapping
-// ErrProofRejected; a proof that cannot be read returns an error wrapping a
+// ErrRejected; a proof that cannot be read returns an error wrapping a
 // *textpos.Error or the I/O error.
-func CheckDRAT(ctx context.Context, cnf *dimacs.CNF, proof io.Reader, opt DRATOptions) (*ProofResult, error) {
+func CheckDRAT(ctx context.Context, cnf *dimacs.CNF, proof io.Reader, opt DRATOptions) (*DRATResult, error) {
 	name := opt.Name
 	if name == "" {
 		name = "proof"
@@ -94,7 +94,7 @@ func CheckDRAT(ctx context.Context, cnf *dimacs.CNF, proof io.Reader, opt DRATOp
 		return nil, err
 	}
 	opt.Format = pr.format
-	res := &ProofResult{Format: pr.format, Detected: detected, Mode: "backward"}
+	res := &DRATResult{Format: pr.format, Detected: detected, Mode: "backward"}
 	if opt.Forward {
 		res.Mode = "forward"
 	}
@@ -109,7 +109,7 @@ func CheckDRAT(ctx context.Context, cnf *dimacs.CNF, proof io.Reader, opt DRATOp
 	defer func() { res.Propagations = k.propagations }()
 	conflictStep, err := k.readSteps(opt.Forward)
 	if err != nil {
-		if errors.Is(err, ErrProofRejected) {
+		if errors.Is(err, ErrRejected) {
 			return res, err
 		}
 		return nil, err
@@ -125,7 +125,7 @@ func CheckDRAT(ctx context.Context, cnf *dimacs.CNF, proof io.Reader, opt DRATOp
 		return res, nil
 	}
 	if err := k.backward(conflictStep); err != nil {
-		if errors.Is(err, ErrProofRejected) {
+		if errors.Is(err, ErrRejected) {
 			return res, err
 		}
 		return nil, err
@@ -141,7 +141,7 @@ func CheckDRAT(ctx context.Context, cnf *dimacs.CNF, proof io.Reader, opt DRATOp
 
 // WriteLRAT checks proof like CheckDRAT and writes the checked proof to w
 // in LRAT text. Nothing useful is in w unless the error is nil.
-func WriteLRAT(ctx context.Context, cnf *dimacs.CNF, proof io.Reader, w io.Writer, opt DRATOptions) (*ProofResult, error) {
+func WriteLRAT(ctx context.Context, cnf *dimacs.CNF, proof io.Reader, w io.Writer, opt DRATOptions) (*DRATResult, error) {
 	opt.LRAT = w
 	return CheckDRAT(ctx, cnf, proof, opt)
 }

@@ -1,4 +1,4 @@
-package verify
+package proof
 
 // The clause database of the DRAT checker: clauses stored in one arena,
 // two watched literals per clause, a top-level trail with reasons, and a hash

@@ -1,4 +1,4 @@
-package verify
+package pagenumber
 
 import (
 	"context"
@@ -8,7 +8,9 @@ import (
 
 	"spinecert.dev/cert"
 	"spinecert.dev/dimacs"
+	"spinecert.dev/internal/fixture/backends"
 	"spinecert.dev/internal/testtools"
+	"spinecert.dev/verify"
 )
 
 // benchLimit is the time limit per solver run in the K_9 benchmarks
@@ -32,16 +34,16 @@ func BenchmarkPageNumberK9(b *testing.B) {
 	g := complete(b, 9)
 	b.Run("bounds", func(b *testing.B) {
 		for b.Loop() {
-			res, err := PageNumber(context.Background(), g, PageNumberOptions{Kind: cert.Stack, Solvers: []Solver{Gini{}}})
+			res, err := Compute(context.Background(), g, Options{Kind: cert.Stack, Solvers: []verify.Solver{verify.Gini{}}})
 			if err != nil || res.PageNumber != 5 {
 				b.Fatalf("%v %+v", err, res)
 			}
 		}
 	})
 	b.Run("unsat-lower", func(b *testing.B) {
-		solvers := []Solver{externalForBench(b, "cadical"), externalForBench(b, "minisat")}
+		solvers := []verify.Solver{externalForBench(b, "cadical"), externalForBench(b, "minisat")}
 		for b.Loop() {
-			res, err := PageNumber(context.Background(), g, PageNumberOptions{Kind: cert.Stack, Solvers: solvers, UnsatLower: true, Limit: benchLimit(b)})
+			res, err := Compute(context.Background(), g, Options{Kind: cert.Stack, Solvers: solvers, UnsatLower: true, Limit: benchLimit(b)})
 			if err != nil || res.PageNumber != 5 || res.Lower.Source != SourceUnsat {
 				b.Fatalf("%v %+v", err, res)
 			}
@@ -49,9 +51,9 @@ func BenchmarkPageNumberK9(b *testing.B) {
 	})
 }
 
-func externalForBench(b *testing.B, name string) Solver {
+func externalForBench(b *testing.B, name string) verify.Solver {
 	testtools.Require(b, name, name)
-	s, err := ByName(name, ChildCommand{})
+	s, err := verify.ByName(name, verify.ChildCommand{})
 	if err != nil {
 		b.Fatal(err)
 	}
@@ -78,12 +80,12 @@ func BenchmarkK9FourPages(b *testing.B) {
 		cnf := e.CNF()
 		for _, name := range []string{"gophersat", "gini", "cadical", "minisat"} {
 			b.Run(enc.name+"/"+name, func(b *testing.B) {
-				var s Solver
+				var s verify.Solver
 				switch name {
 				case "gophersat":
-					s = gophersatForTest(b)
+					s = backends.Gophersat(b)
 				case "gini":
-					s = Gini{}
+					s = verify.Gini{}
 				default:
 					s = externalForBench(b, name)
 				}
@@ -94,7 +96,7 @@ func BenchmarkK9FourPages(b *testing.B) {
 						b.Fatal(err)
 					}
 					cpu += r.CPU
-					if r.Answer != Unsat {
+					if r.Answer != verify.Unsat {
 						b.Fatalf("%s: %s after %v (%s)", name, r.Answer, r.Elapsed, r.Detail)
 					}
 				}

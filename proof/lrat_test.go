@@ -1,4 +1,4 @@
-package verify
+package proof
 
 import (
 	"context"
@@ -30,7 +30,7 @@ func TestLRATWorkedExample(t *testing.T) {
 	}
 	for _, m := range mutants {
 		res, err := CheckLRAT(context.Background(), f, strings.NewReader(m.proof), "ex.lrat")
-		if !errors.Is(err, ErrProofRejected) || res.Accepted || !strings.Contains(res.Reason, m.why) {
+		if !errors.Is(err, ErrRejected) || res.Accepted || !strings.Contains(res.Reason, m.why) {
 			t.Errorf("%s: err %v, want rejection with %q", m.name, err, m.why)
 		}
 	}
@@ -53,7 +53,7 @@ func TestLRATRAT(t *testing.T) {
 	}
 	for _, b := range bad {
 		res, err := CheckLRAT(context.Background(), f, strings.NewReader(b.proof), "rat.lrat")
-		if !errors.Is(err, ErrProofRejected) || !strings.Contains(res.Reason, b.why) {
+		if !errors.Is(err, ErrRejected) || !strings.Contains(res.Reason, b.why) {
 			t.Errorf("%q: err %v, want %q", b.proof, err, b.why)
 		}
 	}
@@ -66,7 +66,7 @@ func TestLRATParseErrors(t *testing.T) {
 	// 2^31-1, as in DIMACS; common practice, no source).
 	for _, p := range []string{"x 0 0\n", "5 1 0 2\n", "5 1 2\n", "5 d 1\n", "-5 0 0\n", "5 -9223372036854775808 0 0\n", "5 -2147483648 0 0\n", "5 2147483648 0 0\n"} {
 		_, err := CheckLRAT(context.Background(), f, strings.NewReader(p), "bad.lrat")
-		if err == nil || errors.Is(err, ErrProofRejected) || !strings.Contains(err.Error(), "bad.lrat:1:") {
+		if err == nil || errors.Is(err, ErrRejected) || !strings.Contains(err.Error(), "bad.lrat:1:") {
 			t.Errorf("%q: err %v, want a parse error at bad.lrat:1", p, err)
 		}
 	}

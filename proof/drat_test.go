@@ -1,4 +1,4 @@
-package verify
+package proof
 
 import (
 	"bytes"
@@ -36,12 +36,12 @@ func readAll(t *testing.T, proof []byte, format string) ([]string, string) {
 // "129 -8191 0".
 func TestBinaryWorkedExample(t *testing.T) {
 	b := []byte{0x64, 0x7f, 0x83, 0x80, 0x01, 0x00, 0x61, 0x82, 0x02, 0xff, 0x7f, 0x00}
-	if got := DetectProofFormat(b); got != ProofDRATBinary {
-		t.Fatalf("detected %s, want %s", got, ProofDRATBinary)
+	if got := DetectFormat(b); got != DRATBinary {
+		t.Fatalf("detected %s, want %s", got, DRATBinary)
 	}
 	got, format := readAll(t, b, "")
 	want := []string{"d -63 -8193 0", "129 -8191 0"}
-	if format != ProofDRATBinary || !reflect.DeepEqual(got, want) {
+	if format != DRATBinary || !reflect.DeepEqual(got, want) {
 		t.Fatalf("decoded %q as %s, want %q", got, format, want)
 	}
 }
@@ -50,7 +50,7 @@ func TestTextReader(t *testing.T) {
 	proof := "c a comment\n1 -2 0\nd 1 -2 0\n  -3\n 4 0\n0\n"
 	got, format := readAll(t, []byte(proof), "")
 	want := []string{"1 -2 0", "d 1 -2 0", "-3 4 0", "0"}
-	if format != ProofDRAT || !reflect.DeepEqual(got, want) {
+	if format != DRAT || !reflect.DeepEqual(got, want) {
 		t.Fatalf("decoded %q as %s, want %q", got, format, want)
 	}
 }
@@ -64,11 +64,11 @@ func TestReaderErrors(t *testing.T) {
 		{"minus zero", "", "-0\n", `"-0" is not a literal`},
 		{"too big", "", "3000000000 0\n", "out of range"},
 		{"glued d", "", "d1 0\n", "expected a space after 'd'"},
-		{"rup deletion", ProofRUP, "1 0\nd 1 0\n", "p:2:1: deletion step"},
-		{"bad marker", ProofDRATBinary, "a\x02\x00x\x02\x00", "byte 3: expected step marker"},
-		{"binary eof", ProofDRATBinary, "a\x02", "unexpected end of proof"},
-		{"binary var 0", ProofDRATBinary, "a\x01\x00", "names variable 0"},
-		{"binary long", ProofDRATBinary, "a\xff\xff\xff\xff\xff\x01\x00", "longer than 5 bytes"},
+		{"rup deletion", RUP, "1 0\nd 1 0\n", "p:2:1: deletion step"},
+		{"bad marker", DRATBinary, "a\x02\x00x\x02\x00", "byte 3: expected step marker"},
+		{"binary eof", DRATBinary, "a\x02", "unexpected end of proof"},
+		{"binary var 0", DRATBinary, "a\x01\x00", "names variable 0"},
+		{"binary long", DRATBinary, "a\xff\xff\xff\xff\xff\x01\x00", "longer than 5 bytes"},
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {
@@ -117,7 +117,7 @@ func TestRATProof(t *testing.T) {
 	}
 	for _, b := range broken {
 		res, err := checkText(t, f, b.proof, DRATOptions{})
-		if !errors.Is(err, ErrProofRejected) || res.Accepted || res.FailedText != b.failed {
+		if !errors.Is(err, ErrRejected) || res.Accepted || res.FailedText != b.failed {
 			t.Errorf("proof %q: err %v, failed %q; want rejection at %q", b.proof, err, res.FailedText, b.failed)
 		}
 	}
@@ -161,7 +161,7 @@ func TestSmallProofs(t *testing.T) {
 				}
 				continue
 			}
-			if !errors.Is(err, ErrProofRejected) || res.FailedLemma != c.step || !strings.Contains(res.Reason, c.reason) {
+			if !errors.Is(err, ErrRejected) || res.FailedLemma != c.step || !strings.Contains(res.Reason, c.reason) {
 				t.Errorf("%q forward=%v: err %v step %d; want rejection at step %d with %q", c.proof, forward, err, res.FailedLemma, c.step, c.reason)
 			}
 		}
@@ -172,7 +172,7 @@ func TestSmallProofs(t *testing.T) {
 func TestRejectNamesLemma(t *testing.T) {
 	f := parseCNF(t, "p cnf 3 2\n1 2 0\n-1 3 0\n")
 	res, err := checkText(t, f, "2 3 0\n-3 0\n0\n", DRATOptions{Forward: true})
-	if !errors.Is(err, ErrProofRejected) || res.FailedLemma != 2 || res.FailedText != "-3 0" || res.FailedPos != "line 2" {
+	if !errors.Is(err, ErrRejected) || res.FailedLemma != 2 || res.FailedText != "-3 0" || res.FailedPos != "line 2" {
 		t.Fatalf("err %v, result %+v", err, res)
 	}
 }
@@ -198,7 +198,7 @@ func TestDeletions(t *testing.T) {
 			t.Fatalf("forward=%v: LRAT: %v\n%s", forward, err, lrat.String())
 		}
 		res, err = checkText(t, f, "1 0\nd -3 4 5 0\n-3 4 0\n-3 0\n0\n", DRATOptions{Forward: forward})
-		if !errors.Is(err, ErrProofRejected) || res.FailedLemma != 3 {
+		if !errors.Is(err, ErrRejected) || res.FailedLemma != 3 {
 			t.Fatalf("forward=%v: deletion did not take effect: %v", forward, err)
 		}
 	}
@@ -221,7 +221,7 @@ func TestHugeVariables(t *testing.T) {
 		}
 	}
 	res, err := checkText(t, f, "-2147483647 0\n2147483647 0\n", DRATOptions{})
-	if !errors.Is(err, ErrProofRejected) || res.FailedText != "" {
+	if !errors.Is(err, ErrRejected) || res.FailedText != "" {
 		t.Fatalf("no empty clause: %v %+v", err, res)
 	}
 }
@@ -234,7 +234,7 @@ func TestFirstFailureInProofOrder(t *testing.T) {
 	// the chain is neither RUP nor RAT on its first literal
 	proof := "1 5 0\n-5 6 0\n1 -6 0\n1 0\n0\n"
 	res, err := checkText(t, f, proof, DRATOptions{})
-	if !errors.Is(err, ErrProofRejected) {
+	if !errors.Is(err, ErrRejected) {
 		t.Fatalf("accepted: %v", err)
 	}
 	if res.FailedLemma != 1 || res.FailedText != "1 5 0" || res.FailedLemmas != 3 {

@@ -1,4 +1,4 @@
-package verify
+package pagenumber
 
 import (
 	"context"
@@ -12,59 +12,60 @@ import (
 	"spinecert.dev/dimacs"
 	"spinecert.dev/graph"
 	"spinecert.dev/heuristic"
+	"spinecert.dev/verify"
 )
 
-// ErrUndecided is returned (wrapped) by PageNumber when the bounds could
+// ErrUndecided is returned (wrapped) by Compute when the bounds could
 // not be closed: a solver run ended without a verdict. The result still
 // holds the bounds that were established.
 var ErrUndecided = errors.New("page number undecided")
 
-// PageNumberOptions controls PageNumber.
-type PageNumberOptions struct {
-	Kind     cert.Kind      // cert.Stack (page number) or cert.Queue (queue number)
-	Solvers  []Solver       // backends for the SAT steps
-	Limit    time.Duration  // per backend and step (0 = none)
-	ProofDir string         // keep each step's proofs in ProofDir/pages-K ("" = discard)
-	Policy   Policy         // zero value = DefaultPolicy
-	Encoding dimacs.Options // encoding toggles; Kind and Pages are set per step
+// Options controls Compute.
+type Options struct {
+	Kind     cert.Kind       // cert.Stack (page number) or cert.Queue (queue number)
+	Solvers  []verify.Solver // backends for the SAT steps
+	Limit    time.Duration   // per backend and step (0 = none)
+	ProofDir string          // keep each step's proofs in ProofDir/pages-K ("" = discard)
+	Policy   verify.Policy   // zero value = verify.DefaultPolicy
+	Encoding dimacs.Options  // encoding toggles; Kind and Pages are set per step
 	// UnsatLower proves the lower bound with a checked UNSAT step even
 	// when a counting or planarity argument already gives it.
 	UnsatLower bool
 	Heuristic  heuristic.Options
-	Progress   func(step int, e Event) // solver and proof events of step (pages) K; may be nil
+	Progress   func(step int, e verify.Event) // solver and proof events of step (pages) K; may be nil
 }
 
-// PageNumberStep is one SAT step: the claim "a layout on Pages pages".
-type PageNumberStep struct {
-	Pages   int           `json:"pages"`
-	Outcome Outcome       `json:"outcome"`
-	Verdict *GraphVerdict `json:"detail"`
+// Step is one SAT step: the claim "a layout on Pages pages".
+type Step struct {
+	Pages   int                  `json:"pages"`
+	Outcome verify.Outcome       `json:"outcome"`
+	Verdict *verify.GraphVerdict `json:"detail"`
 }
 
-// PageNumberResult is the page number (or queue number) with the evidence
+// Result is the page number (or queue number) with the evidence
 // for both bounds. PageNumber is -1 unless Lower == Upper.
-type PageNumberResult struct {
-	Graph      string           `json:"graph"`
-	Kind       string           `json:"kind"`
-	PageNumber int              `json:"pagenumber"`
-	Lower      Bound            `json:"lower"`
-	Upper      Bound            `json:"upper"`
-	Steps      []PageNumberStep `json:"steps,omitempty"`
-	Layout     *cert.Layout     `json:"-"` // the layout behind Upper, validated
-	Elapsed    time.Duration    `json:"elapsed_ns"`
+type Result struct {
+	Graph      string        `json:"graph"`
+	Kind       string        `json:"kind"`
+	PageNumber int           `json:"pagenumber"`
+	Lower      Bound         `json:"lower"`
+	Upper      Bound         `json:"upper"`
+	Steps      []Step        `json:"steps,omitempty"`
+	Layout     *cert.Layout  `json:"-"` // the layout behind Upper, validated
+	Elapsed    time.Duration `json:"elapsed_ns"`
 }
 
-// PageNumber determines the page number (Kind stack) or queue number (Kind
+// Compute determines the page number (Kind stack) or queue number (Kind
 // queue) of g with evidence on both sides. The upper bound is always a
 // layout that passed cert.Validate: first from package heuristic, then
 // improved by SAT steps. The lower bound comes from solver-free arguments
 // (see stackLowerBounds; also applied to every block, since a layout of g
 // restricts to one of each block) or from a checked UNSAT step for one page
-// fewer than the upper bound, decided by Decide's rules. Steps go down from
+// fewer than the upper bound, decided by verify.Decide's rules. Steps go down from
 // the upper bound, so at most one UNSAT step is needed.
-func PageNumber(ctx context.Context, g *graph.Graph, opt PageNumberOptions) (*PageNumberResult, error) {
+func Compute(ctx context.Context, g *graph.Graph, opt Options) (*Result, error) {
 	start := time.Now()
-	res := &PageNumberResult{Graph: g.ID(), Kind: opt.Kind.String(), PageNumber: -1}
+	res := &Result{Graph: g.ID(), Kind: opt.Kind.String(), PageNumber: -1}
 	defer func() { res.Elapsed = time.Since(start) }()
 	if opt.Kind != cert.Stack && opt.Kind != cert.Queue {
 		return nil, fmt.Errorf("verify: page number of kind %s: expected stack or queue", opt.Kind)
@@ -102,24 +103,24 @@ func PageNumber(ctx context.Context, g *graph.Graph, opt PageNumberOptions) (*Pa
 		k := res.Upper.Pages - 1
 		eo := opt.Encoding
 		eo.Kind, eo.Pages, eo.PageKinds = opt.Kind, k, nil
-		gopt := GraphOptions{Encoding: eo, Solvers: opt.Solvers, Limit: opt.Limit, Policy: opt.Policy, StopOnModel: true}
+		gopt := verify.GraphOptions{Encoding: eo, Solvers: opt.Solvers, Limit: opt.Limit, Policy: opt.Policy, StopOnModel: true}
 		if opt.ProofDir != "" {
 			gopt.ProofDir = filepath.Join(opt.ProofDir, "pages-"+strconv.Itoa(k))
 		}
 		if opt.Progress != nil {
-			gopt.Progress = func(e Event) { opt.Progress(k, e) }
+			gopt.Progress = func(e verify.Event) { opt.Progress(k, e) }
 		}
-		gv, err := DecideLayout(ctx, g, gopt)
+		gv, err := verify.DecideLayout(ctx, g, gopt)
 		if err != nil {
 			return res, err
 		}
-		res.Steps = append(res.Steps, PageNumberStep{Pages: k, Outcome: gv.Verdict.Outcome, Verdict: gv})
+		res.Steps = append(res.Steps, Step{Pages: k, Outcome: gv.Verdict.Outcome, Verdict: gv})
 		switch gv.Verdict.Outcome {
-		case Satisfiable:
+		case verify.Satisfiable:
 			res.Layout = trimPages(gv.Layout)
 			used := res.Layout.Pages()
 			res.Upper = Bound{used, SourceLayout, fmt.Sprintf("layout from the model of %s on %d pages passed the direct check (cert.Validate)", gv.Verdict.ModelFrom, used)}
-		case Unsatisfiable:
+		case verify.Unsatisfiable:
 			res.Lower = Bound{k + 1, SourceUnsat, fmt.Sprintf("no %s layout on %d pages: %s", opt.Kind, k, joinChecked(gv.Verdict.Checked))}
 		default:
 			why := gv.Verdict.Conflict

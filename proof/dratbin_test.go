@@ -1,4 +1,4 @@
-package archive
+package proof
 
 import (
 	"bytes"
@@ -11,7 +11,7 @@ import (
 // 64 7f 83 80 01 00 61 82 02 ff 7f 00.
 func TestDRATToBinaryPaperExample(t *testing.T) {
 	var out bytes.Buffer
-	if err := DRATToBinary(strings.NewReader("c comment\nd -63 -8193 0\n129 -8191 0\n"), &out, "p"); err != nil {
+	if err := TextToBinary(strings.NewReader("c comment\nd -63 -8193 0\n129 -8191 0\n"), &out, "p"); err != nil {
 		t.Fatal(err)
 	}
 	want := []byte{0x64, 0x7f, 0x83, 0x80, 0x01, 0x00, 0x61, 0x82, 0x02, 0xff, 0x7f, 0x00}
@@ -28,7 +28,7 @@ func TestDRATToBinaryErrors(t *testing.T) {
 		"-\n":           "expected a digit",
 		"99999999999 0": "out of range",
 	} {
-		err := DRATToBinary(strings.NewReader(in), &bytes.Buffer{}, "p")
+		err := TextToBinary(strings.NewReader(in), &bytes.Buffer{}, "p")
 		if err == nil || !strings.Contains(err.Error(), want) {
 			t.Errorf("%q: got %v, want %q", in, err, want)
 		}

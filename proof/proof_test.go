@@ -1,4 +1,4 @@
-package verify
+package proof
 
 import (
 	"bytes"
@@ -12,13 +12,14 @@ import (
 	"github.com/klauspost/compress/zstd"
 
 	"spinecert.dev/dimacs"
+	"spinecert.dev/internal/fixture"
 )
 
 // checkBoth checks a proof backward and forward, writes LRAT from each and
 // re-checks it with the small LRAT checker.
-func checkBoth(t *testing.T, f *dimacs.CNF, proof []byte, wantFormat string) *ProofResult {
+func checkBoth(t *testing.T, f *dimacs.CNF, proof []byte, wantFormat string) *DRATResult {
 	t.Helper()
-	var back *ProofResult
+	var back *DRATResult
 	for _, forward := range []bool{false, true} {
 		var lrat bytes.Buffer
 		res, err := CheckDRAT(context.Background(), f, bytes.NewReader(proof), DRATOptions{Forward: forward, LRAT: &lrat})
@@ -43,13 +44,13 @@ func checkBoth(t *testing.T, f *dimacs.CNF, proof []byte, wantFormat string) *Pr
 // proofs of them, text (--no-binary) and binary (its default), must pass.
 func TestPigeonholeCadical(t *testing.T) {
 	for n := 3; n <= 7; n++ {
-		f := pigeonhole(n)
+		f := fixture.Pigeonhole(n)
 		for _, binary := range []bool{false, true} {
 			t.Run(fmt.Sprintf("PHP(%d,%d)/binary=%v", n+1, n, binary), func(t *testing.T) {
 				proof := cadicalProof(t, f, binary)
-				want := ProofDRAT
+				want := DRAT
 				if binary {
-					want = ProofDRATBinary
+					want = DRATBinary
 				}
 				res := checkBoth(t, f, proof, want)
 				if res.CoreLemmas == 0 || res.CoreLemmas > res.Lemmas {
@@ -106,7 +107,7 @@ func clauseKey(f []string) string {
 // satisfiable formula).
 func TestPigeonholeMutations(t *testing.T) {
 	n := 6
-	f := pigeonhole(n)
+	f := fixture.Pigeonhole(n)
 	proof := string(cadicalProof(t, f, false))
 	var lrat bytes.Buffer
 	if _, err := CheckDRAT(context.Background(), f, strings.NewReader(proof), DRATOptions{LRAT: &lrat}); err != nil {
@@ -145,7 +146,7 @@ func TestPigeonholeMutations(t *testing.T) {
 	for name, c := range cases {
 		for _, forward := range []bool{false, true} {
 			res, err := CheckDRAT(context.Background(), c.f, strings.NewReader(c.proof), DRATOptions{Forward: forward})
-			if !errors.Is(err, ErrProofRejected) || res == nil || res.Accepted {
+			if !errors.Is(err, ErrRejected) || res == nil || res.Accepted {
 				t.Errorf("%s forward=%v: want rejection, got %v", name, forward, err)
 				continue
 			}
@@ -165,7 +166,7 @@ func TestPigeonholeMutations(t *testing.T) {
 // must be rejected.
 func TestPigeonholeFlippedLiteral(t *testing.T) {
 	n := 6
-	f := pigeonhole(n)
+	f := fixture.Pigeonhole(n)
 	proof := string(cadicalProof(t, f, false))
 	var lrat bytes.Buffer
 	if _, err := CheckDRAT(context.Background(), f, strings.NewReader(proof), DRATOptions{LRAT: &lrat}); err != nil {
@@ -193,7 +194,7 @@ func TestPigeonholeFlippedLiteral(t *testing.T) {
 			}
 			continue
 		}
-		if !errors.Is(err, ErrProofRejected) || res.FailedLemma < int64(at+1) {
+		if !errors.Is(err, ErrRejected) || res.FailedLemma < int64(at+1) {
 			t.Fatalf("mutant at line %d: %v (failed step %d)", at+1, err, res.FailedLemma)
 		}
 		t.Logf("flipped line %d %q: %v", at+1, mut[at], err)
@@ -263,7 +264,7 @@ func TestRandom3SATCadical(t *testing.T) {
 			continue
 		}
 		unsat++
-		t.Run(fmt.Sprint(i), func(t *testing.T) { checkBoth(t, f, proof, ProofDRATBinary) })
+		t.Run(fmt.Sprint(i), func(t *testing.T) { checkBoth(t, f, proof, DRATBinary) })
 	}
 	if unsat == 0 {
 		t.Fatal("no UNSAT instance in the batch")
@@ -277,7 +278,7 @@ func TestCompressedProof(t *testing.T) {
 	var b bytes.Buffer
 	gzipTo(t, &b, []byte("-2 0\n1 0\n0\n"))
 	res, err := CheckDRAT(context.Background(), f, &b, DRATOptions{})
-	if err != nil || !res.Accepted || res.Format != ProofDRAT {
+	if err != nil || !res.Accepted || res.Format != DRAT {
 		t.Fatalf("gzip proof: %v %+v", err, res)
 	}
 	// zstd (klauspost/compress), binary inside: a -2, a 1, a (empty)
@@ -289,7 +290,7 @@ func TestCompressedProof(t *testing.T) {
 	enc.Write([]byte("a\x05\x00a\x02\x00a\x00"))
 	enc.Close()
 	res, err = CheckDRAT(context.Background(), f, &z, DRATOptions{})
-	if err != nil || !res.Accepted || res.Format != ProofDRATBinary {
+	if err != nil || !res.Accepted || res.Format != DRATBinary {
 		t.Fatalf("zstd proof: %v %+v", err, res)
 	}
 }
@@ -308,7 +309,7 @@ func TestMutantsAgreeWithLRAT(t *testing.T) {
 		if !isUnsat {
 			continue
 		}
-		steps, err := fuzzSteps(proof, ProofDRATBinary)
+		steps, err := fuzzSteps(proof, DRATBinary)
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -339,7 +340,7 @@ func TestMutantsAgreeWithLRAT(t *testing.T) {
 				var lrat bytes.Buffer
 				_, err := CheckDRAT(context.Background(), f, strings.NewReader(text), DRATOptions{Forward: forward, LRAT: &lrat})
 				if err != nil {
-					if !errors.Is(err, ErrProofRejected) {
+					if !errors.Is(err, ErrRejected) {
 						t.Fatal(err)
 					}
 					rejected++

@@ -1,4 +1,4 @@
-package verify
+package proof
 
 import (
 	"bytes"
@@ -14,30 +14,6 @@ import (
 	"spinecert.dev/dimacs"
 	"spinecert.dev/internal/testtools"
 )
-
-// pigeonhole returns PHP(n+1, n): n+1 pigeons, n holes, variable
-// (i-1)*n+j meaning pigeon i sits in hole j; every pigeon sits somewhere and
-// no hole holds two pigeons. Unsatisfiable (Haken, "The intractability of
-// resolution", TCS 39, 1985); n(n+1) variables and (n+1)+n*C(n+1,2) clauses.
-func pigeonhole(n int) *dimacs.CNF {
-	f := &dimacs.CNF{Vars: n * (n + 1)}
-	p := func(i, j int) int32 { return int32((i-1)*n + j) }
-	for i := 1; i <= n+1; i++ {
-		var c []int32
-		for j := 1; j <= n; j++ {
-			c = append(c, p(i, j))
-		}
-		f.Clauses = append(f.Clauses, c)
-	}
-	for j := 1; j <= n; j++ {
-		for i := 1; i <= n+1; i++ {
-			for k := i + 1; k <= n+1; k++ {
-				f.Clauses = append(f.Clauses, []int32{-p(i, j), -p(k, j)})
-			}
-		}
-	}
-	return f
-}
 
 func cnfBytes(t testing.TB, f *dimacs.CNF) []byte {
 	t.Helper()
@@ -75,7 +51,7 @@ func cadicalProof(t testing.TB, f *dimacs.CNF, binary bool) []byte {
 	return proof
 }
 
-func checkText(t testing.TB, f *dimacs.CNF, proof string, opt DRATOptions) (*ProofResult, error) {
+func checkText(t testing.TB, f *dimacs.CNF, proof string, opt DRATOptions) (*DRATResult, error) {
 	t.Helper()
 	return CheckDRAT(context.Background(), f, strings.NewReader(proof), opt)
 }

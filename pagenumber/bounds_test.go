@@ -1,9 +1,10 @@
-package verify
+package pagenumber
 
 import (
 	"testing"
 
 	"spinecert.dev/graph"
+	"spinecert.dev/internal/fixture"
 )
 
 func complete(t testing.TB, n int) *graph.Graph {
@@ -63,10 +64,10 @@ func TestStackLowerBounds(t *testing.T) {
 	}{
 		{"empty", numbered(t, 3, nil), 0, SourceTrivial},
 		{"cycle", cycle(t, 6), 1, SourceTrivial},                // outerplanar: 1 (Bernhart & Kainen 1979)
-		{"K4", complete(t, 4), 2, SourceEdgeCount},              // bt(K4) = 2 (Bernhart & Kainen 1979)
-		{"K5", complete(t, 5), 3, SourceEdgeCount},              // bt(K5) = 3
-		{"K8", complete(t, 8), 4, SourceEdgeCount},              // bt(K_n) = ⌈n/2⌉
-		{"K9", complete(t, 9), 5, SourceEdgeCount},              // bt(K_n) = ⌈n/2⌉
+		{"K4", fixture.Complete(4), 2, SourceEdgeCount},         // bt(K4) = 2 (Bernhart & Kainen 1979)
+		{"K5", fixture.Complete(5), 3, SourceEdgeCount},         // bt(K5) = 3
+		{"K8", fixture.Complete(8), 4, SourceEdgeCount},         // bt(K_n) = ⌈n/2⌉
+		{"K9", fixture.Complete(9), 5, SourceEdgeCount},         // bt(K_n) = ⌈n/2⌉
 		{"K33", completeBipartite(t, 3, 3), 3, SourceNonPlanar}, // bt(K3,3) = 3
 		{"Petersen", petersen(t), 3, SourceNonPlanar},           // bt = 3
 		{"K23", completeBipartite(t, 2, 3), 2, SourceNonOuter},  // K2,3 is not outerplanar; bt = 2
@@ -89,7 +90,7 @@ func TestBlocks(t *testing.T) {
 	if len(bs) != 3 || len(bs[0]) != 3 || len(bs[1]) != 3 || len(bs[2]) != 2 {
 		t.Fatalf("blocks %v", bs)
 	}
-	if bs := blocks(complete(t, 6)); len(bs) != 1 || len(bs[0]) != 6 {
+	if bs := blocks(fixture.Complete(6)); len(bs) != 1 || len(bs[0]) != 6 {
 		t.Fatalf("K6 blocks %v", bs)
 	}
 	if bs := blocks(cycle(t, 5)); len(bs) != 1 || len(bs[0]) != 5 {

@@ -1,4 +1,4 @@
-package verify
+package proof
 
 import (
 	"bytes"
@@ -12,13 +12,14 @@ import (
 	"time"
 
 	"spinecert.dev/dimacs"
+	"spinecert.dev/internal/fixture"
 )
 
 // benchProof makes cadical's binary DRAT proof of PHP(n+1,n) and reports
 // cadical's own solve time; it skips when cadical is absent.
 func benchProof(b *testing.B, n int) (*dimacs.CNF, []byte, func()) {
 	b.Helper()
-	f := pigeonhole(n)
+	f := fixture.Pigeonhole(n)
 	bin, err := exec.LookPath("cadical")
 	if err != nil {
 		b.Skip("cadical not on PATH: install the Debian package cadical")
@@ -52,7 +53,7 @@ func benchCheck(b *testing.B, n int, opt DRATOptions) {
 	f, proof, report := benchProof(b, n)
 	b.ReportAllocs()
 	b.ResetTimer()
-	var res *ProofResult
+	var res *DRATResult
 	cpu := cpuTime()
 	for b.Loop() {
 		var err error

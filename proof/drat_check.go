@@ -1,4 +1,4 @@
-package verify
+package proof
 
 import (
 	"context"
@@ -24,7 +24,7 @@ type dratStep struct {
 type dratChecker struct {
 	*dratDB
 	opt   DRATOptions
-	res   *ProofResult
+	res   *DRATResult
 	pr    *proofReader
 	nOrig int
 	steps []dratStep // backward mode only
@@ -34,7 +34,7 @@ type dratChecker struct {
 	ctx   context.Context
 }
 
-// reject records the first failing step and returns ErrProofRejected.
+// reject records the first failing step and returns ErrRejected.
 func (k *dratChecker) reject(step int64, text, pos, why string) error {
 	k.res.Accepted = false
 	k.res.FailedLemma = step
@@ -42,9 +42,9 @@ func (k *dratChecker) reject(step int64, text, pos, why string) error {
 	k.res.FailedPos = pos
 	k.res.Reason = why
 	if step > 0 {
-		return fmt.Errorf("verify: step %d (%s) %q: %s: %w", step, pos, text, why, ErrProofRejected)
+		return fmt.Errorf("verify: step %d (%s) %q: %s: %w", step, pos, text, why, ErrRejected)
 	}
-	return fmt.Errorf("verify: %s: %w", why, ErrProofRejected)
+	return fmt.Errorf("verify: %s: %w", why, ErrRejected)
 }
 
 func (k *dratChecker) clauseText(c int) string {
@@ -134,7 +134,7 @@ func (k *dratChecker) checkLemma(c int) string {
 	if len(ls) == 0 {
 		return "the empty clause is not implied by unit propagation"
 	}
-	if k.opt.Format == ProofRUP {
+	if k.opt.Format == RUP {
 		return "not implied by unit propagation (RUP), and a proof read as rup has no RAT lemmas"
 	}
 	// RAT on the pivot: every resolvent with an active clause containing
@@ -261,7 +261,7 @@ func (k *dratChecker) readSteps(forward bool) (conflictStep int64, err error) {
 				return 0, fmt.Errorf("verify: %w", err)
 			}
 			if k.opt.Progress != nil {
-				k.opt.Progress(DRATProgress{Phase: "reading", Steps: uint64(step), Checked: k.res.CoreLemmas})
+				k.opt.Progress(Progress{Phase: "reading", Steps: uint64(step), Checked: k.res.CoreLemmas})
 			}
 		}
 		if del {
@@ -404,7 +404,7 @@ func (k *dratChecker) backward(conflictStep int64) error {
 				return fmt.Errorf("verify: %w", err)
 			}
 			if k.opt.Progress != nil {
-				k.opt.Progress(DRATProgress{Phase: "checking", Steps: uint64(conflictStep - i), Total: total, Checked: k.res.CoreLemmas})
+				k.opt.Progress(Progress{Phase: "checking", Steps: uint64(conflictStep - i), Total: total, Checked: k.res.CoreLemmas})
 			}
 		}
 		switch s.kind {
@@ -446,13 +446,13 @@ func (k *dratChecker) backward(conflictStep int64) error {
 		return k.reject(failed.step, failed.text, failed.pos, why)
 	}
 	if k.opt.Progress != nil {
-		k.opt.Progress(DRATProgress{Phase: "checking", Steps: total, Total: total, Checked: k.res.CoreLemmas})
+		k.opt.Progress(Progress{Phase: "checking", Steps: total, Total: total, Checked: k.res.CoreLemmas})
 	}
 	return nil
 }
 
 func (k *dratChecker) posText(p int64) string {
-	if k.pr.format == ProofDRATBinary {
+	if k.pr.format == DRATBinary {
 		return fmt.Sprintf("byte %d", p)
 	}
 	return fmt.Sprintf("line %d", p)

@@ -1,4 +1,4 @@
-package verify
+package proof
 
 // Unit propagation of the DRAT checker: two watched literals per clause,
 // core clauses propagated before the others, and re-examination after

@@ -1,4 +1,4 @@
-package verify
+package pagenumber
 
 import (
 	"context"
@@ -7,6 +7,8 @@ import (
 
 	"spinecert.dev/cert"
 	"spinecert.dev/graph"
+	"spinecert.dev/internal/fixture"
+	"spinecert.dev/internal/fixture/backends"
 )
 
 func hypercube(t testing.TB, d int) *graph.Graph {
@@ -65,9 +67,9 @@ func tree(t testing.TB, n int) *graph.Graph {
 	return numbered(t, n, es)
 }
 
-func pageNumberOK(t *testing.T, g *graph.Graph, kind cert.Kind, unsatLower bool) *PageNumberResult {
+func pageNumberOK(t *testing.T, g *graph.Graph, kind cert.Kind, unsatLower bool) *Result {
 	t.Helper()
-	res, err := PageNumber(context.Background(), g, PageNumberOptions{Kind: kind, Solvers: inProcess(t), Limit: 2 * time.Minute, UnsatLower: unsatLower})
+	res, err := Compute(context.Background(), g, Options{Kind: kind, Solvers: backends.InProcess(t), Limit: 2 * time.Minute, UnsatLower: unsatLower})
 	if err != nil {
 		t.Fatalf("%v (result %+v)", err, res)
 	}
@@ -88,15 +90,15 @@ func TestPageNumberKnown(t *testing.T) {
 		g    *graph.Graph
 		want int
 	}{
-		{"K1", complete(t, 1), 0},
-		{"K2", complete(t, 2), 1},
-		{"K3", complete(t, 3), 1},
-		{"K4", complete(t, 4), 2},
-		{"K5", complete(t, 5), 3},
-		{"K6", complete(t, 6), 3},
-		{"K7", complete(t, 7), 4},
-		{"K8", complete(t, 8), 4},
-		{"K9", complete(t, 9), 5},
+		{"K1", fixture.Complete(1), 0},
+		{"K2", fixture.Complete(2), 1},
+		{"K3", fixture.Complete(3), 1},
+		{"K4", fixture.Complete(4), 2},
+		{"K5", fixture.Complete(5), 3},
+		{"K6", fixture.Complete(6), 3},
+		{"K7", fixture.Complete(7), 4},
+		{"K8", fixture.Complete(8), 4},
+		{"K9", fixture.Complete(9), 5},
 		{"K3,3", completeBipartite(t, 3, 3), 3},
 		{"K4,4", completeBipartite(t, 4, 4), 3},
 		{"Petersen", petersen(t), 3},
@@ -127,8 +129,8 @@ func TestPageNumberUnsatLower(t *testing.T) {
 		g    *graph.Graph
 		want int
 	}{
-		{"K5", complete(t, 5), 3},
-		{"K6", complete(t, 6), 3},
+		{"K5", fixture.Complete(5), 3},
+		{"K6", fixture.Complete(6), 3},
 		{"K3,3", completeBipartite(t, 3, 3), 3},
 		{"Q3", hypercube(t, 3), 2},
 	}
@@ -151,10 +153,10 @@ func TestQueueNumberKnown(t *testing.T) {
 		g    *graph.Graph
 		want int
 	}{
-		{"K4", complete(t, 4), 2},
-		{"K5", complete(t, 5), 2},
-		{"K6", complete(t, 6), 3},
-		{"K7", complete(t, 7), 3},
+		{"K4", fixture.Complete(4), 2},
+		{"K5", fixture.Complete(5), 2},
+		{"K6", fixture.Complete(6), 3},
+		{"K7", fixture.Complete(7), 3},
 		{"tree", tree(t, 15), 1},
 	}
 	for _, tt := range tests {
@@ -171,7 +173,7 @@ func TestQueueNumberKnown(t *testing.T) {
 // (Bernhart & Kainen 1979: bt(K_9) = 5) with the in-process backends; the
 // encoder's twin rule makes this a fraction of a second.
 func TestPageNumberK9Unsat(t *testing.T) {
-	res := pageNumberOK(t, complete(t, 9), cert.Stack, true)
+	res := pageNumberOK(t, fixture.Complete(9), cert.Stack, true)
 	if res.PageNumber != 5 || res.Lower.Source != SourceUnsat {
 		t.Fatalf("%+v", res)
 	}

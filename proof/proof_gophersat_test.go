@@ -1,4 +1,4 @@
-package verify
+package proof
 
 import (
 	"context"
@@ -10,6 +10,7 @@ import (
 	"github.com/crillab/gophersat/solver"
 
 	"spinecert.dev/dimacs"
+	"spinecert.dev/internal/fixture"
 )
 
 // gophersatProof solves f with gophersat (github.com/crillab/gophersat
@@ -47,14 +48,14 @@ func gophersatProof(t *testing.T, f *dimacs.CNF) (string, bool) {
 func TestPigeonholeGophersat(t *testing.T) {
 	for n := 3; n <= 6; n++ {
 		t.Run(fmt.Sprintf("PHP(%d,%d)", n+1, n), func(t *testing.T) {
-			f := pigeonhole(n)
+			f := fixture.Pigeonhole(n)
 			proof, unsat := gophersatProof(t, f)
 			if !unsat {
 				t.Fatal("gophersat did not say UNSAT")
 			}
 			for _, forward := range []bool{false, true} {
 				var lrat strings.Builder
-				res, err := CheckDRAT(context.Background(), f, strings.NewReader(proof), DRATOptions{Format: ProofRUP, Forward: forward, LRAT: &lrat})
+				res, err := CheckDRAT(context.Background(), f, strings.NewReader(proof), DRATOptions{Format: RUP, Forward: forward, LRAT: &lrat})
 				if err != nil || !res.Accepted || res.Detected {
 					t.Fatalf("forward=%v: %v", forward, err)
 				}
@@ -67,7 +68,7 @@ func TestPigeonholeGophersat(t *testing.T) {
 			if cut == proof {
 				t.Fatalf("certificate does not end with the empty clause: %q", proof[max(0, len(proof)-20):])
 			}
-			if _, err := CheckDRAT(context.Background(), f, strings.NewReader(cut), DRATOptions{Format: ProofRUP}); !errors.Is(err, ErrProofRejected) {
+			if _, err := CheckDRAT(context.Background(), f, strings.NewReader(cut), DRATOptions{Format: RUP}); !errors.Is(err, ErrRejected) {
 				t.Fatalf("certificate without the empty clause: %v", err)
 			}
 		})

@@ -1,4 +1,4 @@
-package archive
+package proof
 
 import (
 	"bufio"
@@ -8,14 +8,14 @@ import (
 	"spinecert.dev/textpos"
 )
 
-// DRATToBinary rewrites a DRAT proof in text form as binary DRAT (both
+// TextToBinary rewrites a DRAT proof in text form as binary DRAT (both
 // forms: Wetzler, Heule and Hunt, "DRAT-trim: efficient checking and
 // trimming using expressive clausal proofs", SAT 2014). Each step becomes
 // 'a' or 'd', then every literal l as the unsigned number 2|l| + (l < 0)
 // in 7-bit groups, least significant first, with the high bit set on all
 // but the last, then a zero byte. Comment lines ("c ...") are dropped.
 // Binary proofs are about a third of the text and compress better.
-func DRATToBinary(r io.Reader, w io.Writer, name string) error {
+func TextToBinary(r io.Reader, w io.Writer, name string) error {
 	br := bufio.NewReaderSize(r, 1<<20)
 	bw := bufio.NewWriterSize(w, 1<<20)
 	line, col := 1, 0

@@ -1,4 +1,4 @@
-package verify_test
+package proof_test
 
 import (
 	"context"
@@ -6,17 +6,17 @@ import (
 	"strings"
 
 	"spinecert.dev/dimacs"
-	"spinecert.dev/verify"
+	"spinecert.dev/proof"
 )
 
 // The four clauses on two variables are refuted by the units -2 and 1.
 func ExampleCheckDRAT() {
 	cnf, _ := dimacs.ReadCNF(strings.NewReader("p cnf 2 4\n1 2 0\n-1 2 0\n1 -2 0\n-1 -2 0\n"), "four.cnf", dimacs.ReadOptions{})
 	var lrat strings.Builder
-	res, err := verify.WriteLRAT(context.Background(), cnf, strings.NewReader("-2 0\n1 0\n0\n"), &lrat, verify.DRATOptions{})
+	res, err := proof.WriteLRAT(context.Background(), cnf, strings.NewReader("-2 0\n1 0\n0\n"), &lrat, proof.DRATOptions{})
 	fmt.Println(res.Accepted, res.Format, res.Detected, err)
 	fmt.Print(lrat.String())
-	check, err := verify.CheckLRAT(context.Background(), cnf, strings.NewReader(lrat.String()), "four.lrat")
+	check, err := proof.CheckLRAT(context.Background(), cnf, strings.NewReader(lrat.String()), "four.lrat")
 	fmt.Println(check.Accepted, err)
 	// Output:
 	// true drat true <nil>

@@ -1,4 +1,4 @@
-package verify
+package proof
 
 import (
 	"bufio"
@@ -13,27 +13,27 @@ import (
 // detectWindow is how many leading bytes of a proof format detection looks at.
 const detectWindow = 1024
 
-// DetectProofFormat decides between text and binary DRAT from the first
-// bytes of a proof. The rule: the proof is binary (ProofDRATBinary) when one
+// DetectFormat decides between text and binary DRAT from the first
+// bytes of a proof. The rule: the proof is binary (DRATBinary) when one
 // of its first 1024 bytes is not printable ASCII text or whitespace, that is
 // not in 0x20..0x7e and not tab, line feed, carriage return, vertical tab or
-// form feed; otherwise it is text (ProofDRAT). An empty prefix is text.
+// form feed; otherwise it is text (DRAT). An empty prefix is text.
 //
 // This is the principle drat-trim applies (Wetzler, Heule, Hunt, SAT 2014
 // describe binary DRAT; drat-trim inspects the leading characters of the
 // proof, from memory). Every binary step ends with a zero byte, so any binary
 // proof whose first step fits in the window is recognised; a text proof is
 // printable throughout and is never taken for binary.
-func DetectProofFormat(prefix []byte) string {
+func DetectFormat(prefix []byte) string {
 	if len(prefix) > detectWindow {
 		prefix = prefix[:detectWindow]
 	}
 	for _, c := range prefix {
 		if (c < 0x20 || c > 0x7e) && c != '\t' && c != '\n' && c != '\r' && c != '\v' && c != '\f' {
-			return ProofDRATBinary
+			return DRATBinary
 		}
 	}
-	return ProofDRAT
+	return DRAT
 }
 
 // proofReader yields the steps of a DRAT proof one at a time from a stream.
@@ -60,17 +60,17 @@ func newProofReader(r io.Reader, name, format string) (pr *proofReader, detected
 		if perr != nil && !errors.Is(perr, io.EOF) && !errors.Is(perr, bufio.ErrBufferFull) {
 			return nil, false, fmt.Errorf("verify: %s: %w", name, perr)
 		}
-		format, detected = DetectProofFormat(prefix), true
-	case ProofDRAT, ProofDRATBinary, ProofRUP:
+		format, detected = DetectFormat(prefix), true
+	case DRAT, DRATBinary, RUP:
 	default:
-		return nil, false, fmt.Errorf("verify: unknown proof format %q (want %s, %s or %s)", format, ProofDRAT, ProofDRATBinary, ProofRUP)
+		return nil, false, fmt.Errorf("verify: unknown proof format %q (want %s, %s or %s)", format, DRAT, DRATBinary, RUP)
 	}
 	return &proofReader{br: br, name: name, format: format, line: 1, col: 1}, detected, nil
 }
 
 // where describes the position of the last step returned, for messages.
 func (p *proofReader) where() string {
-	if p.format == ProofDRATBinary {
+	if p.format == DRATBinary {
 		return fmt.Sprintf("byte %d", p.stepLine)
 	}
 	return fmt.Sprintf("line %d", p.stepLine)
@@ -87,7 +87,7 @@ func (p *proofReader) binErr(off int64, format string, args ...any) error {
 // next returns the next step: del reports a deletion; lits is reused by the
 // following call. At the end of the proof it returns io.EOF.
 func (p *proofReader) next() (del bool, lits []int32, err error) {
-	if p.format == ProofDRATBinary {
+	if p.format == DRATBinary {
 		return p.nextBinary()
 	}
 	return p.nextText()
@@ -142,8 +142,8 @@ func (p *proofReader) nextText() (bool, []int32, error) {
 			}
 			continue
 		case c == 'd' && !started:
-			if p.format == ProofRUP {
-				return false, nil, p.textErr(line, col, "deletion step in a proof read as %s (lemmas only)", ProofRUP)
+			if p.format == RUP {
+				return false, nil, p.textErr(line, col, "deletion step in a proof read as %s (lemmas only)", RUP)
 			}
 			del, started = true, true
 			p.stepLine, p.stepCol = line, col

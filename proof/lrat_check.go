@@ -1,4 +1,4 @@
-package verify
+package proof
 
 // A deliberately small LRAT checker, written apart from the DRAT checker:
 // it shares nothing with it beyond the DIMACS reader. It performs no search;
@@ -210,7 +210,7 @@ func containsLit(c []int32, l int32) bool {
 
 // CheckLRAT checks an LRAT proof (text; plain, gzip or zstd) of the empty
 // clause for cnf. A rejected proof returns the result and an error wrapping
-// ErrProofRejected; unreadable input returns a *textpos.Error.
+// ErrRejected; unreadable input returns a *textpos.Error.
 func CheckLRAT(ctx context.Context, cnf *dimacs.CNF, r io.Reader, name string) (*LRATResult, error) {
 	dr, err := dimacs.Decompress(r)
 	if err != nil {
@@ -230,7 +230,7 @@ func CheckLRAT(ctx context.Context, cnf *dimacs.CNF, r io.Reader, name string) (
 	}
 	reject := func(text, why string) (*LRATResult, error) {
 		res.FailedLine, res.FailedText, res.Reason = lineNo, text, why
-		return res, fmt.Errorf("verify: %s:%d: %s: %w", name, lineNo, why, ErrProofRejected)
+		return res, fmt.Errorf("verify: %s:%d: %s: %w", name, lineNo, why, ErrRejected)
 	}
 	empty := false
 	for {

@@ -57,3 +57,7 @@ func IsBadBundle(err error) bool {
 	var be *BundleError
 	return errors.As(err, &be)
 }
+
+// ErrBadClaim is wrapped by Claim.Validate: the claim breaks its own rules
+// (kind, bound, K, page kinds).
+var ErrBadClaim = errors.New("bad claim")

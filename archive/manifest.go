@@ -270,32 +270,8 @@ func (m *Manifest) Validate() error {
 	if c.Vertices < 0 || c.Edges < 0 {
 		bad("claim: negative vertex or edge count")
 	}
-	if !slices.Contains(kinds, c.Kind) {
-		bad("claim.kind %q is not stack, queue or mixed", c.Kind)
-	}
-	if !slices.Contains(bounds, c.Bound) {
-		bad("claim.bound %q is not at_most, at_least or exact", c.Bound)
-	}
-	if c.K < 1 || c.K > 1<<16 {
-		bad("claim.k %d is outside 1..65536", c.K)
-	}
-	if (c.Bound == AtLeast || c.Bound == Exact) && c.K < 2 {
-		bad("claim.k %d: a lower bound needs k of at least 2 (the refutation is of k-1 pages)", c.K)
-	}
-	for _, pk := range c.PageKinds {
-		if !slices.Contains(pageKinds, pk) {
-			bad("claim.page_kinds: %q is not stack or queue", pk)
-		}
-	}
-	switch {
-	case c.Kind == "mixed" && c.Bound == Exact:
-		bad("claim: an exact bound is not defined for mixed layouts (state at_most or at_least)")
-	case c.Kind == "mixed" && c.Bound == AtMost && len(c.PageKinds) != c.K:
-		bad("claim.page_kinds has %d entries, a mixed at_most claim needs k=%d", len(c.PageKinds), c.K)
-	case c.Kind == "mixed" && c.Bound == AtLeast && len(c.PageKinds) != c.K-1:
-		bad("claim.page_kinds has %d entries, a mixed at_least claim needs k-1=%d", len(c.PageKinds), c.K-1)
-	case c.Kind != "mixed" && len(c.PageKinds) != 0:
-		bad("claim.page_kinds is only for mixed claims")
+	for _, e := range c.Problems() {
+		bad("%s", e)
 	}
 	named := map[string]string{} // member -> field naming it
 	name := func(field, member string) {
@@ -449,3 +425,50 @@ const (
 	CheckerDRAT = "spinecert drat + lrat re-check"
 	CheckerLRAT = "spinecert lrat"
 )
+
+// Problems checks the claim's own rules — kind, bound, K, and the page kinds
+// of a mixed claim — and returns every problem found, each naming the
+// manifest field. The manifest check (Manifest.Validate) and the command
+// that makes a bundle both apply these rules, so a claim the tool would
+// refuse to verify is refused before any work is done.
+func (c Claim) Problems() []string {
+	var errs []string
+	bad := func(format string, args ...any) { errs = append(errs, fmt.Sprintf(format, args...)) }
+	if !slices.Contains(kinds, c.Kind) {
+		bad("claim.kind %q is not stack, queue or mixed", c.Kind)
+	}
+	if !slices.Contains(bounds, c.Bound) {
+		bad("claim.bound %q is not at_most, at_least or exact", c.Bound)
+	}
+	if c.K < 1 || c.K > 1<<16 {
+		bad("claim.k %d is outside 1..65536", c.K)
+	}
+	if (c.Bound == AtLeast || c.Bound == Exact) && c.K < 2 {
+		bad("claim.k %d: a lower bound needs k of at least 2 (the refutation is of k-1 pages)", c.K)
+	}
+	for _, pk := range c.PageKinds {
+		if !slices.Contains(pageKinds, pk) {
+			bad("claim.page_kinds: %q is not stack or queue", pk)
+		}
+	}
+	switch {
+	case c.Kind == "mixed" && c.Bound == Exact:
+		bad("claim: an exact bound is not defined for mixed layouts (state at_most or at_least)")
+	case c.Kind == "mixed" && c.Bound == AtMost && len(c.PageKinds) != c.K:
+		bad("claim.page_kinds has %d entries, a mixed at_most claim needs k=%d", len(c.PageKinds), c.K)
+	case c.Kind == "mixed" && c.Bound == AtLeast && len(c.PageKinds) != c.K-1:
+		bad("claim.page_kinds has %d entries, a mixed at_least claim needs k-1=%d", len(c.PageKinds), c.K-1)
+	case c.Kind != "mixed" && len(c.PageKinds) != 0:
+		bad("claim.page_kinds is only for mixed claims")
+	}
+	return errs
+}
+
+// Validate returns an error wrapping ErrBadClaim that lists every problem
+// Problems finds, or nil.
+func (c Claim) Validate() error {
+	if p := c.Problems(); len(p) > 0 {
+		return fmt.Errorf("archive: %w: %s", ErrBadClaim, strings.Join(p, "; "))
+	}
+	return nil
+}

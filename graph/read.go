@@ -3,6 +3,7 @@ package graph
 import (
 	"bufio"
 	"bytes"
+	"errors"
 	"fmt"
 	"io"
 	"os"
@@ -560,4 +561,24 @@ func duplicateWarnings(name string, rep BuildReport) []string {
 		more = fmt.Sprintf(" (and %d more)", rep.Duplicates-len(ex))
 	}
 	return []string{fmt.Sprintf("%s: %d repeated edge(s) merged: %s%s", name, rep.Duplicates, strings.Join(ex, ", "), more)}
+}
+
+// ErrIndex is wrapped by ReadResult.Pick when the index does not name one
+// graph of the file.
+var ErrIndex = errors.New("graph: no such graph in the file")
+
+// Pick returns graph number index (1-based) of a file that holds several;
+// index 0 means "the only one" and is an error when the file holds more or
+// fewer. name names the file in messages.
+func (r *ReadResult) Pick(name string, index int) (*Graph, error) {
+	n := len(r.Graphs)
+	switch {
+	case index == 0 && n == 1:
+		return r.Graphs[0], nil
+	case index == 0:
+		return nil, fmt.Errorf("%w: %s holds %d graphs: choose one with --index 1..%d", ErrIndex, name, n, n)
+	case index < 0 || index > n:
+		return nil, fmt.Errorf("%w: %s: --index %d out of range 1..%d", ErrIndex, name, index, n)
+	}
+	return r.Graphs[index-1], nil
 }

@@ -66,7 +66,7 @@ func TestFormatsTxtExamples(t *testing.T) {
 	}{
 		// formats.txt: n=5 with edges 0-2, 0-4, 1-3, 3-4 is "DQc".
 		{"DQc", FormatGraph6, 5, [][2]int{{0, 2}, {0, 4}, {1, 3}, {3, 4}}},
-		// K4 = "C~" and planarcert.K5 = "D~{": derived from the graph6 definition in
+		// K4 = "C~" and K5 = "D~{": derived from the graph6 definition in
 		// formats.txt (N(4) = 'C', six 1-bits = '~'; N(5) = 'D', ten 1-bits
 		// padded with two 0-bits = '~' '{').
 		{"C~", FormatGraph6, 4, ioComplete(4)},

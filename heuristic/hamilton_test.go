@@ -66,7 +66,7 @@ func TestHamiltonianTwoPage(t *testing.T) {
 // of vertices is bipartite with unequal sides (common practice, no source),
 // K2,3 likewise, and the Goldner–Harary graph is a non-Hamiltonian maximal
 // planar graph (Goldner & Harary 1975); a path has a vertex of degree one;
-// planarcert.K5 is not planar.
+// K5 is not planar.
 func TestHamiltonianTwoPageNone(t *testing.T) {
 	// Goldner–Harary: the triangular bipyramid (triangle 0 1 2, apexes 3 and
 	// 4) with a vertex stacked into each of its six faces; 11 vertices, 27

@@ -79,19 +79,13 @@ func trivialLowerBound(g *graph.Graph) Bound {
 }
 
 // checkedKuratowski returns a Kuratowski subgraph of g that passed
-// planarcert.CheckKuratowski, or nil when g is planar.
+// planarcert.Check (through planar.DecideChecked), or nil when g is planar.
 func checkedKuratowski(g *graph.Graph) (*planarcert.Kuratowski, error) {
-	if planar.IsPlanar(g) {
-		return nil, nil
-	}
-	k, err := planar.FindKuratowski(g)
-	if err != nil {
+	res, err := planar.DecideChecked(g)
+	if err != nil || res.Planar {
 		return nil, err
 	}
-	if err := planarcert.CheckKuratowski(g, k); err != nil {
-		return nil, err
-	}
-	return k, nil
+	return res.Cert.Kuratowski, nil
 }
 
 // withApex returns g plus one new vertex adjacent to every vertex.

@@ -13,7 +13,7 @@ import (
 // ErrPlanar is returned (wrapped) by FindKuratowski when the graph is planar.
 var ErrPlanar = errors.New("graph is planar")
 
-// FindKuratowski returns a subdivision of planarcert.K5 or K3,3 in g, found by edge
+// FindKuratowski returns a subdivision of K5 or K3,3 in g, found by edge
 // deletion guided by the planarity test:
 //
 // The work graph consists of "required" edges, which every non-planar
@@ -25,8 +25,8 @@ var ErrPlanar = errors.New("graph is planar")
 // planarity: vertices of degree one are pruned, vertices of degree two are
 // suppressed (their two edges merge into one edge standing for a path), and
 // parallel edges are merged. When the required edges alone are not planar
-// they form an edge-minimal non-planar subgraph, which by planarcert.Kuratowski's
-// theorem is a subdivision of planarcert.K5 or K3,3. The candidates start in breadth-first
+// they form an edge-minimal non-planar subgraph, which by Kuratowski's
+// theorem is a subdivision of K5 or K3,3. The candidates start in breadth-first
 // order, so the first prefix found is a small region of the graph when the
 // obstruction is local.
 func FindKuratowski(g *graph.Graph) (*planarcert.Kuratowski, error) {

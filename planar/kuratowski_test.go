@@ -28,8 +28,8 @@ func plNonPlanarCert(t *testing.T, g *graph.Graph) *planarcert.Kuratowski {
 	return res.Cert.Kuratowski
 }
 
-// planarcert.K5 and K3,3 are not planar and are their own planarcert.Kuratowski subgraphs
-// (K. planarcert.Kuratowski, "Sur le problème des courbes gauches en topologie",
+// K5 and K3,3 are not planar and are their own Kuratowski subgraphs
+// (K. Kuratowski, "Sur le problème des courbes gauches en topologie",
 // Fund. Math. 15, 1930).
 func TestKuratowskiSelf(t *testing.T) {
 	for _, c := range []struct {
@@ -63,7 +63,7 @@ func TestKuratowskiSelf(t *testing.T) {
 }
 
 // The Petersen graph is not planar; it contains a subdivision of K3,3 and,
-// being cubic, none of planarcert.K5 (common knowledge, no source).
+// being cubic, none of K5 (common knowledge, no source).
 func TestKuratowskiPetersen(t *testing.T) {
 	k := plNonPlanarCert(t, fixture.Petersen())
 	if k.Kind != planarcert.K33 {

@@ -2,6 +2,7 @@ package planar
 
 import (
 	"errors"
+	"fmt"
 
 	"spinecert.dev/graph"
 	"spinecert.dev/planar/planarcert"
@@ -122,7 +123,7 @@ func IsMaximal(g *graph.Graph) bool {
 }
 
 // Decide decides whether g is planar and returns the certificate: a planar
-// embedding, or a subdivision of planarcert.K5 or K3,3. The certificate is not checked
+// embedding, or a subdivision of K5 or K3,3. The certificate is not checked
 // here; planarcert.Check does that independently of this code.
 func Decide(g *graph.Graph) (*Result, error) {
 	lg, perm := lrOf(g)
@@ -140,4 +141,20 @@ func Decide(g *graph.Graph) (*Result, error) {
 		return nil, err
 	}
 	return &Result{Planar: false, Cert: &planarcert.Cert{Kuratowski: k}}, nil
+}
+
+// DecideChecked is Decide followed by the independent checker: the
+// certificate is returned only after planarcert.Check accepted it. A
+// certificate that the checker rejects (a bug in the finder) returns an
+// error wrapping planarcert.ErrRejected, never a verdict. Every verdict that
+// rests on planarity goes through here.
+func DecideChecked(g *graph.Graph) (*Result, error) {
+	res, err := Decide(g)
+	if err != nil {
+		return nil, err
+	}
+	if err := planarcert.Check(g, res.Cert); err != nil {
+		return nil, fmt.Errorf("planar: the certificate found does not pass the checker: %w", err)
+	}
+	return res, nil
 }

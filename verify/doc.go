@@ -1,74 +1,8 @@
-// Package verify decides CNF formulas with independent solvers and checks
-// the clausal proofs they write with checkers of spinecert's own.
+// Package verify runs solver backends on CNF formulas and applies the
+// verdict policy: which answers, models and checked proofs decide a claim.
 //
-// # Proof formats
-//
-// DRAT text and binary are specified by Wetzler, Heule, Hunt, "DRAT-trim:
-// Efficient Checking and Trimming Using Expressive Clausal Proofs" (SAT
-// 2014). A text step is an optional "d", literals, and 0; lines starting
-// with "c" are comments. A binary step is the byte 'a' (addition) or 'd'
-// (deletion), literals as unsigned LEB128 numbers 2*v+sign (sign 1 for a
-// negative literal) and a 0 byte. proof.DetectFormat tells them apart: a proof
-// is binary when one of its first 1024 bytes is neither printable ASCII nor
-// white space. "rup" names DRAT text without deletions whose lemmas must all
-// be RUP. Proofs may be plain, gzip or zstd (dimacs.Decompress).
-//
-// LRAT text is specified by Cruz-Filipe, Heule, Hunt, Kaufmann,
-// Schneider-Kamp, "Efficient certified RAT verification" (CADE 2017): "id
-// lits 0 hints 0" and "id d ids 0".
-//
-// # The DRAT checker (proof.CheckDRAT)
-//
-// It trusts the DIMACS reader for the formula and its own code: the proof
-// reader, unit propagation with two watched literals, and conflict analysis.
-// It trusts nothing the solver says. A lemma is accepted when it is RUP
-// (assigning its negation and propagating yields a conflict) or, failing
-// that, RAT on its first literal p as written (every resolvent on p with a
-// current clause containing -p is RUP). A proof is accepted only when it
-// adds the empty clause and the empty clause is RUP where it stands (unit
-// propagation refutes the formula and the lemmas before it); a proof that
-// never states the empty clause is rejected even when propagation would
-// refute the formula with its lemmas. The one exception is a formula that
-// unit propagation refutes by itself, before any lemma: that is a complete
-// refutation, any proof is accepted for it (solvers write an empty proof
-// then), and the LRAT written for it is the single empty-clause step.
-//
-// Deletions are matched by a hash of the clause's literal set. Like
-// drat-trim in its default mode, the checker ignores a deletion of a clause
-// that is the reason of a unit at the top level at that moment (counted in
-// proof.DRATResult.IgnoredDeletions) and a deletion that names no current clause
-// (MissingDeletions). Ignoring a deletion keeps more clauses and so can only
-// make more lemmas pass; the refutation is still sound because every kept
-// clause is an original clause or a lemma that is itself checked when used.
-//
-// Backward mode (the default) first propagates forward through the proof,
-// recording its steps, up to the first top-level conflict; lemmas after it
-// are not checked. It then walks back, marking as core only the clauses
-// that the conflict and the checks of core lemmas used, and checks only the
-// core lemmas. Forward mode checks every lemma in proof order and keeps no
-// record of the steps; deleted clauses are freed. Memory is linear in the
-// clauses of the formula and the proof, and follows the variables used, not
-// their numbers (any variable up to 2^31-1 is allowed); counters are 64-bit. A RAT check
-// scans the current clauses for the negated pivot, so proofs with many RAT
-// lemmas cost time proportional to their number times the formula size.
-//
-// With proof.DRATOptions.LRAT the checked proof is written as LRAT: RUP hints in
-// the order propagation used them, the falsified clause last; RAT lemmas with
-// one group "-j hints" per clause j containing the negated pivot, each group
-// complete on its own. In backward mode only core lemmas are written.
-//
-// # The LRAT checker (proof.CheckLRAT)
-//
-// A second, deliberately small checker in its own file, sharing no code with
-// the DRAT checker beyond the DIMACS reader. It trusts the DIMACS reader and
-// its own few lines; it performs no search. Each hint must be unit (its one
-// unassigned literal is then set) or falsified (the check succeeds); a hint
-// that is satisfied or has two unassigned literals is an error. When the
-// hints before the first negative one do not reach a conflict, the lemma
-// must be RAT on its first literal p: every current clause containing -p
-// must have a group, and its hints must refute the negated resolvent. Clause
-// ids must increase; deletions must name existing clauses; the proof must add
-// the empty clause.
+// Proofs are checked by package proof ([proof.CheckRefutation]); this
+// package trusts those checkers and the model check, nothing a solver says.
 //
 // # Solvers
 //
@@ -90,7 +24,7 @@
 // UNSAT from at least two differently named backends and at least one of
 // their proofs accepted by proof.CheckDRAT and, on the LRAT it writes, by
 // proof.CheckLRAT (DefaultPolicy). A suspect backend, or a model beside an UNSAT
-// claim, is a conflict and no verdict. pagenumber.Compute builds on this: its upper
+// claim, is a conflict and no verdict. Package pagenumber builds on this: its upper
 // bound is always a directly checked layout; its lower bound is a counting
 // or Kuratowski argument (the Kuratowski subgraph checked by
 // planarcert.CheckKuratowski) or an "unsatisfiable" verdict for one page fewer.

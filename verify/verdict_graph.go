@@ -139,3 +139,20 @@ func DecideLayout(ctx context.Context, g *graph.Graph, opt GraphOptions) (*Graph
 	gv.Elapsed = time.Since(start)
 	return gv, nil
 }
+
+// CheckedProof returns the proof of an UNSAT result that passed both proof
+// checkers (the first such, in result order), and its format; ok is false
+// when no proof passed.
+func (gv *GraphVerdict) CheckedProof() (path, format string, ok bool) {
+	for _, r := range gv.Results {
+		if r.Answer != Unsat || r.Proof == "" {
+			continue
+		}
+		for _, c := range gv.Checks {
+			if c.Backend == r.Backend && c.DRAT && c.LRAT {
+				return r.Proof, r.ProofFormat, true
+			}
+		}
+	}
+	return "", "", false
+}

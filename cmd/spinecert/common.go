@@ -64,15 +64,11 @@ func loadGraphFormat(stderr io.Writer, path, format string, index int) (*graph.G
 	if err != nil {
 		return nil, err
 	}
-	switch {
-	case index == 0 && len(res.Graphs) == 1:
-		return res.Graphs[0], nil
-	case index == 0:
-		return nil, usageErr(fmt.Errorf("%s holds %d graphs: choose one with --index 1..%d", path, len(res.Graphs), len(res.Graphs)))
-	case index < 0 || index > len(res.Graphs):
-		return nil, usageErr(fmt.Errorf("%s: --index %d out of range 1..%d", path, index, len(res.Graphs)))
+	g, err := res.Pick(path, index)
+	if err != nil {
+		return nil, usageErr(err)
 	}
-	return res.Graphs[index-1], nil
+	return g, nil
 }
 
 // writeJSON writes v as one indented JSON object followed by a newline.

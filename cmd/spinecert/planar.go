@@ -99,12 +99,9 @@ func runPlanar(cmd *cobra.Command, o *planarOptions) error {
 	if err != nil {
 		return err
 	}
-	res, err := planar.Decide(g)
+	res, err := planar.DecideChecked(g)
 	if err != nil {
 		return undecided(fmt.Errorf("planarity: %w", err))
-	}
-	if err := planarcert.Check(g, res.Cert); err != nil {
-		return undecided(fmt.Errorf("planarity: the certificate found does not pass the checker: %w", err))
 	}
 	if o.out != "" {
 		err := writeFileAtomic(o.out, cmd.OutOrStdout(), func(w io.Writer) error {

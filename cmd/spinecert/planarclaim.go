@@ -1,6 +1,7 @@
 package main
 
 import (
+	"errors"
 	"fmt"
 	"os"
 
@@ -10,7 +11,7 @@ import (
 )
 
 // planarityRecord is the planarity verdict that pagenumber and bundle record:
-// found by planar.Decide and always checked by the independent certificate
+// found and checked by planar.DecideChecked by the independent certificate
 // checker before it is reported.
 type planarityRecord struct {
 	Planar      bool   `json:"planar"`
@@ -21,12 +22,12 @@ type planarityRecord struct {
 
 // checkedPlanarity decides planarity and checks the certificate.
 func checkedPlanarity(g *graph.Graph) (*planarityRecord, error) {
-	pr, err := planar.Decide(g)
+	pr, err := planar.DecideChecked(g)
+	if errors.Is(err, planarcert.ErrRejected) {
+		return nil, undecided(fmt.Errorf("planarity: %w", err))
+	}
 	if err != nil {
 		return nil, fmt.Errorf("planarity: %w", err)
-	}
-	if err := planarcert.Check(g, pr.Cert); err != nil {
-		return nil, undecided(fmt.Errorf("planarity certificate rejected by its checker: %w", err))
 	}
 	rec := &planarityRecord{Planar: pr.Planar, Certificate: "embedding", Checked: true, cert: pr.Cert}
 	if !pr.Planar {

@@ -163,7 +163,7 @@ func TestEmbeddingMutations(t *testing.T) {
 	if err := planarcert.CheckEmbedding(g, c); err == nil || !strings.Contains(err.Error(), "not a neighbour") {
 		t.Fatalf("non-neighbour: %v", err)
 	}
-	// A rotation system of planarcert.K5 exists (on the torus) but cannot pass.
+	// A rotation system of K5 exists (on the torus) but cannot pass.
 	k5 := fixture.Complete(5)
 	rot := make([][]int32, 5)
 	for u := range rot {

@@ -2,7 +2,8 @@
 // flows one way:
 //
 //	textpos → graph → cert, planar/planarcert → planar → heuristic, draw
-//	→ dimacs → proof → verify → pagenumber; archive beside verify
+//	→ dimacs → proof → verify → pagenumber; archive beside verify;
+//	evidence on verify and archive
 //
 // with cmd/spinecert on top. The planarity certificate checker
 // (planar/planarcert) imports only the graph model and the position errors,
@@ -39,6 +40,7 @@ var allowed = map[string][]string{
 	"verify":            {"graph", "cert", "dimacs", "proof"},
 	"pagenumber":        {"graph", "cert", "dimacs", "planar", "planar/planarcert", "heuristic", "proof", "verify"},
 	"archive":           {"graph", "cert", "dimacs", "planar/planarcert", "proof", "textpos"},
+	"evidence":          {"graph", "cert", "dimacs", "planar", "planar/planarcert", "verify", "archive"},
 }
 
 // testOnly lists what test files may import besides their package's own

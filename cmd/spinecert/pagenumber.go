@@ -120,6 +120,9 @@ func runPageNumber(cmd *cobra.Command, o *pageNumberOptions) error {
 		},
 	})
 	prog.finish()
+	if err := interruption(cmd.Context()); err != nil {
+		return err
+	}
 	if err != nil && !errors.Is(err, verify.ErrUndecided) {
 		return usageErr(err)
 	}

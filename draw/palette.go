@@ -1,17 +1,21 @@
 package draw
 
-// The page palette: eight hues chosen to stay distinct for the common forms
-// of colour-vision deficiency (they differ in lightness as well as hue) and
-// against the paper colour. Pages beyond eight reuse them with a dash.
+// The page palette: eight of the nine colours of Paul Tol's "muted"
+// qualitative scheme (P. Tol, "Colour Schemes", SRON technical note
+// SRON/EPS/TN/09-002, 2021; hex values from memory), made to stay distinct
+// for the common forms of colour-vision deficiency. The scheme's sand
+// (#ddcc77) is left out: thin arcs in it fade on the paper colour. The order
+// is spinecert's own: neighbouring pages differ in lightness as well as hue.
+// Pages beyond eight reuse the colours with a dash.
 const (
-	harbourBlue = "#1d5fa0"
-	ember       = "#e07b00"
-	lagoon      = "#2a9d8f"
-	plum        = "#9c3f8e"
-	skyline     = "#5aaee0"
-	rust        = "#a4452c"
-	moss        = "#6b8e23"
-	slate       = "#57606f"
+	wine   = "#882255"
+	teal   = "#44aa99"
+	indigo = "#332288"
+	olive  = "#999933"
+	rose   = "#cc6677"
+	green  = "#117733"
+	purple = "#aa4499"
+	cyan   = "#88ccee"
 
 	paper       = "#fffdf8"
 	ink         = "#222222"
@@ -20,7 +24,7 @@ const (
 	highlight   = "#c8102e"
 )
 
-var palette = []string{harbourBlue, ember, lagoon, plum, skyline, rust, moss, slate}
+var palette = []string{wine, teal, indigo, olive, rose, green, purple, cyan}
 
 // dashes for the second, third, ... round through the palette.
 var dashes = []string{"", "6 3", "2 3", "8 3 2 3"}

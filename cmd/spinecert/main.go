@@ -16,14 +16,18 @@ const (
 	exitRefuted   = 1 // the claim is refuted / the evidence was rejected
 	exitUsage     = 2 // bad usage or unreadable input
 	exitUndecided = 3 // undecided: time-out, solver gave up, backends disagree
+	// interrupted (SIGINT, Ctrl-C): 128 + the signal number 2, as shells
+	// report a process killed by it (common practice, no source)
+	exitInterrupted = 130
 )
 
 // exitTable is printed in every command's help.
 const exitTable = `Exit status:
-  0  the claim holds / the check passed
-  1  the claim is refuted / the evidence was rejected
-  2  bad usage or unreadable input
-  3  undecided (time-out, solver gave up, solvers disagree)`
+    0  the claim holds / the check passed
+    1  the claim is refuted / the evidence was rejected
+    2  bad usage or unreadable input
+    3  undecided (time-out, solver gave up, solvers disagree)
+  130  interrupted (Ctrl-C); no output file is left half-written`
 
 // exitError carries an exit status and an optional message to print on stderr.
 type exitError struct {
@@ -70,12 +74,23 @@ func main() {
 func run(args []string) int {
 	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt)
 	defer stop()
+	go func() {
+		// After the first interrupt a second one stops the process at once.
+		<-ctx.Done()
+		stop()
+	}()
 	if code, ok := childMain(ctx, args); ok {
 		return code
 	}
 	root := newRootCmd()
 	root.SetArgs(args)
 	err := root.ExecuteContext(ctx)
+	if ctx.Err() != nil {
+		// Whatever the command made of its cancelled work, the interrupt
+		// decides the status.
+		fmt.Fprintln(os.Stderr, "spinecert: interrupted")
+		return exitInterrupted
+	}
 	if err != nil {
 		var ee *exitError
 		if !errors.As(err, &ee) || ee.err != nil {

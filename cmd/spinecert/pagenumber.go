@@ -122,6 +122,9 @@ func runPageNumber(cmd *cobra.Command, o *pageNumberOptions) error {
 		},
 	})
 	prog.finish()
+	if err := interruption(cmd.Context()); err != nil {
+		return err
+	}
 	if err != nil && !errors.Is(err, pagenumber.ErrUndecided) {
 		return usageErr(err)
 	}

@@ -125,6 +125,9 @@ func runProof(cmd *cobra.Command, o *proofOptions) error {
 		}
 		bar.finish()
 	}
+	if err := interruption(ctx); err != nil {
+		return err
+	}
 	rejected := errors.Is(checkErr, proof.ErrRejected)
 	if checkErr != nil && !rejected {
 		return usageErr(checkErr)

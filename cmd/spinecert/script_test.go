@@ -23,7 +23,8 @@ func TestMain(m *testing.M) {
 // spinecert commands and states their exit status, stdout and stderr.
 func TestScripts(t *testing.T) {
 	testscript.Run(t, testscript.Params{
-		Dir: "testdata/script",
+		Dir:  "testdata/script",
+		Cmds: scriptCmds,
 		// [tool:NAME] is true when NAME is on PATH; when it is not and
 		// SPINECERT_REQUIRE_TOOLS=1, the scenario fails instead of skipping.
 		Condition: func(cond string) (bool, error) {

@@ -155,6 +155,9 @@ func runSolve(cmd *cobra.Command, o *solveOptions) error {
 		Progress: prog.event,
 	})
 	prog.finish()
+	if err := interruption(cmd.Context()); err != nil {
+		return err
+	}
 	if err != nil {
 		return usageErr(err)
 	}

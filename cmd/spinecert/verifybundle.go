@@ -113,6 +113,9 @@ func runVerify(cmd *cobra.Command, o *verifyOptions) error {
 		os.RemoveAll(k.(string))
 		return true
 	})
+	if err := interruption(ctx); err != nil {
+		return err
+	}
 	sum := verifySummary{Bundles: reports, Total: len(reports)}
 	for _, r := range reports {
 		switch {

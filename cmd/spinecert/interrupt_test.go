@@ -1,0 +1,161 @@
+//go:build unix
+
+package main
+
+import (
+	"bytes"
+	"errors"
+	"fmt"
+	"math/rand/v2"
+	"os"
+	"os/exec"
+	"path/filepath"
+	"strings"
+	"syscall"
+	"testing"
+	"time"
+)
+
+// TestInterrupt runs spinecert as a separate process (the copy of the test
+// binary that testscript.Main puts on PATH), interrupts it with SIGINT while
+// a solver is running, and checks that it exits with status 130, says
+// "interrupted", prints nothing on stdout and leaves no output or temporary
+// file behind.
+//
+// The signal is sent only once an extra solver, a script that never answers,
+// has started: by then spinecert has installed its signal handling and is
+// waiting for that solver, so the command cannot finish before the signal.
+func TestInterrupt(t *testing.T) {
+	bin, err := exec.LookPath("spinecert")
+	if err != nil {
+		t.Fatalf("spinecert is not on PATH (testscript.Main puts it there): %v", err)
+	}
+	cases := []struct {
+		name  string
+		graph string
+		out   string   // the output file that must not appear
+		args  []string // the command line, before --solver-cmd HANG
+	}{
+		// gini finds a layout at once; the command waits for the other solver.
+		{"solve-layout", completeGraph(5), "k5.json", []string{"solve", "--quiet", "g.edges", "--pages", "3", "--solvers", "gini", "-o", "k5.json"}},
+		// The in-process solvers are at work on a hard formula (a dense
+		// random graph on 4 pages) when the signal comes.
+		{"solve-hard", randomGraph(32, 0.5), "g.json", []string{"solve", "--quiet", "g.edges", "--pages", "4", "-o", "g.json"}},
+		// bundle: the refutation of 2 pages waits for the second solver.
+		{"bundle", completeGraph(5), "k5.spinecert.tar.zst", []string{"bundle", "g.edges", "--exact", "3", "--solvers", "gini", "-o", "k5.spinecert.tar.zst"}},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			t.Parallel()
+			dir := t.TempDir()
+			tmp := filepath.Join(dir, "tmp") // TMPDIR of the command: must end empty
+			if err := os.Mkdir(tmp, 0o755); err != nil {
+				t.Fatal(err)
+			}
+			started := filepath.Join(dir, "started")
+			hang := filepath.Join(dir, "hang.sh")
+			script := fmt.Sprintf("#!/bin/sh\n: > '%s'\nexec sleep 120\n", started)
+			if err := os.WriteFile(hang, []byte(script), 0o755); err != nil {
+				t.Fatal(err)
+			}
+			if err := os.WriteFile(filepath.Join(dir, "g.edges"), []byte(c.graph), 0o644); err != nil {
+				t.Fatal(err)
+			}
+			args := append(c.args, "--solver-cmd", hang)
+			cmd := exec.Command(bin, args...)
+			cmd.Dir = dir
+			cmd.Env = append(os.Environ(), "TMPDIR="+tmp)
+			var stdout, stderr bytes.Buffer
+			cmd.Stdout, cmd.Stderr = &stdout, &stderr
+			if err := cmd.Start(); err != nil {
+				t.Fatal(err)
+			}
+			done := make(chan error, 1)
+			go func() { done <- cmd.Wait() }()
+			deadline := time.After(2 * time.Minute)
+		wait:
+			for {
+				select {
+				case err := <-done:
+					t.Fatalf("spinecert %s finished before the hanging solver started (%v); stdout:\n%s\nstderr:\n%s", strings.Join(args, " "), err, &stdout, &stderr)
+				case <-deadline:
+					cmd.Process.Kill()
+					t.Fatalf("the hanging solver never started; stderr:\n%s", &stderr)
+				case <-time.After(20 * time.Millisecond):
+					if _, err := os.Stat(started); err == nil {
+						break wait
+					}
+				}
+			}
+			if err := cmd.Process.Signal(os.Interrupt); err != nil {
+				t.Fatal(err)
+			}
+			var werr error
+			select {
+			case werr = <-done:
+			case <-time.After(time.Minute):
+				cmd.Process.Kill()
+				t.Fatalf("spinecert did not stop within a minute of SIGINT; stderr:\n%s", &stderr)
+			}
+			var ee *exec.ExitError
+			if !errors.As(werr, &ee) {
+				t.Fatalf("exit: %v, want status %d; stderr:\n%s", werr, exitInterrupted, &stderr)
+			}
+			if ws, ok := ee.Sys().(syscall.WaitStatus); ok && ws.Signaled() {
+				t.Fatalf("spinecert was killed by %v instead of exiting with status %d", ws.Signal(), exitInterrupted)
+			}
+			if got := ee.ExitCode(); got != exitInterrupted {
+				t.Fatalf("exit status %d, want %d; stderr:\n%s", got, exitInterrupted, &stderr)
+			}
+			if stdout.Len() != 0 {
+				t.Errorf("stdout not empty:\n%s", &stdout)
+			}
+			if got := stderr.String(); !strings.HasSuffix(got, "spinecert: interrupted\n") {
+				t.Errorf("stderr does not end in \"spinecert: interrupted\":\n%s", got)
+			}
+			if _, err := os.Stat(filepath.Join(dir, c.out)); !errors.Is(err, os.ErrNotExist) {
+				t.Errorf("%s exists after the interrupt (stat: %v)", c.out, err)
+			}
+			entries, err := os.ReadDir(dir)
+			if err != nil {
+				t.Fatal(err)
+			}
+			for _, e := range entries {
+				switch e.Name() {
+				case "g.edges", "hang.sh", "started", "tmp":
+				default:
+					t.Errorf("left in the directory after the interrupt: %s", e.Name())
+				}
+			}
+			if left, _ := os.ReadDir(tmp); len(left) > 0 {
+				t.Errorf("left in TMPDIR after the interrupt: %s", left[0].Name())
+			}
+		})
+	}
+}
+
+// completeGraph is K_n as an edge list.
+func completeGraph(n int) string {
+	var b strings.Builder
+	for i := range n {
+		for j := i + 1; j < n; j++ {
+			fmt.Fprintf(&b, "v%d v%d\n", i, j)
+		}
+	}
+	return b.String()
+}
+
+// randomGraph is a G(n, p) random graph as an edge list, the same on every
+// run (fixed seed).
+func randomGraph(n int, p float64) string {
+	r := rand.New(rand.NewPCG(1, 2))
+	var b strings.Builder
+	for i := range n {
+		for j := i + 1; j < n; j++ {
+			if r.Float64() < p {
+				fmt.Fprintf(&b, "v%d v%d\n", i, j)
+			}
+		}
+	}
+	return b.String()
+}

@@ -15,9 +15,8 @@ import (
 
 	"spinecert.dev/archive"
 	"spinecert.dev/cert"
-	"spinecert.dev/dimacs"
+	"spinecert.dev/evidence"
 	"spinecert.dev/graph"
-	"spinecert.dev/verify"
 )
 
 func init() { register(newBundleCmd) }
@@ -41,6 +40,7 @@ type bundleOptions struct {
 	created    string
 	json       bool
 	graphArg   string
+	claim      archive.Claim // filled from the flags by bundleClaim
 }
 
 func newBundleCmd() *cobra.Command {
@@ -67,7 +67,8 @@ The same evidence always gives the same bytes: no time is recorded unless
 --created or SOURCE_DATE_EPOCH gives one (solver run times are recorded as
 measured). The file is written atomically; nothing is left on error or
 interrupt. Re-check a bundle with "spinecert verify".`,
-		Args: cobra.ExactArgs(1),
+		Args:    cobra.ExactArgs(1),
+		PreRunE: func(cmd *cobra.Command, args []string) error { return bundleClaim(cmd, &o) },
 		RunE: func(cmd *cobra.Command, args []string) error {
 			o.graphArg = args[0]
 			return runBundle(cmd, &o)
@@ -137,10 +138,10 @@ func bundleErr(err error) error {
 	return usageErr(err)
 }
 
-func runBundle(cmd *cobra.Command, o *bundleOptions) error {
-	ctx := cmd.Context()
+// bundleClaim reads the claim from the flags and checks its rules with
+// archive.Claim.Validate, before any work starts.
+func bundleClaim(cmd *cobra.Command, o *bundleOptions) error {
 	set := 0
-	bound, k := "", 0
 	for _, c := range []struct {
 		b string
 		v int
@@ -148,57 +149,37 @@ func runBundle(cmd *cobra.Command, o *bundleOptions) error {
 	}{{archive.AtMost, o.atMost, "at-most"}, {archive.AtLeast, o.atLeast, "at-least"}, {archive.Exact, o.exact, "exact"}} {
 		if cmd.Flags().Changed(c.f) {
 			set++
-			bound, k = c.b, c.v
+			o.claim.Bound, o.claim.K = c.b, c.v
 		}
 	}
 	if set != 1 {
 		return usageErr(fmt.Errorf("give exactly one of --at-most K, --at-least K, --exact K"))
 	}
-	if k < 1 || (bound != archive.AtMost && k < 2) {
-		return usageErr(fmt.Errorf("--%s %d: K must be at least %d", strings.ReplaceAll(bound, "_", "-"), k, map[bool]int{true: 1, false: 2}[bound == archive.AtMost]))
+	o.claim.Kind = o.kind
+	if o.pageKinds != "" {
+		for _, s := range strings.Split(o.pageKinds, ",") {
+			o.claim.PageKinds = append(o.claim.PageKinds, strings.TrimSpace(s))
+		}
 	}
-	kind, err := cert.ParseKind(o.kind)
-	if err != nil {
+	if err := o.claim.Validate(); err != nil {
 		return usageErr(err)
 	}
-	var pageKinds []cert.Kind
-	if o.pageKinds != "" {
-		if kind != cert.Mixed {
-			return usageErr(fmt.Errorf("--page-kinds needs --kind mixed"))
-		}
-		for _, s := range strings.Split(o.pageKinds, ",") {
-			pk, err := cert.ParseKind(strings.TrimSpace(s))
-			if err != nil || pk == cert.Mixed {
-				return usageErr(fmt.Errorf("--page-kinds: %q is not stack or queue", s))
-			}
-			pageKinds = append(pageKinds, pk)
-		}
-	}
-	if kind == cert.Mixed {
-		want := k
-		if bound == archive.AtLeast {
-			want = k - 1
-		}
-		if bound == archive.Exact {
-			return usageErr(fmt.Errorf("--exact is not defined for mixed layouts: state --at-most or --at-least"))
-		}
-		if len(pageKinds) != want {
-			return usageErr(fmt.Errorf("--kind mixed needs --page-kinds with %d kinds for this claim, got %d", want, len(pageKinds)))
-		}
-	}
-	if o.layout != "" && bound == archive.AtLeast {
+	if o.layout != "" && o.claim.Bound == archive.AtLeast {
 		return usageErr(fmt.Errorf("--layout is evidence for an upper bound: use it with --at-most or --exact"))
 	}
-	if (o.fromProof != "" || o.fromCNF != "") && bound == archive.AtMost {
+	if (o.fromProof != "" || o.fromCNF != "") && o.claim.Bound == archive.AtMost {
 		return usageErr(fmt.Errorf("--from-proof/--from-cnf are evidence for a lower bound: use them with --at-least or --exact"))
 	}
 	if o.fromCNF != "" && o.fromProof == "" {
 		return usageErr(fmt.Errorf("--from-cnf needs --from-proof"))
 	}
-	created, err := bundleCreated(o.created)
-	if err != nil {
-		return err
-	}
+	var err error
+	o.created, err = bundleCreated(o.created)
+	return err
+}
+
+func runBundle(cmd *cobra.Command, o *bundleOptions) error {
+	ctx := cmd.Context()
 	input, err := bundleReadInput(o.graphArg)
 	if err != nil {
 		return err
@@ -214,138 +195,57 @@ func runBundle(cmd *cobra.Command, o *bundleOptions) error {
 	for _, w := range res.Warnings {
 		fmt.Fprintf(cmd.ErrOrStderr(), "spinecert: warning: %s\n", w)
 	}
-	idx := o.graph.index
-	switch {
-	case idx == 0 && len(res.Graphs) != 1:
-		return usageErr(fmt.Errorf("%s holds %d graphs: choose one with --index 1..%d", o.graphArg, len(res.Graphs), len(res.Graphs)))
-	case idx == 0:
-		idx = 1
-	case idx < 0 || idx > len(res.Graphs):
-		return usageErr(fmt.Errorf("%s: --index %d out of range 1..%d", o.graphArg, idx, len(res.Graphs)))
-	case len(res.Graphs) > 1:
+	g, err := res.Pick(o.graphArg, o.graph.index)
+	if err != nil {
+		return usageErr(err)
+	}
+	if len(res.Graphs) > 1 {
 		// The bundle stores the input as given: keep only the chosen graph.
 		var b bytes.Buffer
-		if err := graph.WriteEdgeList(&b, res.Graphs[idx-1]); err != nil {
+		if err := graph.WriteEdgeList(&b, g); err != nil {
 			return usageErr(err)
 		}
 		input, res.Format = b.Bytes(), graph.FormatEdgeList
 	}
-	g := res.Graphs[idx-1]
-	name := o.name
-	if name == "" {
-		name = bundleBase(o.graphArg)
+	c := o.claim
+	c.GraphID, c.Vertices, c.Edges = g.ID(), g.N(), g.M()
+	if c.Name = o.name; c.Name == "" {
+		c.Name = bundleBase(o.graphArg)
 	}
-	var planarity *planarityRecord
-	if o.planarity || o.planar {
-		if planarity, err = checkedPlanarity(g); err != nil {
-			return err
+	req := &evidence.Request{Graph: g, Input: input, InputFormat: res.Format, Claim: c,
+		FromProof: o.fromProof, FromCNF: o.fromCNF, Planarity: o.planarity, RequirePlanar: o.planar,
+		Limit: o.solver.timeLimit, ToolVersion: version, Tool: "spinecert bundle", Created: o.created, IncludeCNF: o.includeCNF}
+	if o.layout != "" {
+		if req.Layout, err = cert.ReadLayoutFile(o.layout); err != nil {
+			return usageErr(err)
 		}
-		if o.planar {
-			if err := requirePlanar(o.graphArg, planarity); err != nil {
-				return err
-			}
+	}
+	if req.NeedsSolvers() {
+		if req.Solvers, err = o.solver.build(); err != nil {
+			return err
 		}
 	}
 	out := o.output
 	if out == "" {
-		out = name + archive.Suffix
+		out = c.Name + archive.Suffix
 	}
-	ev := &archive.Evidence{Graph: g, Name: name, Input: input, InputFormat: res.Format, Kind: kind, Bound: bound, K: k,
-		ToolVersion: version, Tool: "spinecert bundle", Created: created, IncludeCNF: o.includeCNF}
-	if kind == cert.Mixed {
-		ev.PageKinds = pageKinds
+	m, err := evidence.Make(ctx, req, out)
+	if ierr := interruption(ctx); ierr != nil {
+		return ierr
 	}
-	tmp, err := os.MkdirTemp("", "spinecert-bundle-")
-	if err != nil {
-		return usageErr(err)
-	}
-	defer os.RemoveAll(tmp)
-	var solvers []verify.Solver
-	needSolve := (bound != archive.AtLeast && o.layout == "") || (bound != archive.AtMost && o.fromProof == "")
-	if needSolve {
-		if solvers, err = o.solver.build(); err != nil {
-			return err
-		}
-	}
-	stderr := cmd.ErrOrStderr()
-	if bound != archive.AtLeast {
-		if o.layout != "" {
-			raw, err := cert.ReadLayoutFile(o.layout)
-			if err != nil {
-				return usageErr(err)
-			}
-			l, rep := cert.Resolve(g, raw)
-			if !rep.OK() {
-				return refuted(fmt.Errorf("%s: %w", o.layout, rep.Err()))
-			}
-			ev.Layout = l
-		} else {
-			gv, err := verify.DecideLayout(ctx, g, verify.GraphOptions{
-				Encoding: dimacs.Options{Kind: kind, Pages: k, PageKinds: pageKinds}, Solvers: solvers,
-				Limit: o.solver.timeLimit, ProofDir: filepath.Join(tmp, "upper"), StopOnModel: true,
-			})
-			if err != nil {
-				return usageErr(err)
-			}
-			switch gv.Verdict.Outcome {
-			case verify.Satisfiable:
-				ev.Layout = gv.Layout
-			case verify.Unsatisfiable:
-				return refuted(fmt.Errorf("the claim is false: there is no %s layout of %s on %d pages (checked refutation)", kind, name, k))
-			default:
-				return undecided(fmt.Errorf("no %d-page layout found and none ruled out: %s", k, strings.Join(gv.Verdict.Missing, "; ")))
-			}
-		}
-	}
-	if bound != archive.AtMost {
-		ropt := dimacs.Options{Kind: kind, Pages: k - 1, PageKinds: pageKinds}
-		if kind != cert.Mixed {
-			ropt.PageKinds = nil
-		}
-		ref := &archive.RefutationInput{Options: ropt, Proof: o.fromProof, ForeignCNF: o.fromCNF}
-		if o.fromProof == "" {
-			gv, err := verify.DecideLayout(ctx, g, verify.GraphOptions{
-				Encoding: ropt, Solvers: solvers, Limit: o.solver.timeLimit, ProofDir: filepath.Join(tmp, "lower"),
-			})
-			if err != nil {
-				return usageErr(err)
-			}
-			switch gv.Verdict.Outcome {
-			case verify.Satisfiable:
-				return refuted(fmt.Errorf("the claim is false: %s has a %s layout on %d pages", name, kind, k-1))
-			case verify.Unsatisfiable:
-			default:
-				return undecided(fmt.Errorf("%d pages neither refuted nor found: %s", k-1, strings.Join(gv.Verdict.Missing, "; ")))
-			}
-			for _, r := range gv.Results {
-				ref.Runs = append(ref.Runs, archive.Run{Backend: r.Backend, Version: r.Version, Answer: strings.ToLower(r.Answer.String()), Seconds: r.Elapsed.Seconds()})
-			}
-			for _, r := range gv.Results {
-				if r.Answer != verify.Unsat || r.Proof == "" || ref.Proof != "" {
-					continue
-				}
-				for _, c := range gv.Checks {
-					if c.Backend == r.Backend && c.DRAT && c.LRAT {
-						ref.Proof, ref.ProofFormat = r.Proof, r.ProofFormat
-					}
-				}
-			}
-			if ref.Proof == "" {
-				return undecided(fmt.Errorf("no proof of the refutation passed the checkers"))
-			}
-		}
-		ev.Refutation = ref
-	}
-	if planarity != nil {
-		ev.Planarity = planarity.cert
-	}
-	m, srcs, err := archive.Build(ctx, ev, archive.CurrentEncoder{}, tmp)
-	if err != nil {
+	switch {
+	case errors.Is(err, evidence.ErrClaimFalse), errors.Is(err, evidence.ErrNotPlanar), errors.Is(err, evidence.ErrLayoutRejected):
+		return refuted(err)
+	case errors.Is(err, evidence.ErrUndecided):
+		return undecided(err)
+	case err != nil:
 		return bundleErr(err)
 	}
-	if err := archive.WriteFile(ctx, out, srcs); err != nil {
-		return usageErr(err)
-	}
+	return printBundle(cmd, o, out, m)
+}
+
+// printBundle reports the bundle written.
+func printBundle(cmd *cobra.Command, o *bundleOptions, out string, m *archive.Manifest) error {
 	fi, _ := os.Stat(out)
 	size := int64(0)
 	if fi != nil {
@@ -370,7 +270,7 @@ func runBundle(cmd *cobra.Command, o *bundleOptions) error {
 			fmt.Fprintf(w, "proof: %s (%s, %d bytes) %s by %s\n", p.Member, p.Format, p.Size, p.Result, p.Checker)
 		}
 		if r.CNF.Source == archive.CNFForeign {
-			fmt.Fprintf(stderr, "spinecert: warning: the proof refutes a CNF that is not spinecert's encoding of the claim; the bundle records it as foreign and \"spinecert verify\" will not accept it without --resolve\n")
+			fmt.Fprintf(cmd.ErrOrStderr(), "spinecert: warning: the proof refutes a CNF that is not spinecert's encoding of the claim; the bundle records it as foreign and \"spinecert verify\" will not accept it without --resolve\n")
 		}
 	}
 	return nil

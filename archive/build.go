@@ -6,7 +6,6 @@ import (
 	"context"
 	"crypto/sha256"
 	"encoding/hex"
-	"errors"
 	"fmt"
 	"io"
 	"os"
@@ -19,10 +18,6 @@ import (
 	"spinecert.dev/planar/planarcert"
 	"spinecert.dev/proof"
 )
-
-// ErrRejected is wrapped by Build when the evidence given does not hold up:
-// the layout fails the check or the proof fails a checker.
-var ErrRejected = errors.New("evidence rejected")
 
 // Member names spinecert gives the parts of a bundle.
 const (
@@ -128,14 +123,14 @@ func Build(ctx context.Context, ev *Evidence, enc Encoder, tmpDir string) (*Mani
 		}
 		l := *ev.Layout
 		if l.Pages() > ev.K {
-			return nil, nil, fmt.Errorf("archive: the layout has %d pages, the claim is at most %d: %w", l.Pages(), ev.K, ErrRejected)
+			return nil, nil, fmt.Errorf("%w: the layout has %d pages, the claim is at most %d", ErrRejected, l.Pages(), ev.K)
 		}
 		// A layout on fewer pages is also one on K pages: add empty pages.
 		for len(l.PageKinds) < ev.K {
 			l.PageKinds = append(slices.Clone(l.PageKinds), pad(l.Kind, ev.PageKinds, len(l.PageKinds)))
 		}
 		if rep := cert.Validate(g, &l); !rep.OK() {
-			return nil, nil, fmt.Errorf("archive: %w: %w", ErrRejected, rep.Err())
+			return nil, nil, fmt.Errorf("%w: %w", ErrRejected, rep.Err())
 		}
 		var lb bytes.Buffer
 		if err := cert.WriteLayoutJSON(&lb, g, &l); err != nil {
@@ -291,7 +286,7 @@ func buildRefutation(ctx context.Context, ev *Evidence, enc Encoder, tmpDir stri
 		return nil, nil, fmt.Errorf("archive: checking %s: %w", in.Proof, out.Err)
 	}
 	if !out.OK() {
-		return nil, nil, fmt.Errorf("archive: %s: %s: %w", in.Proof, out.Detail, ErrRejected)
+		return nil, nil, fmt.Errorf("%w: %s: %s", ErrRejected, in.Proof, out.Detail)
 	}
 	// The checker may stop before the end of the proof (after the empty clause).
 	if _, err := io.Copy(psum, f); err != nil {

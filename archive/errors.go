@@ -60,4 +60,12 @@ func IsBadBundle(err error) bool {
 
 // ErrBadClaim is wrapped by Claim.Validate: the claim breaks its own rules
 // (kind, bound, K, page kinds).
-var ErrBadClaim = errors.New("bad claim")
+var ErrBadClaim = errors.New("archive: bad claim")
+
+// ErrRejected is wrapped by Build when the evidence given does not hold up:
+// the layout fails the check or the proof fails a checker.
+var ErrRejected = errors.New("archive: evidence rejected")
+
+// ErrExists is returned (wrapped) by Extract when a member would replace an
+// existing file.
+var ErrExists = errors.New("archive: file exists")

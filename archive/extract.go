@@ -12,10 +12,6 @@ import (
 	"path/filepath"
 )
 
-// ErrExists is returned (wrapped) by Extract when a member would replace an
-// existing file.
-var ErrExists = errors.New("file exists")
-
 // Extract unpacks the bundle read from r into dir (created if missing).
 // Members go first into a fresh staging directory inside dir, opened as an
 // os.Root so that no name can reach outside it; only when the whole bundle
@@ -66,7 +62,7 @@ func Extract(ctx context.Context, r io.Reader, name, dir string, lim Limits) (*C
 	}
 	for _, n := range names {
 		if _, err := os.Lstat(filepath.Join(dir, filepath.FromSlash(n))); err == nil {
-			return c, fmt.Errorf("archive: %s: %w", filepath.Join(dir, filepath.FromSlash(n)), ErrExists)
+			return c, fmt.Errorf("%w: %s", ErrExists, filepath.Join(dir, filepath.FromSlash(n)))
 		} else if !errors.Is(err, fs.ErrNotExist) {
 			return c, fmt.Errorf("archive: %w", err)
 		}

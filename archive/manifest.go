@@ -468,7 +468,7 @@ func (c Claim) Problems() []string {
 // Problems finds, or nil.
 func (c Claim) Validate() error {
 	if p := c.Problems(); len(p) > 0 {
-		return fmt.Errorf("archive: %w: %s", ErrBadClaim, strings.Join(p, "; "))
+		return fmt.Errorf("%w: %s", ErrBadClaim, strings.Join(p, "; "))
 	}
 	return nil
 }

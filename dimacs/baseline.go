@@ -65,7 +65,7 @@ func (e *Encoding) encodeBaseline() {
 	b := &baseMap{n: n, k: k}
 	e.base = b
 	if int64(n)*int64(n-1)+int64(m)*int64(k)+int64(m)*int64(m) > maxVar {
-		f.err = fmt.Errorf("dimacs: %w: baseline for %d vertices and %d edges", ErrTooLarge, n, m)
+		f.err = fmt.Errorf("%w: baseline for %d vertices and %d edges", ErrTooLarge, n, m)
 		return
 	}
 	for i := 0; i < n*(n-1); i++ {

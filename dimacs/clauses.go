@@ -65,7 +65,7 @@ type formula struct {
 // newVar allocates a variable in family f.
 func (f *formula) newVar(fam Family) int32 {
 	if f.nvars >= maxVar {
-		f.err = fmt.Errorf("dimacs: %w: more than %d variables", ErrTooLarge, maxVar)
+		f.err = fmt.Errorf("%w: more than %d variables", ErrTooLarge, maxVar)
 		return litFalse
 	}
 	f.nvars++

@@ -1,17 +1,11 @@
 package dimacs
 
 import (
-	"errors"
 	"fmt"
 	"slices"
 
 	"spinecert.dev/cert"
 )
-
-// ErrInvalidModel is returned (wrapped) by Decode when the model does not
-// give a valid layout: it is too short, or the layout it describes fails
-// the direct check of package cert.
-var ErrInvalidModel = errors.New("model does not give a valid layout")
 
 // value returns the truth value of an encoder literal under model.
 func value(model []bool, l int32) bool {
@@ -33,7 +27,7 @@ func value(model []bool, l int32) bool {
 // the CNF either still gives a valid layout or yields ErrInvalidModel.
 func (e *Encoding) Decode(model []bool) (*cert.Layout, error) {
 	if len(model) < e.f.nvars+1 {
-		return nil, fmt.Errorf("dimacs: %w: the model gives %d variables, the encoding has %d", ErrInvalidModel, max(len(model)-1, 0), e.f.nvars)
+		return nil, fmt.Errorf("%w: the model gives %d variables, the encoding has %d", ErrInvalidModel, max(len(model)-1, 0), e.f.nvars)
 	}
 	var l *cert.Layout
 	if e.base != nil {
@@ -46,7 +40,7 @@ func (e *Encoding) Decode(model []bool) (*cert.Layout, error) {
 		if len(rep.Problems) > 0 {
 			msg = rep.Problems[0].Msg
 		}
-		return l, fmt.Errorf("dimacs: %w: %s (%d problems)", ErrInvalidModel, msg, rep.Total())
+		return l, fmt.Errorf("%w: %s (%d problems)", ErrInvalidModel, msg, rep.Total())
 	}
 	return l, nil
 }

@@ -69,7 +69,7 @@ func EncodeVersion(g *graph.Graph, opt Options, version string) (*Encoding, erro
 		e.version = legacyVersion
 		return e, nil
 	}
-	return nil, fmt.Errorf("dimacs: %w %q (this encoder writes %s)", ErrUnknownVersion, version, strings.Join(EncoderVersions(), ", "))
+	return nil, fmt.Errorf("%w %q (this encoder writes %s)", ErrUnknownVersion, version, strings.Join(EncoderVersions(), ", "))
 }
 
 // Version returns the encoder version the CNF is written as.

@@ -1,7 +1,6 @@
 package dimacs
 
 import (
-	"errors"
 	"fmt"
 	"strings"
 
@@ -21,14 +20,6 @@ const legacyVersion = "spinecert-enc-1"
 // EncoderVersions returns the encoder versions whose output Encode and
 // EncodeVersion reproduce, oldest first; the last is EncoderVersion.
 func EncoderVersions() []string { return []string{legacyVersion, EncoderVersion} }
-
-// ErrUnknownVersion is returned (wrapped) by EncodeVersion for a version
-// this encoder cannot reproduce.
-var ErrUnknownVersion = errors.New("unknown encoder version")
-
-// ErrTooLarge is returned when an encoding would need more variables than
-// a DIMACS CNF can name.
-var ErrTooLarge = errors.New("encoding too large")
 
 // Options selects the claim and the encoding. The zero value of every
 // reduction toggle means "on where sound", so Options{Kind: cert.Stack,

@@ -70,7 +70,7 @@ func (e *Encoding) addPart(vs, es []int32) {
 	e.parts = append(e.parts, p)
 	n := p.n
 	if int64(n)*int64(n-1)/2+int64(len(es))*int64(len(e.kinds)) > maxVar || int64(n)*int64(len(es)) > 1<<31 {
-		f.err = fmt.Errorf("dimacs: %w: a part with %d vertices and %d edges", ErrTooLarge, n, len(es))
+		f.err = fmt.Errorf("%w: a part with %d vertices and %d edges", ErrTooLarge, n, len(es))
 		return
 	}
 	stack := allStack(e.kinds)

@@ -3,7 +3,6 @@ package draw
 import (
 	"bufio"
 	"encoding/xml"
-	"errors"
 	"fmt"
 	"io"
 	"math"
@@ -13,9 +12,6 @@ import (
 	"spinecert.dev/cert"
 	"spinecert.dev/graph"
 )
-
-// ErrShape is returned (wrapped) when a layout does not fit its graph.
-var ErrShape = errors.New("layout does not fit the graph")
 
 // Options control a drawing. The zero value is usable.
 type Options struct {
@@ -71,18 +67,18 @@ func num(f float64) string { return strconv.FormatFloat(math.Round(f*10)/10, 'f'
 func SVG(w io.Writer, g *graph.Graph, l *cert.Layout, opts Options) error {
 	n, m := g.N(), g.M()
 	if len(l.Order) != n || len(l.Page) != m {
-		return fmt.Errorf("draw: %w: %d spine vertices and %d edge pages for a graph with %d vertices and %d edges", ErrShape, len(l.Order), len(l.Page), n, m)
+		return fmt.Errorf("%w: %d spine vertices and %d edge pages for a graph with %d vertices and %d edges", ErrShape, len(l.Order), len(l.Page), n, m)
 	}
 	pos := l.Positions(n)
 	for v, p := range pos {
 		if p < 0 {
-			return fmt.Errorf("draw: %w: vertex %q is not on the spine", ErrShape, g.Label(int32(v)))
+			return fmt.Errorf("%w: vertex %q is not on the spine", ErrShape, g.Label(int32(v)))
 		}
 	}
 	k := l.Pages()
 	for e, p := range l.Page {
 		if p < 1 || int(p) > k {
-			return fmt.Errorf("draw: %w: edge %d is on page %d, outside 1..%d", ErrShape, e, p, k)
+			return fmt.Errorf("%w: edge %d is on page %d, outside 1..%d", ErrShape, e, p, k)
 		}
 	}
 	hiE := make(map[int]bool, len(opts.HighlightEdges))

@@ -1,14 +1,10 @@
 package graph
 
 import (
-	"errors"
 	"fmt"
 	"slices"
 	"strconv"
 )
-
-// ErrSelfLoop is returned (wrapped) when an edge joins a vertex to itself.
-var ErrSelfLoop = errors.New("self-loop")
 
 // Builder collects vertices and edges and builds a Graph.
 // Labels that are canonical decimal integers below 1<<24 are interned
@@ -88,10 +84,10 @@ func (b *Builder) N() int { return len(b.labels) }
 // A repeated edge is accepted here and merged (and counted) by Build.
 func (b *Builder) AddEdge(u, v int32) error {
 	if u == v {
-		return fmt.Errorf("cert: %w at vertex %q", ErrSelfLoop, b.labels[u])
+		return fmt.Errorf("%w at vertex %q", ErrSelfLoop, b.labels[u])
 	}
 	if u < 0 || v < 0 || int(u) >= len(b.labels) || int(v) >= len(b.labels) {
-		return fmt.Errorf("cert: edge {%d, %d} names an unknown vertex", u, v)
+		return fmt.Errorf("graph: edge {%d, %d} names an unknown vertex", u, v)
 	}
 	if u > v {
 		u, v = v, u
@@ -234,7 +230,7 @@ func NewNumbered(n, base int, edges [][2]int) (*Graph, error) {
 	}
 	for _, e := range edges {
 		if e[0] < 0 || e[1] < 0 || e[0] >= n || e[1] >= n {
-			return nil, fmt.Errorf("cert: edge {%d, %d} out of range 0..%d", e[0], e[1], n-1)
+			return nil, fmt.Errorf("graph: edge {%d, %d} out of range 0..%d", e[0], e[1], n-1)
 		}
 		if err := b.AddEdge(int32(e[0]), int32(e[1])); err != nil {
 			return nil, err

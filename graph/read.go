@@ -3,7 +3,6 @@ package graph
 import (
 	"bufio"
 	"bytes"
-	"errors"
 	"fmt"
 	"io"
 	"os"
@@ -50,7 +49,7 @@ func ParseFormat(s string) (Format, error) {
 			return f, nil
 		}
 	}
-	return 0, fmt.Errorf("cert: unknown graph format %q (expected auto, edgelist, dimacs, graph6 or sparse6)", s)
+	return 0, fmt.Errorf("graph: unknown graph format %q (expected auto, edgelist, dimacs, graph6 or sparse6)", s)
 }
 
 // ReadResult is what a graph file held.
@@ -67,7 +66,7 @@ func ReadFile(path string, f Format) (*ReadResult, error) {
 	}
 	file, err := os.Open(path)
 	if err != nil {
-		return nil, fmt.Errorf("cert: %w", err)
+		return nil, fmt.Errorf("graph: %w", err)
 	}
 	defer file.Close()
 	return Read(file, path, f)
@@ -99,7 +98,7 @@ func Read(r io.Reader, name string, f Format) (*ReadResult, error) {
 	case FormatGraph6, FormatSparse6:
 		res.Graphs, err = readNauty(br, name, f, res)
 	default:
-		return nil, fmt.Errorf("cert: %s: unknown graph format", name)
+		return nil, fmt.Errorf("graph: %s: unknown graph format", name)
 	}
 	if err != nil {
 		return nil, err
@@ -562,10 +561,6 @@ func duplicateWarnings(name string, rep BuildReport) []string {
 	}
 	return []string{fmt.Sprintf("%s: %d repeated edge(s) merged: %s%s", name, rep.Duplicates, strings.Join(ex, ", "), more)}
 }
-
-// ErrIndex is wrapped by ReadResult.Pick when the index does not name one
-// graph of the file.
-var ErrIndex = errors.New("graph: no such graph in the file")
 
 // Pick returns graph number index (1-based) of a file that holds several;
 // index 0 means "the only one" and is an error when the file holds more or

@@ -2,16 +2,11 @@ package graph
 
 import (
 	"bufio"
-	"errors"
 	"fmt"
 	"io"
 	"strconv"
 	"strings"
 )
-
-// ErrUnwritableLabels is returned (wrapped) when a graph's labels cannot be
-// expressed in the requested format.
-var ErrUnwritableLabels = errors.New("labels do not fit the format")
 
 // WriteEdgeList writes g in spinecert's canonical edge-list form: first every
 // isolated vertex on a line of its own, in vertex order, then every edge as
@@ -21,7 +16,7 @@ var ErrUnwritableLabels = errors.New("labels do not fit the format")
 func WriteEdgeList(w io.Writer, g *Graph) error {
 	for _, l := range g.labels {
 		if l == "" || strings.ContainsAny(l, " \t\r\n\v\f#%") {
-			return fmt.Errorf("cert: label %q cannot be written in an edge list (empty, or holds whitespace, '#' or '%%'): %w", l, ErrUnwritableLabels)
+			return fmt.Errorf("%w: label %q cannot be written in an edge list (empty, or holds whitespace, '#' or '%%')", ErrUnwritableLabels, l)
 		}
 	}
 	bw := bufio.NewWriterSize(w, 1<<16)
@@ -42,7 +37,7 @@ func WriteEdgeList(w io.Writer, g *Graph) error {
 		bw.WriteByte('\n')
 	}
 	if err := bw.Flush(); err != nil {
-		return fmt.Errorf("cert: %w", err)
+		return fmt.Errorf("graph: %w", err)
 	}
 	return nil
 }
@@ -53,8 +48,8 @@ func checkNumbered(g *Graph, base int, format string) error {
 	for v, l := range g.labels {
 		buf = strconv.AppendInt(buf[:0], int64(base+v), 10)
 		if l != string(buf) {
-			return fmt.Errorf("cert: %s needs vertices labelled %d..%d, vertex %d is labelled %q: %w",
-				format, base, base+len(g.labels)-1, v, l, ErrUnwritableLabels)
+			return fmt.Errorf("%w: %s needs vertices labelled %d..%d, vertex %d is labelled %q",
+				ErrUnwritableLabels, format, base, base+len(g.labels)-1, v, l)
 		}
 	}
 	return nil
@@ -80,7 +75,7 @@ func WriteDIMACS(w io.Writer, g *Graph) error {
 		bw.Write(buf)
 	}
 	if err := bw.Flush(); err != nil {
-		return fmt.Errorf("cert: %w", err)
+		return fmt.Errorf("graph: %w", err)
 	}
 	return nil
 }
@@ -110,7 +105,7 @@ func WriteSparse6(w io.Writer, g *Graph) error {
 func writeLine(w io.Writer, b []byte) error {
 	b = append(b, '\n')
 	if _, err := w.Write(b); err != nil {
-		return fmt.Errorf("cert: %w", err)
+		return fmt.Errorf("graph: %w", err)
 	}
 	return nil
 }

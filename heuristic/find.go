@@ -1,7 +1,6 @@
 package heuristic
 
 import (
-	"errors"
 	"fmt"
 	"time"
 
@@ -9,9 +8,6 @@ import (
 	"spinecert.dev/graph"
 	"spinecert.dev/planar"
 )
-
-// ErrKind is returned (wrapped) by Find for a layout kind it cannot search.
-var ErrKind = errors.New("unsupported layout kind")
 
 // Options tune the search. The zero value is usable.
 type Options struct {
@@ -46,7 +42,7 @@ func Find(g *graph.Graph, kind cert.Kind, opts Options) (*cert.Layout, error) {
 	case cert.Queue:
 		return Queue(g, opts), nil
 	}
-	return nil, fmt.Errorf("heuristic: %w: %s (expected stack or queue)", ErrKind, kind)
+	return nil, fmt.Errorf("%w: %s (expected stack or queue)", ErrKind, kind)
 }
 
 // Stack returns a stack layout (book embedding) of g.

@@ -2,7 +2,6 @@ package pagenumber
 
 import (
 	"context"
-	"errors"
 	"fmt"
 	"path/filepath"
 	"strconv"
@@ -14,11 +13,6 @@ import (
 	"spinecert.dev/heuristic"
 	"spinecert.dev/verify"
 )
-
-// ErrUndecided is returned (wrapped) by Compute when the bounds could
-// not be closed: a solver run ended without a verdict. The result still
-// holds the bounds that were established.
-var ErrUndecided = errors.New("page number undecided")
 
 // Options controls Compute.
 type Options struct {
@@ -68,7 +62,7 @@ func Compute(ctx context.Context, g *graph.Graph, opt Options) (*Result, error) 
 	res := &Result{Graph: g.ID(), Kind: opt.Kind.String(), PageNumber: -1}
 	defer func() { res.Elapsed = time.Since(start) }()
 	if opt.Kind != cert.Stack && opt.Kind != cert.Queue {
-		return nil, fmt.Errorf("verify: page number of kind %s: expected stack or queue", opt.Kind)
+		return nil, fmt.Errorf("pagenumber: page number of kind %s: expected stack or queue", opt.Kind)
 	}
 	// Lower bound without solvers.
 	res.Lower = trivialLowerBound(g)
@@ -87,16 +81,16 @@ func Compute(ctx context.Context, g *graph.Graph, opt Options) (*Result, error) 
 	// Upper bound from the heuristic, checked directly.
 	l, err := heuristic.Find(g, opt.Kind, opt.Heuristic)
 	if err != nil {
-		return nil, fmt.Errorf("verify: %w", err)
+		return nil, fmt.Errorf("pagenumber: %w", err)
 	}
 	l = trimPages(l)
 	if rep := cert.Validate(g, l); !rep.OK() {
-		return nil, fmt.Errorf("verify: heuristic layout failed the direct check: %w", rep.Err())
+		return nil, fmt.Errorf("pagenumber: heuristic layout failed the direct check: %w", rep.Err())
 	}
 	res.Layout = l
 	res.Upper = Bound{l.Pages(), SourceLayout, fmt.Sprintf("heuristic layout on %d pages passed the direct check (cert.Validate)", l.Pages())}
 	if res.Lower.Pages > res.Upper.Pages {
-		return nil, fmt.Errorf("verify: lower bound %d (%s) above a checked layout on %d pages: a bound is wrong", res.Lower.Pages, res.Lower.Detail, res.Upper.Pages)
+		return nil, fmt.Errorf("pagenumber: lower bound %d (%s) above a checked layout on %d pages: a bound is wrong", res.Lower.Pages, res.Lower.Detail, res.Upper.Pages)
 	}
 	// SAT steps down from the upper bound.
 	for res.Lower.Pages < res.Upper.Pages {
@@ -127,7 +121,7 @@ func Compute(ctx context.Context, g *graph.Graph, opt Options) (*Result, error) 
 			if why == "" {
 				why = "missing " + joinChecked(gv.Verdict.Missing)
 			}
-			return res, fmt.Errorf("verify: %d pages: %s: %w", k, why, ErrUndecided)
+			return res, fmt.Errorf("%w: %d pages: %s", ErrUndecided, k, why)
 		}
 	}
 	res.PageNumber = res.Upper.Pages

@@ -2,16 +2,12 @@ package planar
 
 import (
 	"cmp"
-	"errors"
 	"fmt"
 	"slices"
 
 	"spinecert.dev/graph"
 	"spinecert.dev/planar/planarcert"
 )
-
-// ErrPlanar is returned (wrapped) by FindKuratowski when the graph is planar.
-var ErrPlanar = errors.New("graph is planar")
 
 // FindKuratowski returns a subdivision of K5 or K3,3 in g, found by edge
 // deletion guided by the planarity test:
@@ -33,7 +29,7 @@ func FindKuratowski(g *graph.Graph) (*planarcert.Kuratowski, error) {
 	lg, perm := lrOf(g)
 	r := lrTest(lg, false)
 	if r.planar {
-		return nil, fmt.Errorf("cert: no planarcert.Kuratowski subgraph: %w", ErrPlanar)
+		return nil, fmt.Errorf("%w: no Kuratowski subgraph", ErrPlanar)
 	}
 	fail := r.fail
 	if fail >= 0 {
@@ -402,7 +398,7 @@ func (ks *kurSearch) readOff() (*planarcert.Kuratowski, error) {
 	case len(branch) == 6 && allDegree(adj, branch, 3):
 		k.Kind = planarcert.K33
 	default:
-		return nil, fmt.Errorf("cert: internal error: minimal non-planar subgraph has %d branch vertices", len(branch))
+		return nil, fmt.Errorf("planar: internal error: minimal non-planar subgraph has %d branch vertices", len(branch))
 	}
 	link := make([][]int, len(branch))
 	for i, b := range branch {
@@ -416,7 +412,7 @@ func (ks *kurSearch) readOff() (*planarcert.Kuratowski, error) {
 				}
 				nb := adj[cur]
 				if len(nb) != 2 {
-					return nil, fmt.Errorf("cert: internal error: path vertex of degree %d", len(nb))
+					return nil, fmt.Errorf("planar: internal error: path vertex of degree %d", len(nb))
 				}
 				nx := nb[0]
 				if nx == prev {

@@ -1,15 +1,11 @@
 package planar
 
 import (
-	"errors"
 	"fmt"
 
 	"spinecert.dev/graph"
 	"spinecert.dev/planar/planarcert"
 )
-
-// ErrNotPlanar is returned (wrapped) where a planar graph is required.
-var ErrNotPlanar = errors.New("graph is not planar")
 
 // Result is the outcome of Decide: the verdict and its certificate.
 type Result struct {

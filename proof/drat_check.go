@@ -42,9 +42,9 @@ func (k *dratChecker) reject(step int64, text, pos, why string) error {
 	k.res.FailedPos = pos
 	k.res.Reason = why
 	if step > 0 {
-		return fmt.Errorf("verify: step %d (%s) %q: %s: %w", step, pos, text, why, ErrRejected)
+		return fmt.Errorf("%w: step %d (%s) %q: %s", ErrRejected, step, pos, text, why)
 	}
-	return fmt.Errorf("verify: %s: %w", why, ErrRejected)
+	return fmt.Errorf("%w: %s", ErrRejected, why)
 }
 
 func (k *dratChecker) clauseText(c int) string {
@@ -258,7 +258,7 @@ func (k *dratChecker) readSteps(forward bool) (conflictStep int64, err error) {
 		k.res.Steps++
 		if step&4095 == 0 {
 			if err := k.ctx.Err(); err != nil {
-				return 0, fmt.Errorf("verify: %w", err)
+				return 0, fmt.Errorf("proof: %w", err)
 			}
 			if k.opt.Progress != nil {
 				k.opt.Progress(Progress{Phase: "reading", Steps: uint64(step), Checked: k.res.CoreLemmas})
@@ -395,13 +395,13 @@ func (k *dratChecker) backward(conflictStep int64) error {
 	last := k.steps[conflictStep-1]
 	k.detach(last.c)
 	if !k.resetTopLevel() {
-		return errors.New("verify: internal error: the formula conflicts before the step that refuted it")
+		return errors.New("proof: internal error: the formula conflicts before the step that refuted it")
 	}
 	for i := conflictStep - 1; i >= 0; i-- {
 		s := k.steps[i]
 		if i&1023 == 0 {
 			if err := k.ctx.Err(); err != nil {
-				return fmt.Errorf("verify: %w", err)
+				return fmt.Errorf("proof: %w", err)
 			}
 			if k.opt.Progress != nil {
 				k.opt.Progress(Progress{Phase: "checking", Steps: uint64(conflictStep - i), Total: total, Checked: k.res.CoreLemmas})
@@ -412,7 +412,7 @@ func (k *dratChecker) backward(conflictStep int64) error {
 			continue
 		case stepDelete:
 			if !k.attach(s.c) || !k.propagate() {
-				return errors.New("verify: internal error: restoring a deleted clause caused a conflict")
+				return errors.New("proof: internal error: restoring a deleted clause caused a conflict")
 			}
 			continue
 		}
@@ -422,7 +422,7 @@ func (k *dratChecker) backward(conflictStep int64) error {
 				at := int(k.pos[k.arena[k.cls[c].off]>>1])
 				k.detach(c)
 				if !k.unassignFrom(at) {
-					return errors.New("verify: internal error: removing a lemma caused a conflict")
+					return errors.New("proof: internal error: removing a lemma caused a conflict")
 				}
 			} else {
 				k.detach(c)

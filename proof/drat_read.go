@@ -58,12 +58,12 @@ func newProofReader(r io.Reader, name, format string) (pr *proofReader, detected
 	case "":
 		prefix, perr := br.Peek(detectWindow)
 		if perr != nil && !errors.Is(perr, io.EOF) && !errors.Is(perr, bufio.ErrBufferFull) {
-			return nil, false, fmt.Errorf("verify: %s: %w", name, perr)
+			return nil, false, fmt.Errorf("proof: %s: %w", name, perr)
 		}
 		format, detected = DetectFormat(prefix), true
 	case DRAT, DRATBinary, RUP:
 	default:
-		return nil, false, fmt.Errorf("verify: unknown proof format %q (want %s, %s or %s)", format, DRAT, DRATBinary, RUP)
+		return nil, false, fmt.Errorf("proof: unknown proof format %q (want %s, %s or %s)", format, DRAT, DRATBinary, RUP)
 	}
 	return &proofReader{br: br, name: name, format: format, line: 1, col: 1}, detected, nil
 }
@@ -77,11 +77,11 @@ func (p *proofReader) where() string {
 }
 
 func (p *proofReader) textErr(line, col int64, format string, args ...any) error {
-	return fmt.Errorf("verify: %w", &textpos.Error{File: p.name, Line: int(line), Col: int(col), Msg: fmt.Sprintf(format, args...)})
+	return fmt.Errorf("proof: %w", &textpos.Error{File: p.name, Line: int(line), Col: int(col), Msg: fmt.Sprintf(format, args...)})
 }
 
 func (p *proofReader) binErr(off int64, format string, args ...any) error {
-	return fmt.Errorf("verify: %w", &textpos.Error{File: p.name, Msg: fmt.Sprintf("byte %d: ", off) + fmt.Sprintf(format, args...)})
+	return fmt.Errorf("proof: %w", &textpos.Error{File: p.name, Msg: fmt.Sprintf("byte %d: ", off) + fmt.Sprintf(format, args...)})
 }
 
 // next returns the next step: del reports a deletion; lits is reused by the
@@ -99,7 +99,7 @@ func (p *proofReader) readByte() (byte, error) {
 		if errors.Is(err, io.EOF) {
 			return 0, io.EOF
 		}
-		return 0, fmt.Errorf("verify: %s: %w", p.name, err)
+		return 0, fmt.Errorf("proof: %s: %w", p.name, err)
 	}
 	p.off++
 	if c == '\n' {

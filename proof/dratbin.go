@@ -21,7 +21,7 @@ func TextToBinary(r io.Reader, w io.Writer, name string) error {
 	line, col := 1, 0
 	inStep := false
 	perr := func(msg string, args ...any) error {
-		return fmt.Errorf("archive: %w", &textpos.Error{File: name, Line: line, Col: col, Msg: fmt.Sprintf(msg, args...)})
+		return fmt.Errorf("proof: %w", &textpos.Error{File: name, Line: line, Col: col, Msg: fmt.Sprintf(msg, args...)})
 	}
 	var buf [10]byte
 	for {
@@ -33,7 +33,7 @@ func TextToBinary(r io.Reader, w io.Writer, name string) error {
 			return bw.Flush()
 		}
 		if err != nil {
-			return fmt.Errorf("archive: %s: %w", name, err)
+			return fmt.Errorf("proof: %s: %w", name, err)
 		}
 		col++
 		switch {
@@ -46,7 +46,7 @@ func TextToBinary(r io.Reader, w io.Writer, name string) error {
 					if err == io.EOF {
 						return bw.Flush()
 					}
-					return fmt.Errorf("archive: %s: %w", name, err)
+					return fmt.Errorf("proof: %s: %w", name, err)
 				}
 			}
 			line, col = line+1, 0

@@ -214,7 +214,7 @@ func containsLit(c []int32, l int32) bool {
 func CheckLRAT(ctx context.Context, cnf *dimacs.CNF, r io.Reader, name string) (*LRATResult, error) {
 	dr, err := dimacs.Decompress(r)
 	if err != nil {
-		return nil, fmt.Errorf("verify: %s: %w", name, err)
+		return nil, fmt.Errorf("proof: %s: %w", name, err)
 	}
 	defer dr.Close()
 	s := &lratState{cls: make(map[int64][]int32, len(cnf.Clauses)), far: map[int32]int8{}, dense: min(cnf.Vars, 2*cnf.Literals()+1<<16) + 1}
@@ -226,24 +226,24 @@ func CheckLRAT(ctx context.Context, cnf *dimacs.CNF, r io.Reader, name string) (
 	br := bufio.NewReaderSize(dr, 1<<16)
 	var lineNo int64
 	parseErr := func(format string, args ...any) error {
-		return fmt.Errorf("verify: %w", &textpos.Error{File: name, Line: int(lineNo), Msg: fmt.Sprintf(format, args...)})
+		return fmt.Errorf("proof: %w", &textpos.Error{File: name, Line: int(lineNo), Msg: fmt.Sprintf(format, args...)})
 	}
 	reject := func(text, why string) (*LRATResult, error) {
 		res.FailedLine, res.FailedText, res.Reason = lineNo, text, why
-		return res, fmt.Errorf("verify: %s:%d: %s: %w", name, lineNo, why, ErrRejected)
+		return res, fmt.Errorf("%w: %s:%d: %s", ErrRejected, name, lineNo, why)
 	}
 	empty := false
 	for {
 		line, rerr := br.ReadString('\n')
 		if rerr != nil && !errors.Is(rerr, io.EOF) {
-			return nil, fmt.Errorf("verify: %s: %w", name, rerr)
+			return nil, fmt.Errorf("proof: %s: %w", name, rerr)
 		}
 		if line == "" && rerr != nil {
 			break
 		}
 		lineNo++
 		if lineNo&4095 == 0 && ctx.Err() != nil {
-			return nil, fmt.Errorf("verify: %w", ctx.Err())
+			return nil, fmt.Errorf("proof: %w", ctx.Err())
 		}
 		f := strings.Fields(line)
 		if len(f) == 0 || strings.HasPrefix(f[0], "c") {

@@ -96,7 +96,7 @@ func (g *lratLog) flushLine() error {
 	_, err := g.w.Write(g.line)
 	g.line = g.line[:0]
 	if err != nil {
-		return fmt.Errorf("verify: writing lrat: %w", err)
+		return fmt.Errorf("proof: writing lrat: %w", err)
 	}
 	return nil
 }
@@ -134,7 +134,7 @@ func (g *lratLog) finish(id func(int) int64) error {
 		return err
 	}
 	if err := g.w.Flush(); err != nil {
-		return fmt.Errorf("verify: writing lrat: %w", err)
+		return fmt.Errorf("proof: writing lrat: %w", err)
 	}
 	return nil
 }

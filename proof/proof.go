@@ -9,10 +9,6 @@ import (
 	"spinecert.dev/dimacs"
 )
 
-// ErrRejected is wrapped by the error of a check that read its input
-// and found the proof wrong. Other errors mean the input could not be read.
-var ErrRejected = errors.New("proof rejected")
-
 // Progress reports how far a proof check has come.
 type Progress struct {
 	Phase   string // "reading" (forward pass) or "checking" (backward pass)
@@ -86,7 +82,7 @@ func CheckDRAT(ctx context.Context, cnf *dimacs.CNF, proof io.Reader, opt DRATOp
 	}
 	dr, err := dimacs.Decompress(proof)
 	if err != nil {
-		return nil, fmt.Errorf("verify: %s: %w", name, err)
+		return nil, fmt.Errorf("proof: %s: %w", name, err)
 	}
 	defer dr.Close()
 	pr, detected, err := newProofReader(dr, name, opt.Format)

@@ -70,9 +70,6 @@ type Solver interface {
 	Solve(ctx context.Context, cnf *dimacs.CNF, limit time.Duration, proofPath string) (*Result, error)
 }
 
-// ErrNoSolver is returned when a named backend is not known or not installed.
-var ErrNoSolver = errors.New("no such solver")
-
 // CheckModel checks that model satisfies every clause of cnf; model[v-1] is
 // the value of variable v and must cover all cnf.Vars variables. It returns
 // nil or an error naming the first violated clause.

@@ -43,7 +43,7 @@ func ByName(name string, child ChildCommand) (Solver, error) {
 	switch name {
 	case "gophersat":
 		if child.Path == "" {
-			return nil, fmt.Errorf("verify: gophersat needs a child command: %w", ErrNoSolver)
+			return nil, fmt.Errorf("%w: gophersat needs a child command", ErrNoSolver)
 		}
 		return NewGophersat(child), nil
 	case "gini":
@@ -51,11 +51,11 @@ func ByName(name string, child ChildCommand) (Solver, error) {
 	}
 	k, ok := knownExternals[name]
 	if !ok {
-		return nil, fmt.Errorf("verify: unknown solver %q (known: %s): %w", name, strings.Join(KnownSolvers(), ", "), ErrNoSolver)
+		return nil, fmt.Errorf("%w: unknown solver %q (known: %s)", ErrNoSolver, name, strings.Join(KnownSolvers(), ", "))
 	}
 	path, err := exec.LookPath(name)
 	if err != nil {
-		return nil, fmt.Errorf("verify: solver %s not found on PATH: %w", name, ErrNoSolver)
+		return nil, fmt.Errorf("%w: solver %s not found on PATH", ErrNoSolver, name)
 	}
 	ext := &External{
 		Label:       name,

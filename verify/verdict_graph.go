@@ -2,7 +2,6 @@ package verify
 
 import (
 	"context"
-	"errors"
 	"fmt"
 	"os"
 	"time"
@@ -42,10 +41,6 @@ type GraphVerdict struct {
 	CNF      *dimacs.CNF      `json:"-"`
 	Stats    *dimacs.Stats    `json:"-"`
 }
-
-// ErrEncoderModel is wrapped in a Verdict's Conflict when a checked model
-// decodes to a layout that fails cert.Validate: the encoding is wrong.
-var ErrEncoderModel = errors.New("model of the CNF decodes to an invalid layout")
 
 // DecideLayout encodes the claim, runs the solvers, checks the proofs of
 // UNSAT answers and decides (see Decide). A Satisfiable verdict comes with

@@ -1,7 +1,6 @@
 package planarcert
 
 import (
-	"errors"
 	"fmt"
 
 	"spinecert.dev/graph"
@@ -11,11 +10,8 @@ import (
 // certificate and shares no code with the planarity test or the Kuratowski
 // search: it uses only the graph.Graph accessors.
 
-// ErrRejected is returned (wrapped) when a planarity certificate is rejected.
-var ErrRejected = errors.New("planarity certificate rejected")
-
 func badPlanar(format string, args ...any) error {
-	return fmt.Errorf("cert: %w: %s", ErrRejected, fmt.Sprintf(format, args...))
+	return fmt.Errorf("%w: %s", ErrRejected, fmt.Sprintf(format, args...))
 }
 
 // Check checks a planarity certificate against g: an embedding must

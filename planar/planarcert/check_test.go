@@ -70,7 +70,7 @@ func TestTriangulations(t *testing.T) {
 		t.Fatal("3x3 grid reported maximal planar")
 	}
 	if !planar.IsMaximal(fixture.Complete(4)) || planar.IsMaximal(fixture.Complete(5)) {
-		t.Fatal("K4 / planarcert.K5 maximal planarity wrong")
+		t.Fatal("K4 / K5 maximal planarity wrong")
 	}
 }
 

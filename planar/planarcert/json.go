@@ -31,7 +31,7 @@ const Version = 1
 // every vertex has an entry, in vertex order. The output is the same bytes for the same certificate.
 func Write(w io.Writer, g *graph.Graph, c *Cert) error {
 	if c == nil || (c.Planar && c.Embedding == nil) || (!c.Planar && c.Kuratowski == nil) {
-		return errors.New("cert: incomplete planarity certificate")
+		return errors.New("planarcert: incomplete planarity certificate")
 	}
 	bw := bufio.NewWriterSize(w, 1<<16)
 	fmt.Fprintf(bw, "{\n  \"format\": %q,\n  \"version\": %d,\n  \"graph\": %q,\n  \"vertices\": %d,\n  \"edges\": %d,\n",
@@ -54,7 +54,7 @@ func Write(w io.Writer, g *graph.Graph, c *Cert) error {
 	if c.Planar {
 		rot := c.Embedding.Rotation
 		if len(rot) != g.N() {
-			return fmt.Errorf("cert: embedding has %d vertices, graph has %d", len(rot), g.N())
+			return fmt.Errorf("planarcert: embedding has %d vertices, graph has %d", len(rot), g.N())
 		}
 		bw.WriteString("  \"planar\": true,\n  \"rotation\": [")
 		for v := range rot {
@@ -126,7 +126,7 @@ type planarFile struct {
 func Read(r io.Reader, name string, g *graph.Graph) (*Cert, error) {
 	data, err := io.ReadAll(r)
 	if err != nil {
-		return nil, fmt.Errorf("cert: reading %s: %w", name, err)
+		return nil, fmt.Errorf("planarcert: reading %s: %w", name, err)
 	}
 	perr := func(off int64, format string, args ...any) error {
 		line, col := offsetPosition(data, off)

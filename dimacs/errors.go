@@ -1,0 +1,16 @@
+package dimacs
+
+import "errors"
+
+// ErrInvalidModel is returned (wrapped) by Decode when the model does not
+// give a valid layout: it is too short, or the layout it describes fails
+// the direct check of package cert.
+var ErrInvalidModel = errors.New("dimacs: model does not give a valid layout")
+
+// ErrUnknownVersion is returned (wrapped) by EncodeVersion for a version
+// this encoder cannot reproduce.
+var ErrUnknownVersion = errors.New("dimacs: unknown encoder version")
+
+// ErrTooLarge is returned when an encoding would need more variables than
+// a DIMACS CNF can name.
+var ErrTooLarge = errors.New("dimacs: encoding too large")

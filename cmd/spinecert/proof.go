@@ -217,6 +217,7 @@ func (b *proofBar) update(p verify.DRATProgress) {
 			progressbar.OptionSetWriter(b.w),
 			progressbar.OptionSetDescription(p.Phase+" proof steps"),
 			progressbar.OptionShowCount(),
+			spineLook(),
 			progressbar.OptionSetElapsedTime(true),
 			progressbar.OptionClearOnFinish())
 	}

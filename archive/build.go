@@ -314,23 +314,7 @@ func detectFormat(path string) (string, error) {
 	defer f.Close()
 	head := make([]byte, 1024)
 	n, _ := io.ReadFull(f, head)
-	if proof.DetectFormat(head[:n]) == proof.DRAT && isLRATHead(head[:n]) {
-		return "lrat", nil
-	}
-	return proof.DetectFormat(head[:n]), nil
-}
-
-// isLRATHead reports whether the first line of a text proof looks like an
-// LRAT step: an id, literals, 0, hints, 0 (two zeros on the line).
-func isLRATHead(b []byte) bool {
-	line, _, _ := bytes.Cut(b, []byte{'\n'})
-	zeros := 0
-	for _, f := range bytes.Fields(line) {
-		if string(f) == "0" {
-			zeros++
-		}
-	}
-	return zeros >= 2
+	return proof.Detect(head[:n]), nil
 }
 
 // convertProof writes the binary form of a DRAT text proof to a temporary

@@ -22,7 +22,7 @@ const (
 )
 
 // exitTable is printed in every command's help.
-const exitTable = `Exit status:
+const exitTable = `exit status:
     0  the claim holds / the check passed
     1  the claim is refuted / the evidence was rejected
     2  bad usage or unreadable input

@@ -18,14 +18,13 @@ import (
 func init() { register(newProofCmd) }
 
 type proofOptions struct {
-	format    string
-	forward   bool
-	lrat      string
-	lratCheck bool
-	json      bool
-	quiet     bool
-	cnf       string
-	proof     string
+	format  string
+	forward bool
+	lrat    string
+	json    bool
+	quiet   bool
+	cnf     string
+	proof   string
 }
 
 func newProofCmd() *cobra.Command {
@@ -35,10 +34,15 @@ func newProofCmd() *cobra.Command {
 		Short: "Check a DRAT or LRAT refutation of a CNF formula with spinecert's own checkers",
 		Long: `proof checks that PROOF refutes the DIMACS CNF formula CNF.
 
-PROOF is DRAT (text or binary; plain, gzip or zstd). Its format is detected
-from its first bytes (binary when one of the first 1024 bytes is neither
-printable ASCII nor white space) unless --format names it: drat, drat-binary,
-or rup (text lemmas without deletions, all RUP). Lemmas may be RUP or RAT on
+PROOF is DRAT (text or binary) or LRAT (text), plain, gzip or zstd. With
+--format auto (the default) the format is detected from the first bytes: binary
+DRAT when one of the first 1024 bytes is neither printable ASCII nor white
+space; LRAT when the first line that is not a comment starts with a step
+number followed by "d", or by a clause and its hints each ended by 0; text
+DRAT otherwise. --format names it instead: drat, drat-binary, rup (text
+lemmas without deletions, all RUP) or lrat.
+
+A DRAT proof is checked by spinecert's DRAT checker. Lemmas may be RUP or RAT on
 their first literal. By default the proof is checked backward from the empty
 clause, so only the lemmas the refutation needs are checked; --forward checks
 every lemma in order and holds less in memory. Deletions of clauses that are
@@ -46,9 +50,9 @@ the reason of a unit at the time are ignored. A proof must add the empty
 clause. On rejection the first failing step (1-based, deletions counted) is
 named with its text and the reason.
 
---lrat FILE writes the checked proof as LRAT; it is written only when the
-proof is accepted. With --lrat-check, PROOF is read as LRAT and checked by a
-second, separate and much smaller checker.
+--lrat FILE writes the checked DRAT proof as LRAT; it is written only when the
+proof is accepted. An LRAT proof is checked by a second, separate and much
+smaller checker.
 
 Progress goes to stderr when it is a terminal (not with --quiet).`,
 		Args: cobra.ExactArgs(2),
@@ -58,10 +62,9 @@ Progress goes to stderr when it is a terminal (not with --quiet).`,
 		},
 	}
 	fl := cmd.Flags()
-	fl.StringVar(&o.format, "format", "", "proof format: drat, drat-binary or rup (default: detect)")
+	fl.StringVar(&o.format, "format", proofAuto, "proof format: auto, drat, drat-binary, rup or lrat")
 	fl.BoolVar(&o.forward, "forward", false, "check every lemma in proof order instead of backward from the empty clause")
 	fl.StringVar(&o.lrat, "lrat", "", "write the checked proof as LRAT to `FILE`")
-	fl.BoolVar(&o.lratCheck, "lrat-check", false, "read PROOF as LRAT and check it with the LRAT checker")
 	fl.BoolVar(&o.json, "json", false, "print the result as one JSON object")
 	fl.BoolVar(&o.quiet, "quiet", false, "no progress display on stderr")
 	return cmd
@@ -72,6 +75,8 @@ type proofReport struct {
 	CNF    string            `json:"cnf"`
 	Proof  string            `json:"proof"`
 	Kind   string            `json:"checker"` // "drat" or "lrat"
+	Format string            `json:"format"`
+	Auto   bool              `json:"format_detected"`
 	LRAT   string            `json:"lrat_written,omitempty"`
 	Result *proof.DRATResult `json:"drat,omitempty"`
 	Check  *proof.LRATResult `json:"lrat,omitempty"`
@@ -79,13 +84,9 @@ type proofReport struct {
 }
 
 func runProof(cmd *cobra.Command, o *proofOptions) error {
-	switch o.format {
-	case "", proof.DRAT, proof.DRATBinary, proof.RUP:
-	default:
-		return usageErr(fmt.Errorf("--format must be %s, %s or %s, got %q", proof.DRAT, proof.DRATBinary, proof.RUP, o.format))
-	}
-	if o.lratCheck && (o.format != "" || o.forward || o.lrat != "") {
-		return usageErr(errors.New("--lrat-check takes no --format, --forward or --lrat"))
+	format, detected, err := proofFormat(o)
+	if err != nil {
+		return err
 	}
 	ctx := cmd.Context()
 	if ctx == nil {
@@ -100,14 +101,14 @@ func runProof(cmd *cobra.Command, o *proofOptions) error {
 		return usageErr(err)
 	}
 	defer f.Close()
-	rep := &proofReport{CNF: o.cnf, Proof: o.proof, Kind: "drat"}
+	rep := &proofReport{CNF: o.cnf, Proof: o.proof, Kind: "drat", Format: format, Auto: detected}
 	var checkErr error
-	if o.lratCheck {
+	if format == proofLRAT {
 		rep.Kind = "lrat"
 		rep.Check, checkErr = proof.CheckLRAT(ctx, cnf, f, o.proof)
 	} else {
 		bar := newProofBar(cmd.ErrOrStderr(), o.quiet)
-		opt := proof.DRATOptions{Format: o.format, Forward: o.forward, Name: o.proof, Progress: bar.update}
+		opt := proof.DRATOptions{Format: format, Forward: o.forward, Name: o.proof, Progress: bar.update}
 		if o.lrat == "" {
 			rep.Result, checkErr = proof.CheckDRAT(ctx, cnf, f, opt)
 		} else {
@@ -124,6 +125,9 @@ func runProof(cmd *cobra.Command, o *proofOptions) error {
 			}
 		}
 		bar.finish()
+		if r := rep.Result; r != nil {
+			rep.Format, rep.Auto = r.Format, r.Detected
+		}
 	}
 	if err := interruption(ctx); err != nil {
 		return err
@@ -152,6 +156,7 @@ func runProof(cmd *cobra.Command, o *proofOptions) error {
 func printProofReport(w io.Writer, rep *proofReport) {
 	if rep.Check != nil {
 		c := rep.Check
+		fmt.Fprintf(w, "format: %s (%s)\n", rep.Format, map[bool]string{true: "detected", false: "forced"}[rep.Auto])
 		if c.Accepted {
 			fmt.Fprintf(w, "LRAT proof accepted: %s refutes %s (%d lemmas checked, %d RAT, %d deletions)\n", rep.Proof, rep.CNF, c.Added, c.RAT, c.Deleted)
 		} else {
@@ -212,6 +217,7 @@ func (b *proofBar) update(p proof.Progress) {
 			progressbar.OptionSetWriter(b.w),
 			progressbar.OptionSetDescription(p.Phase+" proof steps"),
 			progressbar.OptionShowCount(),
+			spineLook(),
 			progressbar.OptionSetElapsedTime(true),
 			progressbar.OptionClearOnFinish())
 	}

@@ -26,9 +26,7 @@ func newRootCmd() *cobra.Command {
 		Long: `spinecert turns claims about the page number (book thickness) and queue number of
 graphs into evidence that anyone can re-check: it validates layouts directly,
 encodes "G has a k-page layout" as DIMACS CNF, decides it with independent
-solvers, checks clausal proofs with its own checker, and bundles the evidence.
-
-` + exitTable,
+solvers, checks clausal proofs with its own checker, and bundles the evidence.`,
 		Version:       version,
 		SilenceUsage:  true,
 		SilenceErrors: true,
@@ -46,16 +44,16 @@ solvers, checks clausal proofs with its own checker, and bundles the evidence.
 		addExitHelp(cmd)
 		root.AddCommand(cmd)
 	}
+	setHelp(root)
 	return root
 }
 
-// addExitHelp appends the exit-code table to a command's help and makes its
-// argument and flag errors exit with status 2.
+// addExitHelp makes a command's argument and flag errors exit with status 2
+// (the help template shows the exit-code table).
 func addExitHelp(cmd *cobra.Command) {
 	if cmd.Long == "" {
 		cmd.Long = cmd.Short
 	}
-	cmd.Long += "\n\n" + exitTable
 	if args := cmd.Args; args != nil {
 		cmd.Args = func(c *cobra.Command, a []string) error {
 			if err := args(c, a); err != nil {

@@ -332,7 +332,7 @@ func newSolveProgress(w io.Writer, quiet bool, solvers []verify.Solver) *solvePr
 func (p *solveProgress) spinner() {
 	p.bar = progressbar.NewOptions(-1,
 		progressbar.OptionSetWriter(p.w),
-		progressbar.OptionSpinnerType(14),
+		spineLook(),
 		progressbar.OptionSetDescription(p.describe()),
 		progressbar.OptionClearOnFinish(),
 		progressbar.OptionSetElapsedTime(true),
@@ -384,6 +384,7 @@ func (p *solveProgress) event(e verify.Event) {
 				progressbar.OptionSetWriter(p.w),
 				progressbar.OptionSetDescription(fmt.Sprintf("%s%s proof from %s (steps)", p.prefix, e.Phase, e.Backend)),
 				progressbar.OptionShowCount(),
+				spineLook(),
 				progressbar.OptionClearOnFinish(),
 				progressbar.OptionSetElapsedTime(true),
 				progressbar.OptionThrottle(100*time.Millisecond),

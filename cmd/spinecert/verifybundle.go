@@ -48,9 +48,10 @@ such a bundle fails unless --resolve re-solves the current encoding (with
 --solvers) and the new proof passes both checkers.
 
 Results per bundle and in total as text, as JSON (--json) and as JUnit XML
-for CI systems (--junit FILE). The exit status is 0 only if every bundle
-verified; 1 if some bundle is bad or does not establish its claim; 2 if
-some bundle could not be read at all.`,
+for CI systems (--junit FILE). A bundle holds when every check passed; the
+exit status is 0 only if every bundle holds; 1 if some bundle is rejected
+(bad, or it does not establish its claim); 2 if some bundle could not be
+read at all.`,
 		Args: cobra.MinimumNArgs(1),
 		RunE: func(cmd *cobra.Command, args []string) error {
 			o.bundles = args
@@ -188,12 +189,12 @@ var verifyTempDirs sync.Map
 
 func verifyPrint(w io.Writer, s *verifySummary) {
 	for _, r := range s.Bundles {
-		status := "VERIFIED"
+		status := "holds — every check passed"
 		switch {
 		case r.Unreadable:
-			status = "UNREADABLE"
+			status = "unreadable"
 		case !r.Verified:
-			status = "FAILED"
+			status = "rejected"
 		}
 		fmt.Fprintf(w, "%s: %s (%.2f s)\n", r.Bundle, status, r.Seconds)
 		if r.Claim != "" {
@@ -211,7 +212,7 @@ func verifyPrint(w io.Writer, s *verifySummary) {
 			}
 		}
 	}
-	fmt.Fprintf(w, "total: %d bundle(s), %d verified, %d failed, %d unreadable\n", s.Total, s.Verified, s.Failed, s.Unreadable)
+	fmt.Fprintf(w, "total: %d bundle(s): %d hold, %d rejected, %d unreadable\n", s.Total, s.Verified, s.Failed, s.Unreadable)
 }
 
 type junitSuites struct {
@@ -247,7 +248,7 @@ type junitProblem struct {
 }
 
 // verifyJUnit writes the reports as JUnit XML: one test case per bundle, a
-// failure for a bundle that did not verify, an error for one not readable.
+// failure for a rejected bundle, an error for one not readable.
 func verifyJUnit(w io.Writer, reports []*archive.Report) error {
 	s := junitSuite{Name: "spinecert verify", Tests: len(reports)}
 	total := 0.0
@@ -269,7 +270,7 @@ func verifyJUnit(w io.Writer, reports []*archive.Report) error {
 			for _, c := range r.Failures() {
 				msgs = append(msgs, c.Name+": "+c.Detail)
 			}
-			p := &junitProblem{Message: firstLine(msgs), Type: "not verified", Text: strings.Join(msgs, "\n")}
+			p := &junitProblem{Message: firstLine(msgs), Type: "rejected", Text: strings.Join(msgs, "\n")}
 			if r.Unreadable {
 				p.Type = "unreadable"
 				tc.Error = p
@@ -297,7 +298,7 @@ func verifyJUnit(w io.Writer, reports []*archive.Report) error {
 
 func firstLine(msgs []string) string {
 	if len(msgs) == 0 {
-		return "not verified"
+		return "rejected"
 	}
 	return msgs[0]
 }

@@ -8,6 +8,7 @@ import (
 
 	"github.com/klauspost/compress/gzip"
 	"github.com/klauspost/compress/zstd"
+
 	"spinecert.dev/textpos"
 )
 

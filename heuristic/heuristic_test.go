@@ -3,6 +3,7 @@ package heuristic
 import (
 	"fmt"
 	"math/rand/v2"
+	"slices"
 	"testing"
 
 	"spinecert.dev/cert"
@@ -262,21 +263,9 @@ func TestDeterministic(t *testing.T) {
 	g := fixture.RandomFlippedTriangulation(rng, 300, 300).Graph()
 	a := Stack(g, Options{Seed: 7})
 	b := Stack(g, Options{Seed: 7})
-	if a.Pages() != b.Pages() || !equal(a.Order, b.Order) || !equal(a.Page, b.Page) {
+	if a.Pages() != b.Pages() || !slices.Equal(a.Order, b.Order) || !slices.Equal(a.Page, b.Page) {
 		t.Fatal("same seed gave different layouts")
 	}
-}
-
-func equal(a, b []int32) bool {
-	if len(a) != len(b) {
-		return false
-	}
-	for i := range a {
-		if a[i] != b[i] {
-			return false
-		}
-	}
-	return true
 }
 
 func TestFindKind(t *testing.T) {

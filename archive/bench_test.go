@@ -7,7 +7,6 @@ import (
 	"io"
 	"math/rand/v2"
 	"os"
-	"os/exec"
 	"path/filepath"
 	"sync"
 	"testing"
@@ -15,7 +14,7 @@ import (
 	"spinecert.dev/cert"
 	"spinecert.dev/dimacs"
 	"spinecert.dev/graph"
-	"spinecert.dev/internal/testtools"
+	"spinecert.dev/internal/fixture"
 )
 
 // benchLarge enables the benchmarks that need a large proof (minutes of
@@ -32,8 +31,7 @@ func benchLarge(b *testing.B) {
 // pages < ceil(n/2) is unsatisfiable.
 func textProofBundle(b *testing.B, n, pages int) (int64, []byte) {
 	b.Helper()
-	cad := testtools.Require(b, "cadical", "cadical")
-	g := complete(b, n)
+	g := fixture.WithBase(fixture.Complete(n), 1)
 	// Twin symmetry breaking makes complete graphs easy (all vertices are
 	// twins); without it the refutations are large, as wanted here.
 	opt := dimacs.Options{Kind: cert.Stack, Pages: pages, NoTwins: true}
@@ -41,20 +39,20 @@ func textProofBundle(b *testing.B, n, pages int) (int64, []byte) {
 	if err != nil {
 		b.Fatal(err)
 	}
-	dir := b.TempDir()
-	text, _, _ := CNFText(cnf)
-	cnfPath, proof := filepath.Join(dir, "f.cnf"), filepath.Join(dir, "f.drat.txt")
-	os.WriteFile(cnfPath, text, 0o644)
-	if err := exec.Command(cad, "-q", "--no-binary", cnfPath, proof).Run(); err != nil {
-		if ee, ok := err.(*exec.ExitError); !ok || ee.ExitCode() != 20 {
-			b.Fatalf("cadical: %v", err)
-		}
-	}
-	fi, err := os.Stat(proof)
+	text, _, err := CNFText(cnf)
 	if err != nil {
 		b.Fatal(err)
 	}
-	ev := &Evidence{Graph: g, Name: fmt.Sprintf("K%d", n), Input: edgeListBytes(b, g), InputFormat: graph.FormatEdgeList,
+	r := fixture.Cadical(b, text, true, "--no-binary")
+	if r.Exit != 20 {
+		b.Fatalf("cadical: exit %d, want 20 (unsat)", r.Exit)
+	}
+	dir := b.TempDir()
+	proof := filepath.Join(dir, "f.drat.txt")
+	if err := os.WriteFile(proof, r.Proof, 0o644); err != nil {
+		b.Fatal(err)
+	}
+	ev := &Evidence{Graph: g, Name: fmt.Sprintf("K%d", n), Input: fixture.EdgeListBytes(b, g), InputFormat: graph.FormatEdgeList,
 		Kind: cert.Stack, Bound: AtLeast, K: pages + 1, ToolVersion: "bench", Tool: "archive benchmark",
 		Refutation: &RefutationInput{Options: opt, Proof: proof}}
 	_, srcs, err := Build(context.Background(), ev, CurrentEncoder{}, dir)
@@ -65,7 +63,7 @@ func textProofBundle(b *testing.B, n, pages int) (int64, []byte) {
 	if err := Write(context.Background(), &buf, srcs); err != nil {
 		b.Fatal(err)
 	}
-	return fi.Size(), buf.Bytes()
+	return int64(len(r.Proof)), buf.Bytes()
 }
 
 func reportSize(b *testing.B, text int64, bundle []byte) {

@@ -11,6 +11,7 @@ import (
 	"spinecert.dev/cert"
 	"spinecert.dev/dimacs"
 	"spinecert.dev/graph"
+	"spinecert.dev/internal/fixture"
 )
 
 // changedEncoder simulates a later encoder: a new version whose output
@@ -82,7 +83,7 @@ func TestEncoderDrift(t *testing.T) {
 		}
 	})
 	t.Run("stored cnf", func(t *testing.T) {
-		ev := evidence(t, complete(t, 5), "K5", cert.Stack, nil, AtLeast, 3)
+		ev := evidence(t, fixture.WithBase(fixture.Complete(5), 1), "K5", cert.Stack, nil, AtLeast, 3)
 		ev.IncludeCNF = true
 		sb := bundleBytes(t, ev)
 		r := verifyBytes(sb, VerifyOptions{Encoder: changedEncoder{"spinecert-enc-999", noRot}})
@@ -95,7 +96,7 @@ func TestEncoderDrift(t *testing.T) {
 // A proof made elsewhere for a CNF that is not spinecert's encoding is bundled
 // as foreign; it does not establish the claim unless re-solved.
 func TestForeignCNF(t *testing.T) {
-	g := complete(t, 5)
+	g := fixture.WithBase(fixture.Complete(5), 1)
 	opt := dimacs.Options{Kind: cert.Stack, Pages: 2}
 	cnf, err := CurrentEncoder{}.Encode(g, opt)
 	if err != nil {

@@ -14,6 +14,7 @@ import (
 
 	"spinecert.dev/cert"
 	"spinecert.dev/dimacs"
+	"spinecert.dev/internal/fixture"
 )
 
 var (
@@ -24,7 +25,7 @@ var (
 // k5Exact is a bundle for bt(K5) = 3 (Bernhart and Kainen 1979).
 func k5Exact(t *testing.T) []byte {
 	k5Once.Do(func() {
-		k5Bundle = bundleBytes(t, evidence(t, complete(t, 5), "K5", cert.Stack, nil, Exact, 3))
+		k5Bundle = bundleBytes(t, evidence(t, fixture.WithBase(fixture.Complete(5), 1), "K5", cert.Stack, nil, Exact, 3))
 	})
 	if k5Bundle == nil {
 		t.Skip("no bundle")
@@ -244,8 +245,8 @@ func m0(files map[string][]byte) string {
 func TestForeignProof(t *testing.T) {
 	// bt(Petersen) = 3 (REFERENCES: not planar, Bernhart and Kainen 1979);
 	// the foreign proof refutes K6 on 2 pages, a different formula.
-	files := members(t, bundleBytes(t, evidence(t, petersen(t), "Petersen", cert.Stack, nil, AtLeast, 3)))
-	other, err := CurrentEncoder{}.Encode(complete(t, 6), dimacs.Options{Kind: cert.Stack, Pages: 2})
+	files := members(t, bundleBytes(t, evidence(t, fixture.Petersen(), "Petersen", cert.Stack, nil, AtLeast, 3)))
+	other, err := CurrentEncoder{}.Encode(fixture.WithBase(fixture.Complete(6), 1), dimacs.Options{Kind: cert.Stack, Pages: 2})
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -6,6 +6,7 @@ import (
 	"testing"
 
 	"spinecert.dev/cert"
+	"spinecert.dev/internal/fixture"
 	"spinecert.dev/planar"
 )
 
@@ -24,7 +25,7 @@ func failNames(r *Report) string {
 // from memory). The mixed claims are about one stack and one queue page:
 // K5 is not planar, so one stack page (outerplanar) is not enough either.
 func TestRoundTrip(t *testing.T) {
-	k5 := complete(t, 5)
+	k5 := fixture.WithBase(fixture.Complete(5), 1)
 	tests := []struct {
 		name  string
 		kind  cert.Kind
@@ -65,7 +66,7 @@ func TestRoundTrip(t *testing.T) {
 // A planarity certificate stored in a bundle is re-checked. K5 is not
 // planar (Kuratowski 1930); the certificate is a Kuratowski subgraph.
 func TestPlanarityMember(t *testing.T) {
-	g := complete(t, 5)
+	g := fixture.WithBase(fixture.Complete(5), 1)
 	ev := evidence(t, g, "K5", cert.Stack, nil, AtMost, 3)
 	res, err := planar.Decide(g)
 	if err != nil {

@@ -7,6 +7,7 @@ import (
 	"testing"
 
 	"spinecert.dev/graph"
+	"spinecert.dev/internal/fixture"
 )
 
 // completeLayout is the classical construction of a ⌈n/2⌉-page stack layout
@@ -15,16 +16,7 @@ import (
 // with p = ⌈n/2⌉, so page i holds the zigzag path i, i+1, i−1, i+2, … of the
 // circle of 2p vertices (construction from memory).
 func completeLayout(n int) (*graph.Graph, *Layout) {
-	var edges [][2]int
-	for a := 0; a < n; a++ {
-		for b := a + 1; b < n; b++ {
-			edges = append(edges, [2]int{a, b})
-		}
-	}
-	g, err := graph.NewNumbered(n, 0, edges)
-	if err != nil {
-		panic(err)
-	}
+	g := fixture.Complete(n)
 	p := (n + 1) / 2
 	l := &Layout{Kind: Stack, PageKinds: make([]Kind, p), Order: make([]int32, n), Page: make([]int32, g.M())}
 	for i := range l.PageKinds {
@@ -200,16 +192,6 @@ func TestSingleEdgeMoveIsCaught(t *testing.T) {
 	}
 }
 
-// randomTree returns a random tree on n vertices.
-func randomTree(r *rand.Rand, n int) *graph.Graph {
-	var edges [][2]int
-	for v := 1; v < n; v++ {
-		edges = append(edges, [2]int{r.IntN(v), v})
-	}
-	g, _ := graph.NewNumbered(n, 0, edges)
-	return g
-}
-
 func orderLayout(g *graph.Graph, kind Kind, order []int32) *Layout {
 	l := &Layout{Kind: kind, PageKinds: []Kind{kind}, Order: order, Page: make([]int32, g.M())}
 	for e := range l.Page {
@@ -221,7 +203,7 @@ func orderLayout(g *graph.Graph, kind Kind, order []int32) *Layout {
 func TestTreesInOnePage(t *testing.T) {
 	r := rand.New(rand.NewPCG(3, 4))
 	for trial := 0; trial < 200; trial++ {
-		g := randomTree(r, 1+r.IntN(60))
+		g := fixture.RandomTree(r, 1+r.IntN(60))
 		// Stack: a DFS preorder puts a tree on one page (common practice, no source).
 		var dfs []int32
 		seen := make([]bool, g.N())

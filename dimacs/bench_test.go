@@ -11,6 +11,7 @@ import (
 
 	"spinecert.dev/cert"
 	"spinecert.dev/graph"
+	"spinecert.dev/internal/fixture"
 	"spinecert.dev/internal/testtools"
 )
 
@@ -25,10 +26,10 @@ type benchCase struct {
 // Kleetope of a random 68-vertex triangulation on 2 pages.
 func benchGraphs() []benchCase {
 	r := rand.New(rand.NewPCG(2015, 9))
-	planar := randomTriangulation(r, 100, 1000).graph()
-	klee := randomTriangulation(r, 68, 700).kleetope()
+	planar := fixture.RandomFlippedTriangulation(r, 100, 1000).Graph()
+	klee := fixture.RandomFlippedTriangulation(r, 68, 700).Kleetope()
 	return []benchCase{
-		{"K9_p4", completeGraph(9), 4},
+		{"K9_p4", fixture.Complete(9), 4},
 		{"planar100_p2", planar, 2},
 		{"planar100_p3", planar, 3},
 		{"kleetope200_p2", klee, 2},
@@ -135,7 +136,7 @@ func BenchmarkWrite(b *testing.B) {
 
 // BenchmarkEncode300 encodes a 300-vertex maximal planar graph on 3 pages.
 func BenchmarkEncode300(b *testing.B) {
-	g := randomTriangulation(rand.New(rand.NewPCG(300, 3)), 300, 3000).graph()
+	g := fixture.RandomFlippedTriangulation(rand.New(rand.NewPCG(300, 3)), 300, 3000).Graph()
 	for i := 0; i < b.N; i++ {
 		e, err := Encode(g, Options{Kind: cert.Stack, Pages: 3})
 		if err != nil {

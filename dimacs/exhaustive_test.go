@@ -2,11 +2,13 @@ package dimacs
 
 import (
 	"fmt"
+	"strconv"
 	"testing"
 	"time"
 
 	"spinecert.dev/cert"
 	"spinecert.dev/graph"
+	"spinecert.dev/internal/fixture"
 )
 
 // checkLayout is an independent check of a layout by the definitions: every
@@ -157,7 +159,7 @@ func TestExhaustive(t *testing.T) {
 		var small []*graph.Graph
 		var smallWant []int
 		for n := 1; n <= maxN; n++ {
-			gs := graph6Graphs(t, n)
+			gs := fixture.Geng(t, strconv.Itoa(n))
 			if len(gs) != counts[n] {
 				t.Fatalf("nauty-geng gave %d graphs on %d vertices, want %d", len(gs), n, counts[n])
 			}

@@ -2,54 +2,13 @@ package dimacs
 
 import (
 	"bytes"
-	"fmt"
-	"math/rand/v2"
-	"os"
-	"os/exec"
-	"path/filepath"
 	"strings"
 	"testing"
 
 	"spinecert.dev/cert"
 	"spinecert.dev/graph"
-	"spinecert.dev/internal/testtools"
+	"spinecert.dev/internal/fixture"
 )
-
-// completeGraph returns K_n.
-func completeGraph(n int) *graph.Graph {
-	var es [][2]int
-	for i := 0; i < n; i++ {
-		for j := i + 1; j < n; j++ {
-			es = append(es, [2]int{i, j})
-		}
-	}
-	return mustGraph(n, es)
-}
-
-func mustGraph(n int, es [][2]int) *graph.Graph {
-	g, err := graph.NewNumbered(n, 0, es)
-	if err != nil {
-		panic(err)
-	}
-	return g
-}
-
-// graph6Graphs runs nauty-geng (Debian package nauty) for n vertices and
-// reads its graph6 output with cert's reader.
-func graph6Graphs(t testing.TB, n int, extra ...string) []*graph.Graph {
-	geng := testtools.Require(t, "nauty-geng", "nauty")
-	args := append([]string{"-q"}, extra...)
-	args = append(args, fmt.Sprint(n))
-	out, err := exec.Command(geng, args...).Output()
-	if err != nil {
-		t.Fatalf("nauty-geng: %v", err)
-	}
-	res, err := graph.Read(bytes.NewReader(out), "geng.g6", graph.FormatGraph6)
-	if err != nil {
-		t.Fatal(err)
-	}
-	return res.Graphs
-}
 
 // solveResult is cadical's answer for one CNF.
 type solveResult struct {
@@ -60,22 +19,11 @@ type solveResult struct {
 // cadical solves the CNF with Debian's cadical and returns its answer.
 func cadical(t testing.TB, c *CNF) solveResult {
 	t.Helper()
-	bin := testtools.Require(t, "cadical", "cadical")
-	dir := t.TempDir()
-	path := filepath.Join(dir, "f.cnf")
 	var buf bytes.Buffer
 	if _, err := c.WriteTo(&buf); err != nil {
 		t.Fatal(err)
 	}
-	if err := os.WriteFile(path, buf.Bytes(), 0o644); err != nil {
-		t.Fatal(err)
-	}
-	cmd := exec.Command(bin, "-q", path)
-	out, err := cmd.Output()
-	// cadical exits 10 (satisfiable) or 20 (unsatisfiable).
-	if ee, ok := err.(*exec.ExitError); err != nil && (!ok || (ee.ExitCode() != 10 && ee.ExitCode() != 20)) {
-		t.Fatalf("cadical: %v\n%s", err, out)
-	}
+	out := fixture.Cadical(t, buf.Bytes(), false).Stdout
 	status, model, rerr := ReadModel(bytes.NewReader(out), "cadical")
 	if rerr != nil {
 		t.Fatalf("reading cadical output: %v", rerr)
@@ -338,15 +286,6 @@ func bruteNumber(g *graph.Graph, kind cert.Kind) int {
 	}
 	rec(0)
 	return best
-}
-
-// randomTree returns a random labelled tree on n vertices.
-func randomTree(r *rand.Rand, n int) *graph.Graph {
-	var es [][2]int
-	for v := 1; v < n; v++ {
-		es = append(es, [2]int{r.IntN(v), v})
-	}
-	return mustGraph(n, es)
 }
 
 func optName(o Options) string {

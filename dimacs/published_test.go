@@ -9,6 +9,7 @@ import (
 
 	"spinecert.dev/cert"
 	"spinecert.dev/graph"
+	"spinecert.dev/internal/fixture"
 )
 
 // smallestK returns the least K for which cadical finds the CNF satisfiable,
@@ -37,55 +38,6 @@ func smallestK(t *testing.T, g *graph.Graph, o Options, lo, hi int) int {
 	return hi + 1
 }
 
-func hypercube(d int) *graph.Graph {
-	var es [][2]int
-	for v := 0; v < 1<<d; v++ {
-		for b := 0; b < d; b++ {
-			if w := v ^ 1<<b; w > v {
-				es = append(es, [2]int{v, w})
-			}
-		}
-	}
-	return mustGraph(1<<d, es)
-}
-
-// petersen: outer 5-cycle 0..4, spokes i–i+5, inner pentagram 5..9.
-func petersen() *graph.Graph {
-	var es [][2]int
-	for i := 0; i < 5; i++ {
-		es = append(es, [2]int{i, (i + 1) % 5}, [2]int{i, i + 5}, [2]int{5 + i, 5 + (i+2)%5})
-	}
-	return mustGraph(10, es)
-}
-
-func completeBipartite(a, b int) *graph.Graph {
-	var es [][2]int
-	for i := 0; i < a; i++ {
-		for j := 0; j < b; j++ {
-			es = append(es, [2]int{i, a + j})
-		}
-	}
-	return mustGraph(a+b, es)
-}
-
-// goldnerHarary builds the Goldner–Harary graph from its definition: the
-// triangular bipyramid (triangle 0,1,2 with apexes 3 and 4) with a new
-// vertex in each of its six triangular faces, joined to the face's corners
-// (A. Goldner, F. Harary, "Note on a smallest nonhamiltonian maximal planar
-// graph", Bull. Malaysian Math. Soc. 6(1), 1975): 11 vertices, 27 edges.
-func goldnerHarary() *graph.Graph {
-	es := [][2]int{{0, 1}, {1, 2}, {0, 2}}
-	for _, apex := range []int{3, 4} {
-		es = append(es, [2]int{0, apex}, [2]int{1, apex}, [2]int{2, apex})
-	}
-	faces := [][3]int{{0, 1, 3}, {1, 2, 3}, {0, 2, 3}, {0, 1, 4}, {1, 2, 4}, {0, 2, 4}}
-	for i, f := range faces {
-		v := 5 + i
-		es = append(es, [2]int{f[0], v}, [2]int{f[1], v}, [2]int{f[2], v})
-	}
-	return mustGraph(11, es)
-}
-
 func TestPublishedPageNumbers(t *testing.T) {
 	tests := []struct {
 		name string
@@ -94,23 +46,23 @@ func TestPublishedPageNumbers(t *testing.T) {
 	}{
 		// bt(K_n) = ceil(n/2) for n >= 4: F. Bernhart, P. C. Kainen, "The book
 		// thickness of a graph", J. Combin. Theory Ser. B 27 (1979) 320–331.
-		{"K4", completeGraph(4), 2}, {"K5", completeGraph(5), 3}, {"K6", completeGraph(6), 3},
-		{"K7", completeGraph(7), 4}, {"K8", completeGraph(8), 4}, {"K9", completeGraph(9), 5},
+		{"K4", fixture.Complete(4), 2}, {"K5", fixture.Complete(5), 3}, {"K6", fixture.Complete(6), 3},
+		{"K7", fixture.Complete(7), 4}, {"K8", fixture.Complete(8), 4}, {"K9", fixture.Complete(9), 5},
 		// Petersen graph: 3 (Bernhart & Kainen 1979 list small cases; project REFERENCES).
-		{"Petersen", petersen(), 3},
+		{"Petersen", fixture.Petersen(), 3},
 		// K_{3,3}: 3 (derived: nonplanar, so not 2 by Bernhart & Kainen's
 		// characterisation; 3 pages suffice, REFERENCES "K_{3,n} n>=3: 3").
-		{"K3,3", completeBipartite(3, 3), 3},
+		{"K3,3", fixture.CompleteBipartite(3, 3), 3},
 		// K_{4,4}: 3 (derived: nonplanar, so not 2; at most 3 by the upper bound
 		// ceil((m+2n)/4) for K_{m,n} of D. J. Muder, M. L. Weaver, D. B. West,
 		// "Pagenumber of complete bipartite graphs", J. Graph Theory 12(4), 1988).
-		{"K4,4", completeBipartite(4, 4), 3},
+		{"K4,4", fixture.CompleteBipartite(4, 4), 3},
 		// Q3 = 2 (planar Hamiltonian), Q4 = 3 (derived, REFERENCES).
-		{"Q3", hypercube(3), 2}, {"Q4", hypercube(4), 3},
+		{"Q3", fixture.Hypercube(3), 2}, {"Q4", fixture.Hypercube(4), 3},
 		// Goldner–Harary: maximal planar, non-Hamiltonian, hence not
 		// subhamiltonian, so bt = 3 (Bernhart & Kainen's characterisation; planar
 		// graphs with 3 pages: it is a planar 3-tree, Ganley & Heath).
-		{"Goldner-Harary", goldnerHarary(), 3},
+		{"Goldner-Harary", fixture.GoldnerHarary(), 3},
 	}
 	for _, tt := range tests {
 		for _, base := range []bool{false, true} {
@@ -136,7 +88,7 @@ func TestQueueNumberKn(t *testing.T) {
 				continue // without twins K8 is left to the benchmarks
 			}
 			want := n / 2
-			if got := smallestK(t, completeGraph(n), Options{Kind: cert.Queue, NoTwins: noTwins}, 1, want); got != want {
+			if got := smallestK(t, fixture.Complete(n), Options{Kind: cert.Queue, NoTwins: noTwins}, 1, want); got != want {
 				t.Errorf("K%d (NoTwins=%v): smallest satisfiable K = %d, queue number %d", n, noTwins, got, want)
 			}
 		}
@@ -150,7 +102,7 @@ func TestQueueNumberKn(t *testing.T) {
 func TestTrees(t *testing.T) {
 	r := rand.New(rand.NewPCG(1, 2))
 	for i := 0; i < 20; i++ {
-		g := randomTree(r, 5+r.IntN(40))
+		g := fixture.RandomTree(r, 5+r.IntN(40))
 		for _, kind := range []cert.Kind{cert.Queue, cert.Stack} {
 			if got := smallestK(t, g, Options{Kind: kind}, 1, 1); got != 1 {
 				t.Errorf("tree %d (n=%d) %s: 1 page unsatisfiable", i, g.N(), kind)
@@ -163,7 +115,7 @@ func TestTrees(t *testing.T) {
 // variable either still decodes to a layout that passes the independent
 // check or is rejected by Decode, never accepted when invalid.
 func TestDecodeFlips(t *testing.T) {
-	graphs := []*graph.Graph{completeGraph(5), petersen(), hypercube(3), goldnerHarary(), completeBipartite(3, 3)}
+	graphs := []*graph.Graph{fixture.Complete(5), fixture.Petersen(), fixture.Hypercube(3), fixture.GoldnerHarary(), fixture.CompleteBipartite(3, 3)}
 	pk := []cert.Kind{cert.Stack, cert.Queue, cert.Stack}
 	configs := []Options{
 		{Kind: cert.Stack, Pages: 3}, {Kind: cert.Stack, Pages: 3, Baseline: true},
@@ -210,7 +162,7 @@ func TestDecodeFlips(t *testing.T) {
 // shuffled edges gives byte-identical CNF. graph6 numbers vertices from 0,
 // DIMACS from 1, so each is compared with an edge list using the same labels.
 func TestDeterminism(t *testing.T) {
-	g := petersen()
+	g := fixture.Petersen()
 	var edges0, edges1, dimacsText strings.Builder
 	es := append([]graph.Edge(nil), g.Edges()...)
 	r := rand.New(rand.NewPCG(3, 4))

@@ -3,11 +3,13 @@ package dimacs
 import (
 	"bytes"
 	"errors"
+	"slices"
 	"strings"
 	"testing"
 
 	"github.com/klauspost/compress/gzip"
 	"github.com/klauspost/compress/zstd"
+
 	"spinecert.dev/textpos"
 )
 
@@ -26,25 +28,13 @@ func TestReadStrict(t *testing.T) {
 	}
 	want := [][]int32{{1, -2}, {2, 3, -1}, {}}
 	for i, cl := range c.Clauses {
-		if !slicesEqual(cl, want[i]) {
+		if !slices.Equal(cl, want[i]) {
 			t.Errorf("clause %d = %v, want %v", i, cl, want[i])
 		}
 	}
 	if len(c.Comments) != 2 || c.Comments[0] != "example" || c.Comments[1] != " two" {
 		t.Errorf("comments %q", c.Comments)
 	}
-}
-
-func slicesEqual(a, b []int32) bool {
-	if len(a) != len(b) {
-		return false
-	}
-	for i := range a {
-		if a[i] != b[i] {
-			return false
-		}
-	}
-	return true
 }
 
 func TestReadErrors(t *testing.T) {
@@ -113,7 +103,7 @@ func TestReadLenient(t *testing.T) {
 				t.Fatalf("vars %d clauses %v", c.Vars, c.Clauses)
 			}
 			for i := range c.Clauses {
-				if !slicesEqual(c.Clauses[i], tt.clauses[i]) {
+				if !slices.Equal(c.Clauses[i], tt.clauses[i]) {
 					t.Errorf("clause %d = %v", i, c.Clauses[i])
 				}
 			}

@@ -6,11 +6,13 @@ import (
 	"os"
 	"path/filepath"
 	"slices"
+	"strconv"
 	"strings"
 	"testing"
 
 	"spinecert.dev/cert"
 	"spinecert.dev/graph"
+	"spinecert.dev/internal/fixture"
 )
 
 // partGraph is the graph of one encoded part on its local vertices.
@@ -69,7 +71,7 @@ func (pg partGraph) swapIsAutomorphism(u, v int) bool {
 func TestTwinClasses(t *testing.T) {
 	pairs := 0
 	for n := 1; n <= 6; n++ {
-		for _, g := range graph6Graphs(t, n) {
+		for _, g := range fixture.Geng(t, strconv.Itoa(n)) {
 			e, err := Encode(g, Options{Kind: cert.Queue, Pages: 1, NoIsolated: true})
 			if err != nil {
 				t.Fatal(err)
@@ -237,7 +239,7 @@ func TestSymmetryBreakingJointlySound(t *testing.T) {
 		if n == 7 {
 			cs = []Options{{Kind: cert.Stack, Pages: 2}, {Kind: cert.Queue, Pages: 2}}
 		}
-		for _, g := range graph6Graphs(t, n) {
+		for _, g := range fixture.Geng(t, strconv.Itoa(n)) {
 			for _, o := range cs {
 				e, err := Encode(g, o)
 				if err != nil {
@@ -257,7 +259,7 @@ func TestSymmetryBreakingJointlySound(t *testing.T) {
 // stack and queue encodings keep no order variable at all.
 func TestTwinsFixKn(t *testing.T) {
 	for _, kind := range []cert.Kind{cert.Stack, cert.Queue} {
-		e, err := Encode(completeGraph(9), Options{Kind: kind, Pages: 4})
+		e, err := Encode(fixture.Complete(9), Options{Kind: kind, Pages: 4})
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -265,7 +267,7 @@ func TestTwinsFixKn(t *testing.T) {
 		if st.Families[FamOrder].Vars != 0 {
 			t.Errorf("%s: %d order variables left", kind, st.Families[FamOrder].Vars)
 		}
-		off, err := Encode(completeGraph(9), Options{Kind: kind, Pages: 4, NoTwins: true})
+		off, err := Encode(fixture.Complete(9), Options{Kind: kind, Pages: 4, NoTwins: true})
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -322,7 +324,7 @@ func TestEncodeVersionLegacy(t *testing.T) {
 		}
 	}
 	// Without twins (the Petersen graph has none) only the header changes.
-	g := petersen()
+	g := fixture.Petersen()
 	old, _ := EncodeVersion(g, Options{Kind: cert.Stack, Pages: 3}, "spinecert-enc-1")
 	cur, _ := Encode(g, Options{Kind: cert.Stack, Pages: 3})
 	if !equalClauses(old.CNF(), cur.CNF()) {

@@ -12,21 +12,8 @@ import (
 
 	"spinecert.dev/cert"
 	"spinecert.dev/graph"
+	"spinecert.dev/internal/fixture"
 )
-
-func complete(t *testing.T, n int) *graph.Graph {
-	var e [][2]int
-	for i := 0; i < n; i++ {
-		for j := i + 1; j < n; j++ {
-			e = append(e, [2]int{i, j})
-		}
-	}
-	g, err := graph.NewNumbered(n, 1, e)
-	if err != nil {
-		t.Fatal(err)
-	}
-	return g
-}
 
 // completeLayout is the ⌈n/2⌉-page book embedding of K_n (Bernhart and
 // Kainen, "The book thickness of a graph", JCTB 27, 1979): chords {u, v} of
@@ -83,7 +70,7 @@ func scan(t *testing.T, data []byte) (arcs map[int]int, legend map[int]bool, roo
 
 func TestSVGComplete(t *testing.T) {
 	for _, n := range []int{4, 9, 40} {
-		g := complete(t, n)
+		g := fixture.WithBase(fixture.Complete(n), 1)
 		l := completeLayout(g, cert.Stack)
 		var buf bytes.Buffer
 		opts := Options{Title: "K_" + strconv.Itoa(n) + " <book> & pages", HighlightEdges: []int{0, 1}, HighlightVertices: []int32{0}}
@@ -142,7 +129,7 @@ func TestSVGLabelsEscaped(t *testing.T) {
 }
 
 func TestSVGShape(t *testing.T) {
-	g := complete(t, 4)
+	g := fixture.WithBase(fixture.Complete(4), 1)
 	good := completeLayout(g, cert.Stack)
 	bad := []*cert.Layout{
 		{Kind: cert.Stack, PageKinds: good.PageKinds, Order: good.Order[:3], Page: good.Page},
@@ -163,7 +150,7 @@ func TestSVGShape(t *testing.T) {
 // TestSVGHighlight checks that exactly the highlighted edges and vertices are
 // marked and that the legend names the highlight set.
 func TestSVGHighlight(t *testing.T) {
-	g := complete(t, 6)
+	g := fixture.WithBase(fixture.Complete(6), 1)
 	l := completeLayout(g, cert.Stack)
 	hiE := []int{0, 4, 9}
 	hiV := []int32{1, 5}

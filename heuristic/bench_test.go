@@ -8,6 +8,7 @@ import (
 
 	"spinecert.dev/cert"
 	"spinecert.dev/graph"
+	"spinecert.dev/internal/fixture"
 )
 
 // benchGraphs are built once per process: the large ones take seconds.
@@ -28,13 +29,13 @@ func benchKind(b *testing.B, kind cert.Kind, candidates int) {
 		name  string
 		build func() *graph.Graph
 	}{
-		{"K50", func() *graph.Graph { return complete(b, 50) }},
-		{"K200", func() *graph.Graph { return complete(b, 200) }},
-		{"grid100x100", func() *graph.Graph { return grid(b, 100, 100) }},
-		{"grid1000x1000", func() *graph.Graph { return grid(b, 1000, 1000) }},
-		{"planar1e4", func() *graph.Graph { return randomPlanar(b, rng, 10000/3+2, 10000/3) }},
-		{"planar1e5", func() *graph.Graph { return randomPlanar(b, rng, 100000/3+2, 100000/3) }},
-		{"planar1e6", func() *graph.Graph { return randomPlanar(b, rng, 1000000/3+2, 1000000/3) }},
+		{"K50", func() *graph.Graph { return fixture.Complete(50) }},
+		{"K200", func() *graph.Graph { return fixture.Complete(200) }},
+		{"grid100x100", func() *graph.Graph { return fixture.Grid(100, 100) }},
+		{"grid1000x1000", func() *graph.Graph { return fixture.Grid(1000, 1000) }},
+		{"planar1e4", func() *graph.Graph { return fixture.RandomFlippedTriangulation(rng, 10000/3+2, 10000/3).Graph() }},
+		{"planar1e5", func() *graph.Graph { return fixture.RandomFlippedTriangulation(rng, 100000/3+2, 100000/3).Graph() }},
+		{"planar1e6", func() *graph.Graph { return fixture.RandomFlippedTriangulation(rng, 1000000/3+2, 1000000/3).Graph() }},
 	}
 	for _, c := range cases {
 		b.Run(c.name, func(b *testing.B) {

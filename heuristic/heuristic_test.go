@@ -3,10 +3,12 @@ package heuristic
 import (
 	"fmt"
 	"math/rand/v2"
+	"slices"
 	"testing"
 
 	"spinecert.dev/cert"
 	"spinecert.dev/graph"
+	"spinecert.dev/internal/fixture"
 )
 
 // checkLayout validates l against g by brute force over all pairs of edges on
@@ -164,7 +166,7 @@ func edgeBound(n, m int) int {
 // Complete graphs: bt(K_n) = ⌈n/2⌉ for n ≥ 4 (Bernhart and Kainen 1979).
 func TestStackComplete(t *testing.T) {
 	for n := 4; n <= 40; n++ {
-		g := complete(t, n)
+		g := fixture.Complete(n)
 		l := Stack(g, Options{})
 		if k := checkLayout(t, g, l); k != (n+1)/2 {
 			t.Errorf("K_%d: %d pages, want %d", n, k, (n+1)/2)
@@ -178,7 +180,7 @@ func TestStackComplete(t *testing.T) {
 // reached exactly by the fixed-order optimum.
 func TestQueueComplete(t *testing.T) {
 	for n := 2; n <= 30; n++ {
-		g := complete(t, n)
+		g := fixture.Complete(n)
 		l := Queue(g, Options{Candidates: 2})
 		if k := checkLayout(t, g, l); k != n/2 {
 			t.Errorf("K_%d: %d queues, want %d", n, k, n/2)
@@ -193,7 +195,7 @@ func TestQueueComplete(t *testing.T) {
 func TestTrees(t *testing.T) {
 	rng := rand.New(rand.NewPCG(1, 2))
 	for i := 0; i < 200; i++ {
-		g := randomTree(t, rng, 2+rng.IntN(60))
+		g := fixture.ShuffledRandomTree(rng, 2+rng.IntN(60))
 		for _, kind := range []cert.Kind{cert.Stack, cert.Queue} {
 			l, err := Find(g, kind, Options{Seed: int64(i), Candidates: 1})
 			if err != nil {
@@ -213,7 +215,7 @@ func TestTrees(t *testing.T) {
 // (horizontal edges on one queue, vertical on the other).
 func TestGrids(t *testing.T) {
 	for _, wh := range [][2]int{{3, 3}, {5, 4}, {10, 10}, {30, 7}} {
-		g := grid(t, wh[0], wh[1])
+		g := fixture.Grid(wh[1], wh[0])
 		if k := checkLayout(t, g, Stack(g, Options{})); k > 2 {
 			t.Errorf("grid %v: %d pages, want at most 2", wh, k)
 		}
@@ -232,7 +234,7 @@ func TestRandomValidAndBound(t *testing.T) {
 	rng := rand.New(rand.NewPCG(3, 4))
 	for i := 0; i < 60; i++ {
 		n := 5 + rng.IntN(40)
-		g := randomGraph(t, rng, n, rng.Float64())
+		g := fixture.RandomGNP(rng, n, rng.Float64())
 		for _, kind := range []cert.Kind{cert.Stack, cert.Queue} {
 			l, _ := Find(g, kind, Options{Seed: int64(i), Candidates: 4})
 			k := checkLayout(t, g, l)
@@ -243,7 +245,7 @@ func TestRandomValidAndBound(t *testing.T) {
 	}
 	for i := 0; i < 20; i++ {
 		n := 4 + rng.IntN(200)
-		g := randomPlanar(t, rng, n, n)
+		g := fixture.RandomFlippedTriangulation(rng, n, n).Graph()
 		if g.M() != 3*n-6 {
 			t.Fatalf("generator: n=%d m=%d, want 3n-6", n, g.M())
 		}
@@ -258,34 +260,22 @@ func TestRandomValidAndBound(t *testing.T) {
 
 func TestDeterministic(t *testing.T) {
 	rng := rand.New(rand.NewPCG(5, 6))
-	g := randomPlanar(t, rng, 300, 300)
+	g := fixture.RandomFlippedTriangulation(rng, 300, 300).Graph()
 	a := Stack(g, Options{Seed: 7})
 	b := Stack(g, Options{Seed: 7})
-	if a.Pages() != b.Pages() || !equal(a.Order, b.Order) || !equal(a.Page, b.Page) {
+	if a.Pages() != b.Pages() || !slices.Equal(a.Order, b.Order) || !slices.Equal(a.Page, b.Page) {
 		t.Fatal("same seed gave different layouts")
 	}
 }
 
-func equal(a, b []int32) bool {
-	if len(a) != len(b) {
-		return false
-	}
-	for i := range a {
-		if a[i] != b[i] {
-			return false
-		}
-	}
-	return true
-}
-
 func TestFindKind(t *testing.T) {
-	if _, err := Find(complete(t, 4), cert.Mixed, Options{}); err == nil {
+	if _, err := Find(fixture.Complete(4), cert.Mixed, Options{}); err == nil {
 		t.Fatal("mixed kind accepted")
 	}
 }
 
 func TestEmptyAndTiny(t *testing.T) {
-	for _, g := range []*graph.Graph{mustGraph(t, 0, nil), mustGraph(t, 1, nil), mustGraph(t, 3, nil), mustGraph(t, 2, [][2]int{{0, 1}})} {
+	for _, g := range []*graph.Graph{fixture.MustNumbered(t, 0, nil), fixture.MustNumbered(t, 1, nil), fixture.MustNumbered(t, 3, nil), fixture.MustNumbered(t, 2, [][2]int{{0, 1}})} {
 		for _, kind := range []cert.Kind{cert.Stack, cert.Queue} {
 			l, _ := Find(g, kind, Options{})
 			k := checkLayout(t, g, l)
@@ -303,7 +293,7 @@ func TestCheckFastAgrees(t *testing.T) {
 	bad := 0
 	for i := 0; i < 300; i++ {
 		n := 3 + rng.IntN(12)
-		g := randomGraph(t, rng, n, 0.5)
+		g := fixture.RandomGNP(rng, n, 0.5)
 		kind := cert.Stack
 		if i%2 == 1 {
 			kind = cert.Queue
@@ -335,7 +325,7 @@ func TestCheckFastAgrees(t *testing.T) {
 // planar graph with 3·10^4 edges and a 200x200 grid.
 func TestLarge(t *testing.T) {
 	rng := rand.New(rand.NewPCG(13, 14))
-	g := randomPlanar(t, rng, 10002, 10000)
+	g := fixture.RandomFlippedTriangulation(rng, 10002, 10000).Graph()
 	for _, kind := range []cert.Kind{cert.Stack, cert.Queue} {
 		l, _ := Find(g, kind, Options{Seed: 1, Candidates: 3})
 		k := checkFast(t, g, l)
@@ -344,7 +334,7 @@ func TestLarge(t *testing.T) {
 		}
 		t.Logf("%v: %d %s pages", g, k, kind)
 	}
-	g = grid(t, 200, 200)
+	g = fixture.Grid(200, 200)
 	if k := checkFast(t, g, Stack(g, Options{Candidates: 2})); k > 2 {
 		t.Errorf("grid 200x200: %d pages, want at most 2", k)
 	}

@@ -5,6 +5,7 @@ import (
 	"testing"
 
 	"spinecert.dev/graph"
+	"spinecert.dev/internal/fixture"
 )
 
 // newRotation pairs darts correctly and the embedding it flattens traces
@@ -13,7 +14,7 @@ import (
 // after the reverse dart.
 func TestRotationFaces(t *testing.T) {
 	rng := rand.New(rand.NewPCG(21, 22))
-	for _, g := range []*graph.Graph{randomPlanar(t, rng, 500, 500), grid(t, 12, 9)} {
+	for _, g := range []*graph.Graph{fixture.RandomFlippedTriangulation(rng, 500, 500).Graph(), fixture.Grid(9, 12)} {
 		r := planarEmbedding(g)
 		if r == nil {
 			t.Fatalf("%v: no embedding", g)
@@ -43,7 +44,7 @@ func TestRotationFaces(t *testing.T) {
 			t.Errorf("%v: n-m+f = %d, want 2", g, got)
 		}
 	}
-	if planarEmbedding(complete(t, 5)) != nil {
+	if planarEmbedding(fixture.Complete(5)) != nil {
 		t.Error("K5 got an embedding")
 	}
 }
@@ -55,7 +56,7 @@ func TestRotationFaces(t *testing.T) {
 // order used before needed 2 queues.
 func TestGridOneQueue(t *testing.T) {
 	for _, wh := range [][2]int{{3, 3}, {5, 4}, {10, 10}, {30, 7}, {1, 9}} {
-		g := grid(t, wh[0], wh[1])
+		g := fixture.Grid(wh[1], wh[0])
 		l := Queue(g, Options{Candidates: 2})
 		if k := checkLayout(t, g, l); k != 1 {
 			t.Errorf("grid %v: %d queues, want 1", wh, k)
@@ -76,7 +77,7 @@ func TestRandomPlanarGuard(t *testing.T) {
 	worstS, worstQ := 0, 0
 	for i := 0; i < 10; i++ {
 		n := 20 + rng.IntN(280)
-		g := randomPlanar(t, rng, n, n)
+		g := fixture.RandomFlippedTriangulation(rng, n, n).Graph()
 		s := checkLayout(t, g, Stack(g, Options{Seed: int64(i)}))
 		q := checkLayout(t, g, Queue(g, Options{Seed: int64(i)}))
 		worstS, worstQ = max(worstS, s), max(worstQ, q)

@@ -8,6 +8,7 @@ import (
 
 	"spinecert.dev/cert"
 	"spinecert.dev/dimacs"
+	"spinecert.dev/internal/fixture"
 	"spinecert.dev/internal/fixture/backends"
 	"spinecert.dev/internal/testtools"
 	"spinecert.dev/verify"
@@ -31,7 +32,7 @@ func benchLimit(b *testing.B) time.Duration {
 // with the lower bound proved by a checked UNSAT for 4 pages using cadical
 // and minisat as the two backends (cadical's proof is checked).
 func BenchmarkPageNumberK9(b *testing.B) {
-	g := complete(b, 9)
+	g := fixture.Complete(9)
 	b.Run("bounds", func(b *testing.B) {
 		for b.Loop() {
 			res, err := Compute(context.Background(), g, Options{Kind: cert.Stack, Solvers: []verify.Solver{verify.Gini{}}})
@@ -65,7 +66,7 @@ func externalForBench(b *testing.B, name string) verify.Solver {
 // encoding and in the published baseline formulation. A run that hits the
 // time limit fails the benchmark with the limit in its message.
 func BenchmarkK9FourPages(b *testing.B) {
-	g := complete(b, 9)
+	g := fixture.Complete(9)
 	for _, enc := range []struct {
 		name string
 		opt  dimacs.Options

@@ -7,50 +7,12 @@ import (
 	"spinecert.dev/internal/fixture"
 )
 
-func complete(t testing.TB, n int) *graph.Graph {
-	var es [][2]int
-	for i := 0; i < n; i++ {
-		for j := i + 1; j < n; j++ {
-			es = append(es, [2]int{i, j})
-		}
-	}
-	return numbered(t, n, es)
-}
-
-func numbered(t testing.TB, n int, es [][2]int) *graph.Graph {
-	t.Helper()
-	g, err := graph.NewNumbered(n, 1, es)
-	if err != nil {
-		t.Fatal(err)
-	}
-	return g
-}
-
 func cycle(t testing.TB, n int) *graph.Graph {
 	var es [][2]int
 	for i := 0; i < n; i++ {
 		es = append(es, [2]int{i, (i + 1) % n})
 	}
-	return numbered(t, n, es)
-}
-
-func completeBipartite(t testing.TB, a, b int) *graph.Graph {
-	var es [][2]int
-	for i := 0; i < a; i++ {
-		for j := 0; j < b; j++ {
-			es = append(es, [2]int{i, a + j})
-		}
-	}
-	return numbered(t, a+b, es)
-}
-
-// petersen is the Petersen graph: outer 5-cycle, inner pentagram, spokes.
-func petersen(t testing.TB) *graph.Graph {
-	var es [][2]int
-	for i := 0; i < 5; i++ {
-		es = append(es, [2]int{i, (i + 1) % 5}, [2]int{5 + i, 5 + (i+2)%5}, [2]int{i, 5 + i})
-	}
-	return numbered(t, 10, es)
+	return fixture.MustNumbered(t, n, es)
 }
 
 // TestStackLowerBounds checks the solver-free lower bounds against known
@@ -62,17 +24,17 @@ func TestStackLowerBounds(t *testing.T) {
 		pages  int
 		source string
 	}{
-		{"empty", numbered(t, 3, nil), 0, SourceTrivial},
-		{"cycle", cycle(t, 6), 1, SourceTrivial},                // outerplanar: 1 (Bernhart & Kainen 1979)
-		{"K4", fixture.Complete(4), 2, SourceEdgeCount},         // bt(K4) = 2 (Bernhart & Kainen 1979)
-		{"K5", fixture.Complete(5), 3, SourceEdgeCount},         // bt(K5) = 3
-		{"K8", fixture.Complete(8), 4, SourceEdgeCount},         // bt(K_n) = ⌈n/2⌉
-		{"K9", fixture.Complete(9), 5, SourceEdgeCount},         // bt(K_n) = ⌈n/2⌉
-		{"K33", completeBipartite(t, 3, 3), 3, SourceNonPlanar}, // bt(K3,3) = 3
-		{"Petersen", petersen(t), 3, SourceNonPlanar},           // bt = 3
-		{"K23", completeBipartite(t, 2, 3), 2, SourceNonOuter},  // K2,3 is not outerplanar; bt = 2
-		{"K1,5", completeBipartite(t, 1, 5), 1, SourceTrivial},  // a tree: 1
-		{"two triangles", numbered(t, 5, [][2]int{{0, 1}, {1, 2}, {0, 2}, {2, 3}, {3, 4}, {2, 4}}), 1, SourceTrivial},
+		{"empty", fixture.MustNumbered(t, 3, nil), 0, SourceTrivial},
+		{"cycle", cycle(t, 6), 1, SourceTrivial},                     // outerplanar: 1 (Bernhart & Kainen 1979)
+		{"K4", fixture.Complete(4), 2, SourceEdgeCount},              // bt(K4) = 2 (Bernhart & Kainen 1979)
+		{"K5", fixture.Complete(5), 3, SourceEdgeCount},              // bt(K5) = 3
+		{"K8", fixture.Complete(8), 4, SourceEdgeCount},              // bt(K_n) = ⌈n/2⌉
+		{"K9", fixture.Complete(9), 5, SourceEdgeCount},              // bt(K_n) = ⌈n/2⌉
+		{"K33", fixture.CompleteBipartite(3, 3), 3, SourceNonPlanar}, // bt(K3,3) = 3
+		{"Petersen", fixture.Petersen(), 3, SourceNonPlanar},         // bt = 3
+		{"K23", fixture.CompleteBipartite(2, 3), 2, SourceNonOuter},  // K2,3 is not outerplanar; bt = 2
+		{"K1,5", fixture.CompleteBipartite(1, 5), 1, SourceTrivial},  // a tree: 1
+		{"two triangles", fixture.MustNumbered(t, 5, [][2]int{{0, 1}, {1, 2}, {0, 2}, {2, 3}, {3, 4}, {2, 4}}), 1, SourceTrivial},
 	}
 	for _, tt := range tests {
 		b := stackLowerBounds(tt.g)
@@ -85,7 +47,7 @@ func TestStackLowerBounds(t *testing.T) {
 // TestBlocks: biconnected components (Hopcroft & Tarjan 1973).
 func TestBlocks(t *testing.T) {
 	// Two triangles sharing vertex 2, a pendant edge 4-5, an isolated vertex 6.
-	g := numbered(t, 7, [][2]int{{0, 1}, {1, 2}, {0, 2}, {2, 3}, {3, 4}, {2, 4}, {4, 5}})
+	g := fixture.MustNumbered(t, 7, [][2]int{{0, 1}, {1, 2}, {0, 2}, {2, 3}, {3, 4}, {2, 4}, {4, 5}})
 	bs := blocks(g)
 	if len(bs) != 3 || len(bs[0]) != 3 || len(bs[1]) != 3 || len(bs[2]) != 2 {
 		t.Fatalf("blocks %v", bs)

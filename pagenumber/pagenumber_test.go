@@ -11,60 +11,13 @@ import (
 	"spinecert.dev/internal/fixture/backends"
 )
 
-func hypercube(t testing.TB, d int) *graph.Graph {
-	var es [][2]int
-	for v := 0; v < 1<<d; v++ {
-		for b := 0; b < d; b++ {
-			if w := v ^ 1<<b; w > v {
-				es = append(es, [2]int{v, w})
-			}
-		}
-	}
-	return numbered(t, 1<<d, es)
-}
-
-func grid(t testing.TB, r, c int) *graph.Graph {
-	var es [][2]int
-	for i := 0; i < r; i++ {
-		for j := 0; j < c; j++ {
-			v := i*c + j
-			if j+1 < c {
-				es = append(es, [2]int{v, v + 1})
-			}
-			if i+1 < r {
-				es = append(es, [2]int{v, v + c})
-			}
-		}
-	}
-	return numbered(t, r*c, es)
-}
-
-// goldnerHarary is the triangular bipyramid (triangle 0,1,2 with apexes 3
-// and 4) with one new vertex in each of its six faces joined to the face's
-// corners: 11 vertices, 27 edges, maximal planar and not Hamiltonian
-// (Goldner and Harary 1975).
-func goldnerHarary(t testing.TB) *graph.Graph {
-	es := [][2]int{{0, 1}, {1, 2}, {0, 2}}
-	for _, apex := range []int{3, 4} {
-		es = append(es, [2]int{0, apex}, [2]int{1, apex}, [2]int{2, apex})
-	}
-	v := 5
-	for _, apex := range []int{3, 4} {
-		for _, f := range [][2]int{{0, 1}, {1, 2}, {0, 2}} {
-			es = append(es, [2]int{v, f[0]}, [2]int{v, f[1]}, [2]int{v, apex})
-			v++
-		}
-	}
-	return numbered(t, 11, es)
-}
-
 // tree is a complete binary tree on n vertices.
 func tree(t testing.TB, n int) *graph.Graph {
 	var es [][2]int
 	for v := 1; v < n; v++ {
 		es = append(es, [2]int{(v - 1) / 2, v})
 	}
-	return numbered(t, n, es)
+	return fixture.MustNumbered(t, n, es)
 }
 
 func pageNumberOK(t *testing.T, g *graph.Graph, kind cert.Kind, unsatLower bool) *Result {
@@ -99,16 +52,16 @@ func TestPageNumberKnown(t *testing.T) {
 		{"K7", fixture.Complete(7), 4},
 		{"K8", fixture.Complete(8), 4},
 		{"K9", fixture.Complete(9), 5},
-		{"K3,3", completeBipartite(t, 3, 3), 3},
-		{"K4,4", completeBipartite(t, 4, 4), 3},
-		{"Petersen", petersen(t), 3},
-		{"Q3", hypercube(t, 3), 2},
-		{"Q4", hypercube(t, 4), 3},
-		{"grid 3x3", grid(t, 3, 3), 2},
-		{"grid 4x5", grid(t, 4, 5), 2},
+		{"K3,3", fixture.CompleteBipartite(3, 3), 3},
+		{"K4,4", fixture.CompleteBipartite(4, 4), 3},
+		{"Petersen", fixture.Petersen(), 3},
+		{"Q3", fixture.Hypercube(3), 2},
+		{"Q4", fixture.Hypercube(4), 3},
+		{"grid 3x3", fixture.Grid(3, 3), 2},
+		{"grid 4x5", fixture.Grid(4, 5), 2},
 		{"tree", tree(t, 15), 1},
 		{"cycle", cycle(t, 9), 1},
-		{"Goldner-Harary", goldnerHarary(t), 3},
+		{"Goldner-Harary", fixture.GoldnerHarary(), 3},
 	}
 	for _, tt := range tests {
 		t.Run(tt.name, func(t *testing.T) {
@@ -131,8 +84,8 @@ func TestPageNumberUnsatLower(t *testing.T) {
 	}{
 		{"K5", fixture.Complete(5), 3},
 		{"K6", fixture.Complete(6), 3},
-		{"K3,3", completeBipartite(t, 3, 3), 3},
-		{"Q3", hypercube(t, 3), 2},
+		{"K3,3", fixture.CompleteBipartite(3, 3), 3},
+		{"Q3", fixture.Hypercube(3), 2},
 	}
 	for _, tt := range tests {
 		t.Run(tt.name, func(t *testing.T) {

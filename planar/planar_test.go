@@ -6,7 +6,6 @@ import (
 	"fmt"
 	"math/rand/v2"
 	"os"
-	"os/exec"
 	"strings"
 	"testing"
 
@@ -30,19 +29,6 @@ func plDecodeGraph6(t testing.TB, line string) *graph.Graph {
 // plGraph6Big encodes g in graph6 in vertex order, for any n.
 func plGraph6Big(g *graph.Graph) string { return string(graph.AppendGraph6(nil, g)) }
 
-func plRunTool(t testing.TB, stdin []byte, name string, args ...string) []byte {
-	t.Helper()
-	cmd := exec.Command(name, args...)
-	cmd.Stdin = bytes.NewReader(stdin)
-	var stderr bytes.Buffer
-	cmd.Stderr = &stderr
-	out, err := cmd.Output()
-	if err != nil {
-		t.Fatalf("%s %v: %v: %s", name, args, err, stderr.String())
-	}
-	return out
-}
-
 func plLines(b []byte) []string {
 	var out []string
 	sc := bufio.NewScanner(bytes.NewReader(b))
@@ -59,9 +45,8 @@ func plLines(b []byte) []string {
 // certificate, compares with nauty-planarg and returns the planar count.
 func plCheckAgainstPlanarg(t *testing.T, input []byte) int {
 	t.Helper()
-	planarg := testtools.Require(t, "nauty-planarg", "nauty")
 	ref := make(map[string]bool)
-	for _, l := range plLines(plRunTool(t, input, planarg, "-q")) {
+	for _, l := range plLines(fixture.RunTool(t, input, "nauty-planarg", "nauty", "-q")) {
 		ref[l] = true
 	}
 	count := 0
@@ -90,7 +75,6 @@ func plCheckAgainstPlanarg(t *testing.T, input []byte) int {
 // A003094 (connected planar graphs with n nodes), read in OEIS.
 // Setting SPINECERT_PLANAR_N9=1 adds n = 9 (79853 and 71885).
 func TestPlanarCountsOEIS(t *testing.T) {
-	geng := testtools.Require(t, "nauty-geng", "nauty")
 	all := []int{1, 2, 4, 11, 33, 142, 822, 6966, 79853}
 	connected := []int{1, 1, 2, 6, 20, 99, 646, 5974, 71885}
 	maxN := 8
@@ -111,7 +95,7 @@ func TestPlanarCountsOEIS(t *testing.T) {
 				want = connected[n-1]
 			}
 			t.Run(name, func(t *testing.T) {
-				out := plRunTool(t, nil, geng, args...)
+				out := fixture.RunTool(t, nil, "nauty-geng", "nauty", args...)
 				if got := plCheckAgainstPlanarg(t, out); got != want {
 					t.Errorf("%d planar graphs, OEIS says %d", got, want)
 				}
@@ -142,9 +126,8 @@ func TestPlanarRandomAgainstPlanarg(t *testing.T) {
 		buf.WriteString(plGraph6Big(g))
 		buf.WriteByte('\n')
 	}
-	planarg := testtools.Require(t, "nauty-planarg", "nauty")
 	ref := make(map[string]bool)
-	for _, l := range plLines(plRunTool(t, buf.Bytes(), planarg, "-q")) {
+	for _, l := range plLines(fixture.RunTool(t, buf.Bytes(), "nauty-planarg", "nauty", "-q")) {
 		ref[l] = true
 	}
 	var planar, nonPlanar int

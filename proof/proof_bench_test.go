@@ -12,14 +12,14 @@ import (
 	"time"
 
 	"spinecert.dev/dimacs"
-	"spinecert.dev/internal/fixture"
+	"spinecert.dev/internal/fixture/formulas"
 )
 
 // benchProof makes cadical's binary DRAT proof of PHP(n+1,n) and reports
 // cadical's own solve time; it skips when cadical is absent.
 func benchProof(b *testing.B, n int) (*dimacs.CNF, []byte, func()) {
 	b.Helper()
-	f := fixture.Pigeonhole(n)
+	f := formulas.Pigeonhole(n)
 	bin, err := exec.LookPath("cadical")
 	if err != nil {
 		b.Skip("cadical not on PATH: install the Debian package cadical")

@@ -10,7 +10,7 @@ import (
 	"github.com/crillab/gophersat/solver"
 
 	"spinecert.dev/dimacs"
-	"spinecert.dev/internal/fixture"
+	"spinecert.dev/internal/fixture/formulas"
 )
 
 // gophersatProof solves f with gophersat (github.com/crillab/gophersat
@@ -48,7 +48,7 @@ func gophersatProof(t *testing.T, f *dimacs.CNF) (string, bool) {
 func TestPigeonholeGophersat(t *testing.T) {
 	for n := 3; n <= 6; n++ {
 		t.Run(fmt.Sprintf("PHP(%d,%d)", n+1, n), func(t *testing.T) {
-			f := fixture.Pigeonhole(n)
+			f := formulas.Pigeonhole(n)
 			proof, unsat := gophersatProof(t, f)
 			if !unsat {
 				t.Fatal("gophersat did not say UNSAT")

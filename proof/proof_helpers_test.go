@@ -5,14 +5,11 @@ import (
 	"compress/gzip"
 	"context"
 	"io"
-	"os"
-	"os/exec"
-	"path/filepath"
 	"strings"
 	"testing"
 
 	"spinecert.dev/dimacs"
-	"spinecert.dev/internal/testtools"
+	"spinecert.dev/internal/fixture"
 )
 
 func cnfBytes(t testing.TB, f *dimacs.CNF) []byte {
@@ -29,26 +26,15 @@ func cnfBytes(t testing.TB, f *dimacs.CNF) []byte {
 // says UNSAT (exit 20, the SAT-competition convention).
 func cadicalProof(t testing.TB, f *dimacs.CNF, binary bool) []byte {
 	t.Helper()
-	bin := testtools.Require(t, "cadical", "cadical")
-	dir := t.TempDir()
-	in, out := filepath.Join(dir, "f.cnf"), filepath.Join(dir, "f.drat")
-	if err := os.WriteFile(in, cnfBytes(t, f), 0o644); err != nil {
-		t.Fatal(err)
-	}
-	args := []string{"-q", in, out}
+	var args []string
 	if !binary {
-		args = append([]string{"--no-binary"}, args...)
+		args = []string{"--no-binary"}
 	}
-	cmd := exec.Command(bin, args...)
-	stdout, _ := cmd.Output()
-	if cmd.ProcessState.ExitCode() != 20 {
-		t.Fatalf("cadical exit %d, want 20 (UNSAT); output %s", cmd.ProcessState.ExitCode(), stdout)
+	r := fixture.Cadical(t, cnfBytes(t, f), true, args...)
+	if r.Exit != 20 {
+		t.Fatalf("cadical exit %d, want 20 (UNSAT); output %s", r.Exit, r.Stdout)
 	}
-	proof, err := os.ReadFile(out)
-	if err != nil {
-		t.Fatal(err)
-	}
-	return proof
+	return r.Proof
 }
 
 func checkText(t testing.TB, f *dimacs.CNF, proof string, opt DRATOptions) (*DRATResult, error) {
@@ -69,26 +55,8 @@ func parseCNF(t testing.TB, s string) *dimacs.CNF {
 // reports whether it said UNSAT (exit 20) or SAT (exit 10).
 func cadicalMaybeProof(t testing.TB, f *dimacs.CNF) ([]byte, bool) {
 	t.Helper()
-	bin := testtools.Require(t, "cadical", "cadical")
-	dir := t.TempDir()
-	in, out := filepath.Join(dir, "f.cnf"), filepath.Join(dir, "f.drat")
-	if err := os.WriteFile(in, cnfBytes(t, f), 0o644); err != nil {
-		t.Fatal(err)
-	}
-	cmd := exec.Command(bin, "-q", in, out)
-	cmd.Run()
-	switch cmd.ProcessState.ExitCode() {
-	case 10:
-		return nil, false
-	case 20:
-		proof, err := os.ReadFile(out)
-		if err != nil {
-			t.Fatal(err)
-		}
-		return proof, true
-	}
-	t.Fatalf("cadical exit %d", cmd.ProcessState.ExitCode())
-	return nil, false
+	r := fixture.Cadical(t, cnfBytes(t, f), true)
+	return r.Proof, r.Exit == 20
 }
 
 func gzipTo(t testing.TB, w io.Writer, data []byte) {

@@ -12,7 +12,7 @@ import (
 	"github.com/klauspost/compress/zstd"
 
 	"spinecert.dev/dimacs"
-	"spinecert.dev/internal/fixture"
+	"spinecert.dev/internal/fixture/formulas"
 )
 
 // checkBoth checks a proof backward and forward, writes LRAT from each and
@@ -44,7 +44,7 @@ func checkBoth(t *testing.T, f *dimacs.CNF, proof []byte, wantFormat string) *DR
 // proofs of them, text (--no-binary) and binary (its default), must pass.
 func TestPigeonholeCadical(t *testing.T) {
 	for n := 3; n <= 7; n++ {
-		f := fixture.Pigeonhole(n)
+		f := formulas.Pigeonhole(n)
 		for _, binary := range []bool{false, true} {
 			t.Run(fmt.Sprintf("PHP(%d,%d)/binary=%v", n+1, n, binary), func(t *testing.T) {
 				proof := cadicalProof(t, f, binary)
@@ -107,7 +107,7 @@ func clauseKey(f []string) string {
 // satisfiable formula).
 func TestPigeonholeMutations(t *testing.T) {
 	n := 6
-	f := fixture.Pigeonhole(n)
+	f := formulas.Pigeonhole(n)
 	proof := string(cadicalProof(t, f, false))
 	var lrat bytes.Buffer
 	if _, err := CheckDRAT(context.Background(), f, strings.NewReader(proof), DRATOptions{LRAT: &lrat}); err != nil {
@@ -166,7 +166,7 @@ func TestPigeonholeMutations(t *testing.T) {
 // must be rejected.
 func TestPigeonholeFlippedLiteral(t *testing.T) {
 	n := 6
-	f := fixture.Pigeonhole(n)
+	f := formulas.Pigeonhole(n)
 	proof := string(cadicalProof(t, f, false))
 	var lrat bytes.Buffer
 	if _, err := CheckDRAT(context.Background(), f, strings.NewReader(proof), DRATOptions{LRAT: &lrat}); err != nil {

@@ -12,7 +12,7 @@ import (
 	"time"
 
 	"spinecert.dev/dimacs"
-	"spinecert.dev/internal/fixture"
+	"spinecert.dev/internal/fixture/formulas"
 	"spinecert.dev/internal/testtools"
 	"spinecert.dev/proof"
 )
@@ -56,7 +56,7 @@ func solveOK(t *testing.T, s Solver, cnf *dimacs.CNF, proof string) *Result {
 func TestPigeonholeUnsat(t *testing.T) {
 	backends := inProcess(t)
 	for _, n := range []int{1, 2, 3, 4, 5, 6} {
-		cnf := fixture.Pigeonhole(n)
+		cnf := formulas.Pigeonhole(n)
 		// Sizes from the definition: n(n+1) variables, (n+1) + n*C(n+1,2) clauses.
 		if cnf.Vars != n*(n+1) || len(cnf.Clauses) != n+1+n*(n+1)*n/2 {
 			t.Fatalf("PHP(%d,%d) has %d vars %d clauses", n+1, n, cnf.Vars, len(cnf.Clauses))
@@ -110,7 +110,7 @@ func TestRandom3SATAgree(t *testing.T) {
 	sat, unsat := 0, 0
 	backends := inProcess(t)
 	for seed := range uint64(count) {
-		cnf := fixture.Random3SAT(seed+1, n, m)
+		cnf := formulas.Random3SAT(seed+1, n, m)
 		cnfs = append(cnfs, cnf)
 		var first Answer
 		for i, s := range backends {
@@ -266,7 +266,7 @@ func TestHangKilled(t *testing.T) {
 // on a formula far beyond it (PHP(13,12) needs exponential resolution
 // proofs, Haken 1985) and on cancellation.
 func TestTimeoutInProcess(t *testing.T) {
-	cnf := fixture.Pigeonhole(12)
+	cnf := formulas.Pigeonhole(12)
 	for _, s := range inProcess(t) {
 		start := time.Now()
 		r, err := s.Solve(context.Background(), cnf, 300*time.Millisecond, filepath.Join(t.TempDir(), "proof"))

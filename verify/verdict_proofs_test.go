@@ -9,6 +9,7 @@ import (
 	"spinecert.dev/cert"
 	"spinecert.dev/dimacs"
 	"spinecert.dev/internal/fixture"
+	"spinecert.dev/internal/fixture/formulas"
 	"spinecert.dev/proof"
 )
 
@@ -17,7 +18,7 @@ import (
 // through spinecert's DRAT checker and the LRAT re-check, then Decide.
 func TestPipelinePigeonhole(t *testing.T) {
 	for _, n := range []int{3, 5} {
-		cnf := fixture.Pigeonhole(n)
+		cnf := formulas.Pigeonhole(n)
 		solvers := inProcess(t)
 		results, err := RunAll(context.Background(), cnf, solvers, RunOptions{Limit: time.Minute, ProofDir: t.TempDir()})
 		if err != nil {
@@ -33,7 +34,7 @@ func TestPipelinePigeonhole(t *testing.T) {
 		}
 	}
 	t.Run("cadical", func(t *testing.T) {
-		cnf := fixture.Pigeonhole(6)
+		cnf := formulas.Pigeonhole(6)
 		results, err := RunAll(context.Background(), cnf, []Solver{cadicalForTest(t), Gini{}}, RunOptions{Limit: time.Minute, ProofDir: t.TempDir()})
 		if err != nil {
 			t.Fatal(err)

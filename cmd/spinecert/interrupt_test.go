@@ -17,9 +17,9 @@ import (
 )
 
 // TestInterrupt runs spinecert as a separate process (the copy of the test
-// binary that testscript.Main puts on PATH), interrupts it with SIGINT while
-// a solver is running, and checks that it exits with status 130, says
-// "interrupted", prints nothing on stdout and leaves no output or temporary
+// binary that testscript.Main puts on PATH), interrupts it with SIGINT (or
+// terminates it with SIGTERM) while a solver is running, and checks that it
+// exits with status 130 (143), says "interrupted" ("terminated"), prints nothing on stdout and leaves no output or temporary
 // file behind.
 //
 // The signal is sent only once an extra solver, a script that never answers,
@@ -35,14 +35,18 @@ func TestInterrupt(t *testing.T) {
 		graph string
 		out   string   // the output file that must not appear
 		args  []string // the command line, before --solver-cmd HANG
+		sig   syscall.Signal
 	}{
 		// gini finds a layout at once; the command waits for the other solver.
-		{"solve-layout", completeGraph(5), "k5.json", []string{"solve", "--quiet", "g.edges", "--pages", "3", "--solvers", "gini", "-o", "k5.json"}},
+		{"solve-layout", completeGraph(5), "k5.json", []string{"solve", "--quiet", "g.edges", "--pages", "3", "--solvers", "gini", "-o", "k5.json"}, syscall.SIGINT},
 		// The in-process solvers are at work on a hard formula (a dense
 		// random graph on 4 pages) when the signal comes.
-		{"solve-hard", randomGraph(32, 0.5), "g.json", []string{"solve", "--quiet", "g.edges", "--pages", "4", "-o", "g.json"}},
+		{"solve-hard", randomGraph(32, 0.5), "g.json", []string{"solve", "--quiet", "g.edges", "--pages", "4", "-o", "g.json"}, syscall.SIGINT},
 		// bundle: the refutation of 2 pages waits for the second solver.
-		{"bundle", completeGraph(5), "k5.spinecert.tar.zst", []string{"bundle", "g.edges", "--exact", "3", "--solvers", "gini", "-o", "k5.spinecert.tar.zst"}},
+		{"bundle", completeGraph(5), "k5.spinecert.tar.zst", []string{"bundle", "g.edges", "--exact", "3", "--solvers", "gini", "-o", "k5.spinecert.tar.zst"}, syscall.SIGINT},
+		// SIGTERM, as a batch scheduler sends at a time limit: status 143.
+		{"bundle-term", completeGraph(5), "k5.spinecert.tar.zst", []string{"bundle", "g.edges", "--exact", "3", "--solvers", "gini", "-o", "k5.spinecert.tar.zst"}, syscall.SIGTERM},
+		{"solve-term", randomGraph(32, 0.5), "g.json", []string{"solve", "--quiet", "g.edges", "--pages", "4", "-o", "g.json"}, syscall.SIGTERM},
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {
@@ -87,7 +91,11 @@ func TestInterrupt(t *testing.T) {
 					}
 				}
 			}
-			if err := cmd.Process.Signal(os.Interrupt); err != nil {
+			want, word := exitInterrupted, "interrupted"
+			if c.sig == syscall.SIGTERM {
+				want, word = exitTerminated, "terminated"
+			}
+			if err := cmd.Process.Signal(c.sig); err != nil {
 				t.Fatal(err)
 			}
 			var werr error
@@ -95,23 +103,23 @@ func TestInterrupt(t *testing.T) {
 			case werr = <-done:
 			case <-time.After(time.Minute):
 				cmd.Process.Kill()
-				t.Fatalf("spinecert did not stop within a minute of SIGINT; stderr:\n%s", &stderr)
+				t.Fatalf("spinecert did not stop within a minute of %v; stderr:\n%s", c.sig, &stderr)
 			}
 			var ee *exec.ExitError
 			if !errors.As(werr, &ee) {
-				t.Fatalf("exit: %v, want status %d; stderr:\n%s", werr, exitInterrupted, &stderr)
+				t.Fatalf("exit: %v, want status %d; stderr:\n%s", werr, want, &stderr)
 			}
 			if ws, ok := ee.Sys().(syscall.WaitStatus); ok && ws.Signaled() {
-				t.Fatalf("spinecert was killed by %v instead of exiting with status %d", ws.Signal(), exitInterrupted)
+				t.Fatalf("spinecert was killed by %v instead of exiting with status %d", ws.Signal(), want)
 			}
-			if got := ee.ExitCode(); got != exitInterrupted {
-				t.Fatalf("exit status %d, want %d; stderr:\n%s", got, exitInterrupted, &stderr)
+			if got := ee.ExitCode(); got != want {
+				t.Fatalf("exit status %d, want %d; stderr:\n%s", got, want, &stderr)
 			}
 			if stdout.Len() != 0 {
 				t.Errorf("stdout not empty:\n%s", &stdout)
 			}
-			if got := stderr.String(); !strings.HasSuffix(got, "spinecert: interrupted\n") {
-				t.Errorf("stderr does not end in \"spinecert: interrupted\":\n%s", got)
+			if got := stderr.String(); !strings.HasSuffix(got, "spinecert: "+word+"\n") {
+				t.Errorf("stderr does not end in \"spinecert: %s\":\n%s", word, got)
 			}
 			if _, err := os.Stat(filepath.Join(dir, c.out)); !errors.Is(err, os.ErrNotExist) {
 				t.Errorf("%s exists after the interrupt (stat: %v)", c.out, err)

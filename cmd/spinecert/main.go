@@ -8,6 +8,8 @@ import (
 	"fmt"
 	"os"
 	"os/signal"
+	"sync/atomic"
+	"syscall"
 )
 
 // Exit codes: the one table every command uses.
@@ -16,9 +18,11 @@ const (
 	exitRefuted   = 1 // the claim is refuted / the evidence was rejected
 	exitUsage     = 2 // bad usage or unreadable input
 	exitUndecided = 3 // undecided: time-out, solver gave up, backends disagree
-	// interrupted (SIGINT, Ctrl-C): 128 + the signal number 2, as shells
+	// interrupted (SIGINT, Ctrl-C) or terminated (SIGTERM, as batch
+	// schedulers send at a time limit): 128 + the signal number, as shells
 	// report a process killed by it (common practice, no source)
 	exitInterrupted = 130
+	exitTerminated  = 143
 )
 
 // exitTable is printed in every command's help.
@@ -27,7 +31,8 @@ const exitTable = `exit status:
     1  the claim is refuted / the evidence was rejected
     2  bad usage or unreadable input
     3  undecided (time-out, solver gave up, solvers disagree)
-  130  interrupted (Ctrl-C); no output file is left half-written`
+  130  interrupted (Ctrl-C); no output file is left half-written
+  143  terminated (SIGTERM); no output file is left half-written`
 
 // exitError carries an exit status and an optional message to print on stderr.
 type exitError struct {
@@ -72,12 +77,21 @@ func main() {
 
 // run executes spinecert with the given arguments and returns the exit status.
 func run(args []string) int {
-	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt)
-	defer stop()
+	ctx, cancel := context.WithCancel(context.Background())
+	defer cancel()
+	sigs := make(chan os.Signal, 1)
+	signal.Notify(sigs, os.Interrupt, syscall.SIGTERM)
+	defer signal.Stop(sigs)
+	var caught atomic.Value // the first signal
 	go func() {
-		// After the first interrupt a second one stops the process at once.
-		<-ctx.Done()
-		stop()
+		s, ok := <-sigs
+		if !ok {
+			return
+		}
+		caught.Store(s)
+		cancel()
+		// After the first signal a second one stops the process at once.
+		signal.Stop(sigs)
 	}()
 	if code, ok := childMain(ctx, args); ok {
 		return code
@@ -85,9 +99,13 @@ func run(args []string) int {
 	root := newRootCmd()
 	root.SetArgs(args)
 	err := root.ExecuteContext(ctx)
-	if ctx.Err() != nil {
-		// Whatever the command made of its cancelled work, the interrupt
+	if s, ok := caught.Load().(os.Signal); ok {
+		// Whatever the command made of its cancelled work, the signal
 		// decides the status.
+		if s == syscall.SIGTERM {
+			fmt.Fprintln(os.Stderr, "spinecert: terminated")
+			return exitTerminated
+		}
 		fmt.Fprintln(os.Stderr, "spinecert: interrupted")
 		return exitInterrupted
 	}

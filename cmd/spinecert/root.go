@@ -2,24 +2,47 @@ package main
 
 import (
 	"fmt"
+	"os"
 
 	"github.com/spf13/cobra"
+	"spinecert.dev/verify"
 )
 
 // version is the spinecert version, recorded in every artifact spinecert writes.
 var version = "0.1.0-dev"
 
-// commands holds the constructors registered by the subcommand files.
-var commands []func() *cobra.Command
+// commands returns every subcommand, in the order the help lists them: the
+// one place a new command is added (its file is cmd_NAME.go).
+func commands() []*cobra.Command {
+	return []*cobra.Command{
+		newCheckCmd(),
+		newLayoutCmd(),
+		newDrawCmd(),
+		newPlanarCmd(),
+		newEncodeCmd(),
+		newDecodeCmd(),
+		newSolveCmd(),
+		newProofCmd(),
+		newPageNumberCmd(),
+		newBundleCmd(),
+		newVerifyCmd(),
+		newShowCmd(),
+		newExtractCmd(),
+		newDemoCmd(),
+	}
+}
 
-// register adds a subcommand constructor; each subcommand file calls it from init.
-func register(c func() *cobra.Command) { commands = append(commands, c) }
-
-// childHandlers are hidden entry points for spinecert's own child processes
-// (for example a solver run that must be killable); see childMain.
-var childHandlers = map[string]func(ctx contextT, args []string) int{}
+// childHandlers are hidden entry points for spinecert's own child processes;
+// see childMain. The gophersat backend runs in a child process so that a
+// time-out can kill it (see verify.Gophersat).
+var childHandlers = map[string]func(ctx contextT, args []string) int{
+	verify.GophersatChild: func(_ contextT, args []string) int {
+		return verify.RunGophersatChild(args, os.Stdout, os.Stderr)
+	},
+}
 
 func newRootCmd() *cobra.Command {
+	cobra.EnableCommandSorting = false // the help lists commands as commands() does
 	root := &cobra.Command{
 		Use:   "spinecert",
 		Short: "Evidence for page-number claims about graphs",
@@ -39,8 +62,7 @@ solvers, checks clausal proofs with its own checker, and bundles the evidence.`,
 		},
 	}
 	root.SetFlagErrorFunc(func(c *cobra.Command, err error) error { return usageErr(err) })
-	for _, c := range commands {
-		cmd := c()
+	for _, cmd := range commands() {
 		addExitHelp(cmd)
 		root.AddCommand(cmd)
 	}

@@ -12,7 +12,6 @@ import (
 	"spinecert.dev/heuristic"
 )
 
-func init() { register(newLayoutCmd) }
 
 type layoutOptions struct {
 	graph      graphFlags

@@ -18,7 +18,6 @@ import (
 //go:embed demodata/*.edges
 var demoData embed.FS
 
-func init() { register(newDemoCmd) }
 
 type demoOptions struct {
 	dir string

@@ -19,7 +19,6 @@ import (
 	"spinecert.dev/graph"
 )
 
-func init() { register(newBundleCmd) }
 
 type bundleOptions struct {
 	graph      graphFlags

@@ -11,7 +11,6 @@ import (
 	"spinecert.dev/planar/planarcert"
 )
 
-func init() { register(newPlanarCmd) }
 
 type planarOptions struct {
 	graph    graphFlags

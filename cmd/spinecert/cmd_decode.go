@@ -12,7 +12,6 @@ import (
 	"spinecert.dev/dimacs"
 )
 
-func init() { register(newDecodeCmd) }
 
 type decodeOptions struct {
 	graph    graphFlags

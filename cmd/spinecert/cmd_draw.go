@@ -14,7 +14,6 @@ import (
 	"spinecert.dev/planar/planarcert"
 )
 
-func init() { register(newDrawCmd) }
 
 type drawOptions struct {
 	graph    graphFlags

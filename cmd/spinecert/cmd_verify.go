@@ -17,7 +17,6 @@ import (
 	"spinecert.dev/verify"
 )
 
-func init() { register(newVerifyCmd) }
 
 type verifyOptions struct {
 	solver  solveSolverFlags

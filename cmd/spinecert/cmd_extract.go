@@ -9,7 +9,6 @@ import (
 	"spinecert.dev/archive"
 )
 
-func init() { register(newExtractCmd) }
 
 type extractOptions struct {
 	json   bool

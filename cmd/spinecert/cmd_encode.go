@@ -13,7 +13,6 @@ import (
 	"spinecert.dev/dimacs"
 )
 
-func init() { register(newEncodeCmd) }
 
 // encodeClaimFlags are the flags that choose the claim and the encoding;
 // decode takes the same ones so that it rebuilds the same variable map.

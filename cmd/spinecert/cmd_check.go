@@ -12,7 +12,6 @@ import (
 	"spinecert.dev/graph"
 )
 
-func init() { register(newCheckCmd) }
 
 type checkOptions struct {
 	graph    graphFlags

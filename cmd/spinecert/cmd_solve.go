@@ -17,7 +17,6 @@ import (
 	"spinecert.dev/verify"
 )
 
-func init() { register(newSolveCmd) }
 
 // solveSolverFlags choose the backends; pagenumber takes the same ones.
 type solveSolverFlags struct {

@@ -17,7 +17,6 @@ import (
 	"spinecert.dev/verify"
 )
 
-func init() { register(newPageNumberCmd) }
 
 type pageNumberOptions struct {
 	graph      graphFlags

@@ -15,7 +15,6 @@ import (
 	"spinecert.dev/proof"
 )
 
-func init() { register(newProofCmd) }
 
 type proofOptions struct {
 	format  string

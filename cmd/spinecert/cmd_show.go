@@ -13,7 +13,6 @@ import (
 	"spinecert.dev/archive"
 )
 
-func init() { register(newShowCmd) }
 
 type showOptions struct {
 	json   bool

@@ -19,7 +19,6 @@ import (
 	"spinecert.dev/graph"
 )
 
-
 type bundleOptions struct {
 	graph      graphFlags
 	solver     solveSolverFlags

@@ -12,7 +12,6 @@ import (
 	"spinecert.dev/graph"
 )
 
-
 type checkOptions struct {
 	graph    graphFlags
 	pages    int

@@ -12,10 +12,10 @@ import (
 	"spinecert.dev/dimacs"
 )
 
-
 type decodeOptions struct {
 	graph    graphFlags
 	claim    encodeClaimFlags
+	opt      dimacs.Options // from claim, by validate
 	version  string
 	output   string
 	json     bool
@@ -37,7 +37,8 @@ same claim options (and --encoder-version) as to "spinecert encode": the
 encoding is rebuilt to find the meaning of every variable. A layout is written only if it passes the
 direct check; a model that does not describe a valid layout is rejected
 (exit 1).`,
-		Args: cobra.ExactArgs(2),
+		Args:    cobra.ExactArgs(2),
+		PreRunE: func(cmd *cobra.Command, args []string) error { return o.validate(cmd) },
 		RunE: func(cmd *cobra.Command, args []string) error {
 			o.graphArg, o.modelArg = args[0], args[1]
 			return runDecode(cmd, &o)
@@ -51,9 +52,10 @@ direct check; a model that does not describe a valid layout is rejected
 	return cmd
 }
 
-func runDecode(cmd *cobra.Command, o *decodeOptions) error {
-	opt, err := o.claim.options(cmd)
-	if err != nil {
+// validate checks the flags before any work starts.
+func (o *decodeOptions) validate(cmd *cobra.Command) error {
+	var err error
+	if o.opt, err = o.claim.options(cmd); err != nil {
 		return err
 	}
 	if err := checkEncoderVersion(o.version); err != nil {
@@ -62,6 +64,11 @@ func runDecode(cmd *cobra.Command, o *decodeOptions) error {
 	if o.json && o.output == "-" {
 		return usageErr(fmt.Errorf("--json prints a report on stdout: give the layout a file with -o FILE"))
 	}
+	return nil
+}
+
+func runDecode(cmd *cobra.Command, o *decodeOptions) error {
+	opt := o.opt
 	g, err := o.graph.load(cmd, o.graphArg)
 	if err != nil {
 		return err

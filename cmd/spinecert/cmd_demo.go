@@ -18,7 +18,6 @@ import (
 //go:embed demodata/*.edges
 var demoData embed.FS
 
-
 type demoOptions struct {
 	dir string
 }

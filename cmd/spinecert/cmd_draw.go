@@ -14,7 +14,6 @@ import (
 	"spinecert.dev/planar/planarcert"
 )
 
-
 type drawOptions struct {
 	graph    graphFlags
 	output   string

@@ -13,7 +13,6 @@ import (
 	"spinecert.dev/dimacs"
 )
 
-
 // encodeClaimFlags are the flags that choose the claim and the encoding;
 // decode takes the same ones so that it rebuilds the same variable map.
 type encodeClaimFlags struct {
@@ -75,6 +74,7 @@ func (f *encodeClaimFlags) options(cmd *cobra.Command) (dimacs.Options, error) {
 type encodeOptions struct {
 	graph    graphFlags
 	claim    encodeClaimFlags
+	opt      dimacs.Options // from claim, by validate
 	version  string
 	output   string
 	stats    bool
@@ -104,7 +104,8 @@ listed in the flag's help.
 
 --stats prints the number of variables, clauses and literals, split by
 constraint family, instead of writing the CNF.`,
-		Args: cobra.ExactArgs(1),
+		Args:    cobra.ExactArgs(1),
+		PreRunE: func(cmd *cobra.Command, args []string) error { return o.validate(cmd) },
 		RunE: func(cmd *cobra.Command, args []string) error {
 			o.graphArg = args[0]
 			return runEncode(cmd, &o)
@@ -119,9 +120,10 @@ constraint family, instead of writing the CNF.`,
 	return cmd
 }
 
-func runEncode(cmd *cobra.Command, o *encodeOptions) error {
-	opt, err := o.claim.options(cmd)
-	if err != nil {
+// validate checks the flags before any work starts.
+func (o *encodeOptions) validate(cmd *cobra.Command) error {
+	var err error
+	if o.opt, err = o.claim.options(cmd); err != nil {
 		return err
 	}
 	if err := checkEncoderVersion(o.version); err != nil {
@@ -130,6 +132,11 @@ func runEncode(cmd *cobra.Command, o *encodeOptions) error {
 	if o.json && !o.stats && o.output == "-" {
 		return usageErr(fmt.Errorf("--json prints a report on stdout: give the CNF a file with -o FILE, or use --stats"))
 	}
+	return nil
+}
+
+func runEncode(cmd *cobra.Command, o *encodeOptions) error {
+	opt := o.opt
 	g, err := o.graph.load(cmd, o.graphArg)
 	if err != nil {
 		return err

@@ -9,7 +9,6 @@ import (
 	"spinecert.dev/archive"
 )
 
-
 type extractOptions struct {
 	json   bool
 	bundle string

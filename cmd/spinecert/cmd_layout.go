@@ -12,10 +12,10 @@ import (
 	"spinecert.dev/heuristic"
 )
 
-
 type layoutOptions struct {
 	graph      graphFlags
 	kind       string
+	parsedKind cert.Kind // from kind, by validate
 	output     string
 	seed       int64
 	timeLimit  time.Duration
@@ -42,15 +42,10 @@ fails is not written.
 
 The search is deterministic for a given --seed unless --time-limit stops it
 early.`,
-		Args: cobra.ExactArgs(1),
+		Args:    cobra.ExactArgs(1),
+		PreRunE: func(cmd *cobra.Command, args []string) error { return o.validate() },
 		RunE: func(cmd *cobra.Command, args []string) error {
 			o.graphArg = args[0]
-			if o.json && o.output == "-" {
-				return usageErr(fmt.Errorf("--json prints the report on stdout: write the layout with -o FILE"))
-			}
-			if o.timeLimit < 0 || o.candidates < 1 {
-				return usageErr(fmt.Errorf("--time-limit must not be negative and --candidates must be at least 1"))
-			}
 			return runLayout(cmd, &o)
 		},
 	}
@@ -64,11 +59,24 @@ early.`,
 	return cmd
 }
 
-func runLayout(cmd *cobra.Command, o *layoutOptions) error {
+// validate checks the flags before any work starts.
+func (o *layoutOptions) validate() error {
+	if o.json && o.output == "-" {
+		return usageErr(fmt.Errorf("--json prints the report on stdout: write the layout with -o FILE"))
+	}
+	if o.timeLimit < 0 || o.candidates < 1 {
+		return usageErr(fmt.Errorf("--time-limit must not be negative and --candidates must be at least 1"))
+	}
 	kind, err := cert.ParseKind(o.kind)
 	if err != nil || kind == cert.Mixed {
 		return usageErr(fmt.Errorf("--kind %q: expected stack or queue", o.kind))
 	}
+	o.parsedKind = kind
+	return nil
+}
+
+func runLayout(cmd *cobra.Command, o *layoutOptions) error {
+	kind := o.parsedKind
 	g, err := o.graph.load(cmd, o.graphArg)
 	if err != nil {
 		return err

@@ -17,11 +17,12 @@ import (
 	"spinecert.dev/verify"
 )
 
-
 type pageNumberOptions struct {
 	graph      graphFlags
 	solver     solveSolverFlags
 	kind       string
+	parsedKind cert.Kind       // from kind, by validate
+	solvers    []verify.Solver // from solver, by validate
 	json       bool
 	output     string
 	proofOut   string
@@ -52,7 +53,8 @@ block), or else from a "no layout" verdict for one page fewer, decided as
 
 The exit status is 0 when the bounds meet, 3 when a solver step ends
 without a verdict (the bounds found so far are reported).`,
-		Args: cobra.ExactArgs(1),
+		Args:    cobra.ExactArgs(1),
+		PreRunE: func(cmd *cobra.Command, args []string) error { return o.validate() },
 		RunE: func(cmd *cobra.Command, args []string) error {
 			o.graphArg = args[0]
 			return runPageNumber(cmd, &o)
@@ -75,7 +77,8 @@ without a verdict (the bounds found so far are reported).`,
 	return cmd
 }
 
-func runPageNumber(cmd *cobra.Command, o *pageNumberOptions) error {
+// validate checks the flags and builds the solver list before any work starts.
+func (o *pageNumberOptions) validate() error {
 	kind, err := cert.ParseKind(o.kind)
 	if err != nil {
 		return usageErr(err)
@@ -86,10 +89,13 @@ func runPageNumber(cmd *cobra.Command, o *pageNumberOptions) error {
 	if o.json && o.output == "-" {
 		return usageErr(fmt.Errorf("--json prints the report on stdout: give the layout a file with -o FILE"))
 	}
-	solvers, err := o.solver.build()
-	if err != nil {
-		return err
-	}
+	o.parsedKind = kind
+	o.solvers, err = o.solver.build()
+	return err
+}
+
+func runPageNumber(cmd *cobra.Command, o *pageNumberOptions) error {
+	kind, solvers := o.parsedKind, o.solvers
 	g, err := o.graph.load(cmd, o.graphArg)
 	if err != nil {
 		return err

@@ -11,7 +11,6 @@ import (
 	"spinecert.dev/planar/planarcert"
 )
 
-
 type planarOptions struct {
 	graph    graphFlags
 	out      string
@@ -54,12 +53,18 @@ certificate was checked.`,
 			}
 			return cobra.ExactArgs(1)(cmd, args)
 		},
+		PreRunE: func(cmd *cobra.Command, args []string) error {
+			if o.check && o.out != "" {
+				return usageErr(errors.New("-o cannot be used with --check"))
+			}
+			if o.json && o.out == "-" {
+				return usageErr(errors.New("-o - and --json both want stdout"))
+			}
+			return nil
+		},
 		RunE: func(cmd *cobra.Command, args []string) error {
 			o.graphArg = args[0]
 			if o.check {
-				if o.out != "" {
-					return usageErr(errors.New("-o cannot be used with --check"))
-				}
 				o.certArg = args[1]
 				return runPlanarCheck(cmd, &o)
 			}
@@ -91,9 +96,6 @@ type planarReport struct {
 }
 
 func runPlanar(cmd *cobra.Command, o *planarOptions) error {
-	if o.json && o.out == "-" {
-		return usageErr(errors.New("-o - and --json both want stdout"))
-	}
 	g, err := o.graph.load(cmd, o.graphArg)
 	if err != nil {
 		return err

@@ -15,7 +15,6 @@ import (
 	"spinecert.dev/proof"
 )
 
-
 type proofOptions struct {
 	format  string
 	forward bool

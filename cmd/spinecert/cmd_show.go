@@ -13,7 +13,6 @@ import (
 	"spinecert.dev/archive"
 )
 
-
 type showOptions struct {
 	json   bool
 	bundle string

@@ -14,9 +14,9 @@ import (
 	"golang.org/x/term"
 
 	"spinecert.dev/cert"
+	"spinecert.dev/dimacs"
 	"spinecert.dev/verify"
 )
-
 
 // solveSolverFlags choose the backends; pagenumber takes the same ones.
 type solveSolverFlags struct {
@@ -84,6 +84,8 @@ type solveOptions struct {
 	graph    graphFlags
 	claim    encodeClaimFlags
 	solver   solveSolverFlags
+	opt      dimacs.Options  // from claim, by validate
+	solvers  []verify.Solver // from solver, by validate
 	proofOut string
 	output   string
 	json     bool
@@ -114,7 +116,8 @@ exit status 10 or 20).
     missing.
 
 Progress goes to stderr when it is a terminal (not with --quiet).`,
-		Args: cobra.ExactArgs(1),
+		Args:    cobra.ExactArgs(1),
+		PreRunE: func(cmd *cobra.Command, args []string) error { return o.validate(cmd) },
 		RunE: func(cmd *cobra.Command, args []string) error {
 			o.graphArg = args[0]
 			return runSolve(cmd, &o)
@@ -129,18 +132,21 @@ Progress goes to stderr when it is a terminal (not with --quiet).`,
 	return cmd
 }
 
-func runSolve(cmd *cobra.Command, o *solveOptions) error {
-	opt, err := o.claim.options(cmd)
-	if err != nil {
+// validate checks the flags and builds the solver list before any work starts.
+func (o *solveOptions) validate(cmd *cobra.Command) error {
+	var err error
+	if o.opt, err = o.claim.options(cmd); err != nil {
 		return err
 	}
 	if o.json && o.output == "-" {
 		return usageErr(fmt.Errorf("--json prints the report on stdout: give the layout a file with -o FILE"))
 	}
-	solvers, err := o.solver.build()
-	if err != nil {
-		return err
-	}
+	o.solvers, err = o.solver.build()
+	return err
+}
+
+func runSolve(cmd *cobra.Command, o *solveOptions) error {
+	opt, solvers := o.opt, o.solvers
 	g, err := o.graph.load(cmd, o.graphArg)
 	if err != nil {
 		return err

@@ -17,7 +17,6 @@ import (
 	"spinecert.dev/verify"
 )
 
-
 type verifyOptions struct {
 	solver  solveSolverFlags
 	jobs    int

@@ -7,24 +7,24 @@
 // `sha256sum -c` reads (one "<64 lowercase hex>  <name>" line per member,
 // sorted by name); then every other member sorted by name. Members have mode
 // 0644, owner and group 0 with empty names and modification time Unix 0; the
-// zstd settings are fixed (see Settings), so the same members always give
+// zstd settings are fixed (see [Settings]), so the same members always give
 // the same bytes with a given version of github.com/klauspost/compress.
 //
-// What the reader trusts: nothing. Walk streams a bundle member by member and
-// rejects, each with a *BundleError of a distinct kind, anything but regular
+// What the reader trusts: nothing. [Walk] streams a bundle member by member and
+// rejects, each with a *[BundleError] of a distinct kind, anything but regular
 // files with safe relative names (no absolute paths, no "..", no links,
 // devices or directories), duplicates, members out of order, members not
 // listed in SHA256SUMS or listed but absent, hash mismatches, members over
-// MaxMemberSize, more than MaxTotalSize decompressed bytes, a compression
-// ratio over MaxRatio (decompression bombs), truncated input and data after
+// [MaxMemberSize], more than [MaxTotalSize] decompressed bytes, a compression
+// ratio over [MaxRatio] (decompression bombs), truncated input and data after
 // the end of the archive. It also re-compresses what it read and reports
 // whether the file is byte for byte what spinecert would write (Canonical), so a
-// changed byte that zstd would ignore is still noticed. Extract never writes
+// changed byte that zstd would ignore is still noticed. [Extract] never writes
 // outside its target directory (it writes through an os.Root) and leaves
 // nothing behind when the bundle is bad.
 //
-// The manifest (manifest.json, schema FormatName version FormatVersion, see
-// the Manifest type) states the claim — graph identity (graph.Graph.ID),
+// The manifest (manifest.json, schema [FormatName] version [FormatVersion], see
+// the [Manifest] type) states the claim — graph identity (graph.Graph.ID),
 // layout kind, page kinds, and at_most K (evidence: a layout), at_least K
 // (evidence: a refutation of K-1 pages) or exact (both) — and the evidence:
 // encoder version and options, the SHA-256 of the CNF as spinecert writes it,
@@ -35,8 +35,8 @@
 // run times are recorded as measured, so rebuilding from the same runs gives
 // the same bytes.
 //
-// Verify re-checks a bundle from scratch and streams it once: layouts with
-// cert.Check; proofs (binary DRAT as stored; text DRAT given to Build is
+// [Verify] re-checks a bundle from scratch and streams it once: layouts with
+// cert.Check; proofs (binary DRAT as stored; text DRAT given to [Build] is
 // converted to binary) with proof.CheckDRAT, whose LRAT output is checked
 // again by proof.CheckLRAT, against the CNF rebuilt from the graph by the
 // current encoder. When the current encoder gives another CNF for the claim

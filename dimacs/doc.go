@@ -1,5 +1,5 @@
 // Package dimacs reads and writes DIMACS CNF and encodes layout claims about
-// graphs as CNF formulas.
+// graphs as [CNF] formulas.
 //
 // # CNF input and output
 //
@@ -7,16 +7,16 @@
 // Format", 1993) as used by the SAT competitions: optional comment lines
 // starting with "c", one header line "p cnf VARS CLAUSES", then clauses as
 // signed decimal integers, each clause ended by 0 and free to span lines.
-// Parse streams a formula to a Visitor; input compressed with gzip (RFC 1952)
+// [Parse] streams a formula to a [Visitor]; input compressed with gzip (RFC 1952)
 // or zstd (RFC 8878) is recognised by its magic bytes and decompressed on the
 // fly. Strict mode, the default, enforces the header counts and the variable
 // range; lenient mode accepts what solvers commonly accept and reports every
-// thing it forgave through ReadOptions.Warn. Errors in the input are
+// thing it forgave through [ReadOptions.Warn]. Errors in the input are
 // *textpos.Error values carrying file, line and column. Numbers that do not
 // fit in an int32 are rejected in both modes. The parser trusts nothing in its
 // input and never allocates more than the input justifies.
 //
-// Writer writes the same format; CNF.WriteTo writes a whole formula.
+// [Writer] writes the same format; [CNF.WriteTo] writes a whole formula.
 //
 // # The claim and the two formulations
 //
@@ -27,7 +27,7 @@
 // a queue page nest (a < c < d < b). Edges with a common end never cross
 // or nest, so only pairs of disjoint edges are constrained.
 //
-// The baseline (Options.Baseline) is the formulation of M. A. Bekos,
+// The baseline ([Options.Baseline]) is the formulation of M. A. Bekos,
 // M. Kaufmann, C. Zielke, "The book embedding problem from a SAT-solving
 // perspective", GD 2015, LNCS 9411, as we recall it (from memory): a
 // variable σ(u,v) for every ordered pair of distinct vertices with
@@ -73,7 +73,7 @@
 // variable), then same-page and betweenness variables in the order the
 // pairs of edges (e < f, lexicographic) first need them. Literals fixed by
 // symmetry breaking are substituted, not asserted, so clauses they satisfy
-// disappear. Decode relies on this numbering only through Encode itself:
+// disappear. Decode relies on this numbering only through [Encode] itself:
 // decoding re-encodes the graph with the same options.
 //
 // # Reductions and why they are sound
@@ -184,8 +184,8 @@
 //
 // # Versions
 //
-// EncoderVersion is written in every CNF header. EncodeVersion reproduces
-// the output of the earlier versions listed by EncoderVersions, so that a
+// [EncoderVersion] is written in every CNF header. [EncodeVersion] reproduces
+// the output of the earlier versions listed by [EncoderVersions], so that a
 // CNF recorded by an older spinecert (in an evidence bundle, say) can still be
 // re-derived from its claim: spinecert-enc-1 is the current encoder with
 // NoTwins set and its own name in the header.

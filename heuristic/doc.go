@@ -26,6 +26,6 @@
 // Complete graphs get the classical ⌈n/2⌉-page stack layout (Bernhart and
 // Kainen, "The book thickness of a graph", J. Combin. Theory Ser. B 27, 1979).
 //
-// Results are deterministic for a given Options.Seed and Options.Candidates
+// Results are deterministic for a given [Options.Seed] and Options.Candidates
 // unless Options.TimeLimit cuts the search short.
 package heuristic

@@ -6,7 +6,7 @@
 //
 // # Solvers
 //
-// Solver backends run behind one interface; an answer they give is a claim
+// [Solver] backends run behind one interface; an answer they give is a claim
 // until a model is checked against the formula or a proof passes the
 // checkers above. gini runs in process; gophersat runs in a child spinecert
 // process (its search cannot be interrupted) that is killed with its process
@@ -18,12 +18,12 @@
 //
 // # Verdicts (Decide)
 //
-// Decide trusts the model check and the two proof checkers, nothing else. A
-// checked model decides "satisfiable" (DecideLayout then decodes it and
+// [Decide] trusts the model check and the two proof checkers, nothing else. A
+// checked model decides "satisfiable" ([DecideLayout] then decodes it and
 // checks the layout directly with cert.Validate). "Unsatisfiable" needs
 // UNSAT from at least two differently named backends and at least one of
 // their proofs accepted by proof.CheckDRAT and, on the LRAT it writes, by
-// proof.CheckLRAT (DefaultPolicy). A suspect backend, or a model beside an UNSAT
+// proof.CheckLRAT ([DefaultPolicy]). A suspect backend, or a model beside an UNSAT
 // claim, is a conflict and no verdict. Package pagenumber builds on this: its upper
 // bound is always a directly checked layout; its lower bound is a counting
 // or Kuratowski argument (the Kuratowski subgraph checked by

@@ -14,3 +14,7 @@ var ErrUnknownVersion = errors.New("dimacs: unknown encoder version")
 // ErrTooLarge is returned when an encoding would need more variables than
 // a DIMACS CNF can name.
 var ErrTooLarge = errors.New("dimacs: encoding too large")
+
+// ErrNotMember is wrapped by CheckMembership when a clause of a sub-formula
+// is not a clause of the on-demand formulation it claims to be part of.
+var ErrNotMember = errors.New("dimacs: not a clause of the formulation")

@@ -138,6 +138,10 @@ func joinComma(s []string) string {
 	return out
 }
 
+// Fixed reports whether symmetry breaking fixes v, and to what: such a
+// variable appears in no clause of the formulation, its value substituted.
+func (f *OnDemand) Fixed(v VarName) (value, ok bool) { return f.fixed(v) }
+
 // fixed reports whether symmetry breaking fixes v, and to what.
 func (f *OnDemand) fixed(v VarName) (value, ok bool) {
 	switch v.Kind {
@@ -392,10 +396,8 @@ func (f *OnDemand) Decode(value func(VarName) (val, known bool), ref []int32) *c
 	for i := range pos {
 		pos[i] = int32(i)
 	}
-	if ref != nil {
-		for i, v := range ref {
-			pos[v] = int32(i)
-		}
+	for i, v := range ref {
+		pos[v] = int32(i)
 	}
 	get := func(v VarName) bool {
 		if val, ok := f.fixed(v); ok {

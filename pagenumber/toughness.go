@@ -44,10 +44,13 @@ var testOnlyFindToughSet = findToughSet
 // whose remaining neighbours lie in at most one component is put back,
 // which lowers |S| and loses no component. On a Kleetope the stacked
 // vertices (degree 3, pairwise non-adjacent) become I and S the old
-// vertices. The rule with the largest surplus (components − |S|) wins; nil
-// when none has a positive one with S non-empty (pruning can empty S, and
-// the empty set proves nothing). The result is a proposal: toughcert.Check
-// decides.
+// vertices: an old vertex has degree at least 6 and a stacked one 3, so the
+// rule for degree 3 takes all 2n − 4 stacked vertices, and every old vertex
+// touches three of them and stays in S — a surplus of n − 4, found for
+// every n >= 5. The rule with the largest surplus (components − |S|) wins;
+// nil when none has a positive one with S non-empty (pruning can empty S,
+// and the empty set proves nothing). The result is a proposal:
+// toughcert.Check decides.
 func findToughSet(g *graph.Graph) []int32 {
 	n := g.N()
 	if n < 3 {
@@ -134,8 +137,10 @@ func toughSetRule(g *graph.Graph, candidates []int32) ([]int32, int) {
 			comps--
 		}
 	}
-	// Prune until nothing changes: a vertex of S that touches at most one
-	// component goes back into the graph.
+	// Prune: a vertex of S that touches at most one component goes back
+	// into the graph. Putting a vertex back never merges two components, so
+	// no vertex kept in a pass can be put back later: the second pass
+	// changes nothing and ends the loop.
 	for changed := true; changed; {
 		changed = false
 		for v := range n {

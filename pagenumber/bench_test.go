@@ -2,6 +2,8 @@ package pagenumber
 
 import (
 	"context"
+	"fmt"
+	"math/rand/v2"
 	"os"
 	"testing"
 	"time"
@@ -106,5 +108,30 @@ func BenchmarkK9FourPages(b *testing.B) {
 				}
 			})
 		}
+	}
+}
+
+// BenchmarkToughness measures the toughness bound on Kleetopes of random
+// triangulations (3n − 4 vertices for n original ones): the search alone,
+// and the whole solver-free lower bound (planarity test and its check, the
+// search, toughcert.Check). The bound must be 3 (REFERENCES: a Kleetope of
+// a triangulation on n >= 5 vertices is not 1-tough, with Chvátal 1973).
+func BenchmarkToughness(b *testing.B) {
+	for _, n := range []int{20, 335, 1335} {
+		g := fixture.RandomFlippedTriangulation(rand.New(rand.NewPCG(1, uint64(n))), n, 3*n).Kleetope()
+		b.Run(fmt.Sprintf("search-%d", g.N()), func(b *testing.B) {
+			for b.Loop() {
+				if s := findToughSet(g); len(s) != n {
+					b.Fatalf("|S| = %d, want the %d old vertices", len(s), n)
+				}
+			}
+		})
+		b.Run(fmt.Sprintf("bound-%d", g.N()), func(b *testing.B) {
+			for b.Loop() {
+				if lb := stackLowerBounds(g); lb.Pages != 3 || lb.Source != SourceToughness {
+					b.Fatalf("%+v", lb)
+				}
+			}
+		})
 	}
 }

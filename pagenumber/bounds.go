@@ -22,6 +22,7 @@ const (
 	SourceEdgeCount  = "edge-count"      // too many edges for fewer pages
 	SourceNonPlanar  = "kuratowski"      // a checked Kuratowski subgraph
 	SourceNonOuter   = "kuratowski-apex" // a checked Kuratowski subgraph of G plus an apex
+	SourceToughness  = "toughness"       // maximal planar and a checked set leaving more components than its size
 	SourceUnsat      = "unsat"           // checked UNSAT for one page fewer
 	SourceLayout     = "layout"          // a layout that passed cert.Validate
 	SourceBlockUnsat = "unsat-block"     // checked UNSAT for one page fewer on a block of G
@@ -42,6 +43,11 @@ const (
 //     means outerplanar (Bernhart and Kainen 1979), so a checked Kuratowski
 //     subgraph of G gives 3, and one of G plus a vertex joined to all
 //     vertices (planar iff G is outerplanar: common practice) gives 2.
+//   - A maximal planar graph with a 2-page layout is Hamiltonian
+//     (Bernhart and Kainen 1979), and a Hamiltonian graph is 1-tough
+//     (Chvátal, Discrete Math. 5, 1973), so a checked planar embedding with
+//     3n − 6 edges and a set S whose removal leaves more than |S|
+//     components, accepted by toughcert.Check, gives 3 (see toughnessBound).
 func stackLowerBounds(g *graph.Graph) Bound {
 	n, m := g.N(), g.M()
 	if m == 0 {
@@ -56,8 +62,12 @@ func stackLowerBounds(g *graph.Graph) Bound {
 		}
 	}
 	if best.Pages < 3 {
-		if k, err := checkedKuratowski(g); err == nil && k != nil {
-			best = Bound{3, SourceNonPlanar, fmt.Sprintf("not planar: a %s subdivision (checked), and 2 pages need a planar graph", k.Kind)}
+		if res, err := planar.DecideChecked(g); err == nil {
+			if !res.Planar {
+				best = Bound{3, SourceNonPlanar, fmt.Sprintf("not planar: a %s subdivision (checked), and 2 pages need a planar graph", res.Cert.Kuratowski.Kind)}
+			} else if b, ok := toughnessBound(g, res.Cert.Embedding); ok {
+				best = b
+			}
 		}
 	}
 	if best.Pages < 2 {

@@ -34,6 +34,14 @@ func TestStackLowerBounds(t *testing.T) {
 		{"Petersen", fixture.Petersen(), 3, SourceNonPlanar},         // bt = 3
 		{"K23", fixture.CompleteBipartite(2, 3), 2, SourceNonOuter},  // K2,3 is not outerplanar; bt = 2
 		{"K1,5", fixture.CompleteBipartite(1, 5), 1, SourceTrivial},  // a tree: 1
+		// Maximal planar graphs: 3n-6 edges allow 2 pages by the count; the
+		// Goldner–Harary graph is not Hamiltonian, bt = 3 (REFERENCES), and
+		// removing its 5 bipyramid vertices leaves 6 components; the
+		// octahedron and icosahedron are Hamiltonian (Tutte 1956), bt = 2
+		// (Bernhart & Kainen 1979), so no set exists.
+		{"Goldner-Harary", fixture.GoldnerHarary(), 3, SourceToughness},
+		{"octahedron", fixture.Octahedron(), 2, SourceEdgeCount},
+		{"icosahedron", fixture.Icosahedron(), 2, SourceEdgeCount},
 		{"two triangles", fixture.MustNumbered(t, 5, [][2]int{{0, 1}, {1, 2}, {0, 2}, {2, 3}, {3, 4}, {2, 4}}), 1, SourceTrivial},
 	}
 	for _, tt := range tests {

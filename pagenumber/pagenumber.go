@@ -23,7 +23,7 @@ type Options struct {
 	Policy   verify.Policy   // zero value = verify.DefaultPolicy
 	Encoding dimacs.Options  // encoding toggles; Kind and Pages are set per step
 	// UnsatLower proves the lower bound with a checked UNSAT step even
-	// when a counting or planarity argument already gives it.
+	// when a theorem (edge count, planarity, toughness) already gives it.
 	UnsatLower bool
 	Heuristic  heuristic.Options
 	Progress   func(step int, e verify.Event) // solver and proof events of step (pages) K; may be nil
@@ -55,8 +55,13 @@ type Result struct {
 // improved by SAT steps. The lower bound comes from solver-free arguments
 // (see stackLowerBounds; also applied to every block, since a layout of g
 // restricts to one of each block) or from a checked UNSAT step for one page
-// fewer than the upper bound, decided by verify.Decide's rules. Steps go down from
-// the upper bound, so at most one UNSAT step is needed.
+// fewer than the upper bound, decided by verify.Decide's rules.
+//
+// The solver-free bounds come first, then the heuristic layout; when they
+// meet, Steps stays empty and no solver runs. Otherwise each SAT step asks
+// for one page fewer than the best layout so far and the walk goes on only
+// while steps find layouts, so at most one UNSAT step is needed. Steps
+// lists the SAT steps in the order they ran.
 func Compute(ctx context.Context, g *graph.Graph, opt Options) (*Result, error) {
 	start := time.Now()
 	res := &Result{Graph: g.ID(), Kind: opt.Kind.String(), PageNumber: -1}

@@ -25,3 +25,5 @@ for p in cert heuristic dimacs verify archive; do
   echo "-- $p"
   go test "./$p" -run XXX -bench . -benchtime 1x 2>/dev/null | grep -E '^Benchmark' || true
 done
+echo "-- pagenumber: the toughness bound on Kleetopes"
+go test ./pagenumber -run XXX -bench Toughness 2>/dev/null | grep -E '^Benchmark' || true

@@ -46,10 +46,17 @@ bound comes from an argument that needs no solver where one applies (no
 edges; too many edges for fewer pages, since k stack pages hold at most
 (k+1)n-3k edges; a checked Kuratowski subgraph, since two stack pages need
 a planar graph; a checked Kuratowski subgraph of the graph plus an apex,
-since one stack page needs an outerplanar graph; the same bounds on each
-block), or else from a "no layout" verdict for one page fewer, decided as
-"spinecert solve" decides it (two backends, a proof checked by spinecert).
---unsat-lower always proves the lower bound with that verdict.
+since one stack page needs an outerplanar graph; for a maximal planar
+graph, a checked set of vertices whose removal leaves more components than
+its size, since such a graph is not Hamiltonian and two stack pages would
+make it so; the same bounds on each block), or else from a "no layout"
+verdict for one page fewer, decided as "spinecert solve" decides it (two
+backends, a proof checked by spinecert). --unsat-lower always proves the
+lower bound with that verdict.
+
+When the bounds without a solver meet the heuristic layout, no solver
+runs; otherwise solver steps go down one page at a time from the best
+layout, and stop at the first "no layout".
 
 The exit status is 0 when the bounds meet, 3 when a solver step ends
 without a verdict (the bounds found so far are reported).`,
@@ -68,7 +75,7 @@ without a verdict (the bounds found so far are reported).`,
 	fl.StringVarP(&o.output, "output", "o", "", "write the layout behind the upper bound (JSON) to FILE")
 	fl.StringVar(&o.proofOut, "proof-out", "", "keep the proofs of every solver step in DIR/pages-K")
 	fl.BoolVar(&o.planar, "planar", false, "require a planar graph: fail (exit 1) when the checked planarity verdict says it is not")
-	fl.BoolVar(&o.unsatLower, "unsat-lower", false, "prove the lower bound by a checked UNSAT step even when a counting or planarity argument gives it")
+	fl.BoolVar(&o.unsatLower, "unsat-lower", false, "prove the lower bound by a checked UNSAT step even when a theorem (edge count, planarity, toughness) gives it")
 	fl.BoolVar(&o.enc.Baseline, "baseline", false, "solver steps use the published formulation without reductions")
 	fl.BoolVar(&o.enc.NoRotation, "no-rotation", false, "solver steps: stack: do not fix the first vertex on the spine")
 	fl.BoolVar(&o.enc.NoReflection, "no-reflection", false, "solver steps: do not fix the order of one pair of vertices")

@@ -1,14 +1,16 @@
 // Package layers holds a test that keeps spinecert's packages layered. Data
 // flows one way:
 //
-//	textpos → graph → cert, planar/planarcert → planar → heuristic, draw
-//	→ dimacs → proof → verify → pagenumber; archive beside verify;
-//	evidence on verify and archive
+//	textpos → graph → cert, planar/planarcert → planar, toughcert →
+//	heuristic, draw → dimacs → proof → verify → pagenumber; archive beside
+//	verify; evidence on verify and archive
 //
 // with cmd/spinecert on top. The planarity certificate checker
 // (planar/planarcert) imports only the graph model and the position errors,
 // so the compiler keeps it apart from the planarity test that produces the
-// certificates; archive re-checks proofs with proof and imports no solver
+// certificates; the toughness certificate checker (toughcert) imports only
+// the graph model and planarcert, so it shares no code with the search for
+// its sets in pagenumber; archive re-checks proofs with proof and imports no solver
 // code; the command-line library stays in cmd.
 package layers
 
@@ -33,12 +35,13 @@ var allowed = map[string][]string{
 	"cert":              {"graph", "textpos"},
 	"planar/planarcert": {"graph", "textpos"},
 	"planar":            {"graph", "planar/planarcert"},
+	"toughcert":         {"graph", "planar/planarcert"},
 	"heuristic":         {"graph", "cert", "planar", "planar/planarcert"},
 	"draw":              {"graph", "cert"},
 	"dimacs":            {"graph", "cert", "textpos"},
 	"proof":             {"dimacs", "textpos"},
 	"verify":            {"graph", "cert", "dimacs", "proof"},
-	"pagenumber":        {"graph", "cert", "dimacs", "planar", "planar/planarcert", "heuristic", "proof", "verify"},
+	"pagenumber":        {"graph", "cert", "dimacs", "planar", "planar/planarcert", "toughcert", "heuristic", "proof", "verify"},
 	"archive":           {"graph", "cert", "dimacs", "planar/planarcert", "proof", "textpos"},
 	"evidence":          {"graph", "cert", "dimacs", "planar", "planar/planarcert", "verify", "archive"},
 }
@@ -48,6 +51,7 @@ var allowed = map[string][]string{
 // the stages that make the inputs their tests need.
 var testOnly = map[string][]string{
 	"planar/planarcert": {"planar"},
+	"toughcert":         {"planar"},
 	"archive":           {"verify", "planar"},
 }
 

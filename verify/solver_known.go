@@ -33,11 +33,8 @@ var knownExternals = map[string]knownExternal{
 	"cryptominisat": {program: "cryptominisat5", argv: cryptominisatArgv, versionArg: "--version", versionCut: "c CryptoMiniSat version "},
 }
 
-// DefaultSolvers are the backends used when none are named: the two
-// in-process ones, always available.
-var DefaultSolvers = []string{"gophersat", "gini"}
-
-// KnownSolvers returns the backend names ByName accepts.
+// KnownSolvers returns the backend names ByName accepts (Auto is a list
+// name, expanded by ExpandAuto, not a backend).
 func KnownSolvers() []string {
 	return []string{"gophersat", "gini", "cadical", "kissat", "minisat", "cryptominisat"}
 }

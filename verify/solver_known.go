@@ -13,27 +13,30 @@ import (
 
 // knownExternal describes how to run a solver program spinecert knows by name.
 type knownExternal struct {
+	program     string   // name looked up on PATH, when it differs from the backend name
 	argv        []string // after the program path
 	proofFormat string
 	versionArg  string
+	versionCut  string // removed from the front of the version line
 }
 
 // knownExternals are the external solvers spinecert runs by name when they are
 // on PATH. Debian's cadical and kissat write binary DRAT to their second
 // argument by default; minisat writes no proof and its answer to a file.
+// Debian's cryptominisat5 (package cryptominisat) answers in the SAT
+// competition style; the proof it can write is FRAT, which spinecert does not
+// read, so it runs without one (see cryptominisatArgv).
 var knownExternals = map[string]knownExternal{
-	"cadical": {argv: []string{"-q", ArgCNF, ArgProof}, proofFormat: proof.DRATBinary, versionArg: "--version"},
-	"kissat":  {argv: []string{"-q", ArgCNF, ArgProof}, proofFormat: proof.DRATBinary, versionArg: "--version"},
-	"minisat": {argv: []string{"-verb=0", ArgCNF, ArgResult}},
+	"cadical":       {argv: []string{"-q", ArgCNF, ArgProof}, proofFormat: proof.DRATBinary, versionArg: "--version"},
+	"kissat":        {argv: []string{"-q", ArgCNF, ArgProof}, proofFormat: proof.DRATBinary, versionArg: "--version"},
+	"minisat":       {argv: []string{"-verb=0", ArgCNF, ArgResult}},
+	"cryptominisat": {program: "cryptominisat5", argv: cryptominisatArgv, versionArg: "--version", versionCut: "c CryptoMiniSat version "},
 }
 
-// DefaultSolvers are the backends used when none are named: the two
-// in-process ones, always available.
-var DefaultSolvers = []string{"gophersat", "gini"}
-
-// KnownSolvers returns the backend names ByName accepts.
+// KnownSolvers returns the backend names ByName accepts (Auto is a list
+// name, expanded by ExpandAuto, not a backend).
 func KnownSolvers() []string {
-	return []string{"gophersat", "gini", "cadical", "kissat", "minisat"}
+	return []string{"gophersat", "gini", "cadical", "kissat", "minisat", "cryptominisat"}
 }
 
 // ByName returns the backend called name. gophersat is started through
@@ -53,9 +56,13 @@ func ByName(name string, child ChildCommand) (Solver, error) {
 	if !ok {
 		return nil, fmt.Errorf("%w: unknown solver %q (known: %s)", ErrNoSolver, name, strings.Join(KnownSolvers(), ", "))
 	}
-	path, err := exec.LookPath(name)
+	program := name
+	if k.program != "" {
+		program = k.program
+	}
+	path, err := exec.LookPath(program)
 	if err != nil {
-		return nil, fmt.Errorf("%w: solver %s not found on PATH", ErrNoSolver, name)
+		return nil, fmt.Errorf("%w: solver %s not found on PATH (program %s)", ErrNoSolver, name, program)
 	}
 	ext := &External{
 		Label:       name,
@@ -63,7 +70,7 @@ func ByName(name string, child ChildCommand) (Solver, error) {
 		ProofFormat: k.proofFormat,
 	}
 	if k.versionArg != "" {
-		ext.Version = programVersion(path, k.versionArg)
+		ext.Version = strings.TrimPrefix(programVersion(path, k.versionArg), k.versionCut)
 	}
 	return ext, nil
 }

@@ -29,7 +29,8 @@ type solveSolverFlags struct {
 func (f *solveSolverFlags) add(cmd *cobra.Command) {
 	fl := cmd.Flags()
 	fl.StringVar(&f.solvers, "solvers", strings.Join(verify.DefaultSolvers, ","),
-		"comma-separated backends: "+strings.Join(verify.KnownSolvers(), ", ")+" (external ones must be on PATH)")
+		"comma-separated backends: "+strings.Join(verify.KnownSolvers(), ", ")+" (external ones must be on PATH), "+
+			"or auto: cadical (else gophersat) and cryptominisat (else gini), as found on PATH")
 	fl.StringArrayVar(&f.solverCmd, "solver-cmd", nil,
 		`an extra external solver command line, e.g. "mysolver -q {cnf} {proof}" (repeatable; `+
 			`{cnf} is the input, appended when absent; {proof} receives a DRAT proof)`)
@@ -48,11 +49,7 @@ func (f *solveSolverFlags) build() ([]verify.Solver, error) {
 	}
 	var out []verify.Solver
 	seen := map[string]bool{}
-	for _, name := range strings.Split(f.solvers, ",") {
-		name = strings.TrimSpace(name)
-		if name == "" {
-			continue
-		}
+	for _, name := range verify.ExpandAuto(strings.Split(f.solvers, ",")) {
 		if seen[name] {
 			return nil, usageErr(fmt.Errorf("--solvers names %s twice", name))
 		}
@@ -100,10 +97,13 @@ func newSolveCmd() *cobra.Command {
 		Long: `Decide whether GRAPH has a layout of the given kind on K pages.
 
 The claim is encoded as CNF (as "spinecert encode" writes it) and given to
-several solver backends in parallel: by default gophersat and gini, which
-are built in; cadical, kissat and minisat when on PATH; any other DIMACS
-solver with --solver-cmd (SAT competition conventions: "s" and "v" lines,
-exit status 10 or 20).
+several solver backends in parallel. The default, --solvers auto, is
+cadical (it writes the DRAT proof spinecert checks) and cryptominisat when
+they are on PATH, with the built-in gophersat (a proof writer too) and gini
+in place of the ones that are not. Named ones: the built-in gophersat and gini;
+cadical, kissat, minisat and cryptominisat (program cryptominisat5) when on
+PATH; any other DIMACS solver with --solver-cmd (SAT competition
+conventions: "s" and "v" lines, exit status 10 or 20).
 
   - A model is checked against every clause, decoded into a layout and the
     layout is checked directly; it is written with -o and the exit status

@@ -23,11 +23,19 @@ type GraphOptions struct {
 	StopOnModel bool        // see RunOptions
 	AllProofs   bool        // check every proof, not only as many as Policy needs
 	Progress    func(Event) // may be nil
+	// Obstruction, when not nil, first looks for a small subgraph H with no
+	// layout (FindObstruction) and decides the claim for H: if H is refuted
+	// with the full policy, so is g (every layout of g restricts to one of
+	// H; graph.CheckSubgraph confirms H ⊆ g). Otherwise g is decided whole.
+	Obstruction *ObstructionOptions
 }
 
 // GraphVerdict is the decision about "g has a layout of this kind on K pages".
 type GraphVerdict struct {
-	Verdict  *Verdict         `json:"verdict"`
+	Verdict *Verdict `json:"verdict"`
+	// Subgraph, when not nil, is the subgraph H of g whose refutation the
+	// verdict is (Unsatisfiable only): the CNF, results and proofs are H's.
+	Subgraph *SubgraphRecord `json:"subgraph,omitempty"`
 	Results  []*Result        `json:"results"`
 	Checks   []ProofCheck     `json:"proof_checks,omitempty"`
 	Layout   *cert.Layout     `json:"-"` // a layout that passed cert.Validate (Satisfiable only)
@@ -48,6 +56,31 @@ type GraphVerdict struct {
 // if that check fails the verdict is turned into a conflict, since the
 // claim cannot then be trusted either way.
 func DecideLayout(ctx context.Context, g *graph.Graph, opt GraphOptions) (*GraphVerdict, error) {
+	if o := opt.Obstruction; o != nil && o.Oracle != nil {
+		start := time.Now()
+		ob, err := FindObstruction(ctx, g, opt.Encoding, *o)
+		if err != nil {
+			return nil, err
+		}
+		if ob != nil {
+			if err := graph.CheckSubgraph(ob.Graph, g); err != nil {
+				return nil, fmt.Errorf("verify: the obstruction found is not a subgraph (a bug): %w", err)
+			}
+			sub := opt
+			sub.Obstruction = nil
+			gv, err := DecideLayout(ctx, ob.Graph, sub)
+			if err != nil {
+				return nil, err
+			}
+			if gv.Verdict.Outcome == Unsatisfiable {
+				h := ob.Graph
+				gv.Subgraph = &SubgraphRecord{Graph: h, ID: h.ID(), Vertices: h.N(), Edges: h.M(), Start: ob.Start, OracleCalls: ob.Calls, Search: ob.Search}
+				gv.Verdict.Checked = append(gv.Verdict.Checked, fmt.Sprintf("the refuted graph is a subgraph of this one (%d of %d vertices, %d of %d edges; graph.CheckSubgraph), and every layout of a graph restricts to its subgraphs", h.N(), g.N(), h.M(), g.M()))
+				gv.Elapsed = time.Since(start)
+				return gv, nil
+			}
+		}
+	}
 	start := time.Now()
 	enc, err := dimacs.Encode(g, opt.Encoding)
 	if err != nil {
@@ -150,4 +183,29 @@ func (gv *GraphVerdict) CheckedProof() (path, format string, ok bool) {
 		}
 	}
 	return "", "", false
+}
+
+// SubgraphRecord describes the subgraph whose refutation a verdict is.
+type SubgraphRecord struct {
+	Graph       *graph.Graph  `json:"-"`
+	ID          string        `json:"graph"`
+	Vertices    int           `json:"vertices"`
+	Edges       int           `json:"edges"`
+	Start       string        `json:"start"` // the vertex the search grew it from
+	OracleCalls int           `json:"oracle_calls"`
+	Search      time.Duration `json:"search_ns"`
+}
+
+// QuickOracle picks the backend that answers FindObstruction's trial
+// questions: the first of solvers that runs outside spinecert and is not
+// minisat (cadical, cryptominisat, kissat are fast on these small CNFs),
+// else gini, in process.
+func QuickOracle(solvers []Solver) Solver {
+	for _, s := range solvers {
+		switch s.Name() {
+		case "cadical", "cryptominisat", "kissat":
+			return s
+		}
+	}
+	return Gini{}
 }

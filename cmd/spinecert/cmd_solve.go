@@ -15,6 +15,7 @@ import (
 
 	"spinecert.dev/cert"
 	"spinecert.dev/dimacs"
+	"spinecert.dev/graph"
 	"spinecert.dev/verify"
 )
 
@@ -24,7 +25,12 @@ type solveSolverFlags struct {
 	solverCmd []string
 	timeLimit time.Duration
 	quiet     bool
+	subgraph  string
 }
+
+// subgraphAuto is the size from which --subgraph auto looks for a small
+// refutable subgraph first.
+const subgraphAuto = 100
 
 func (f *solveSolverFlags) add(cmd *cobra.Command) {
 	fl := cmd.Flags()
@@ -36,12 +42,26 @@ func (f *solveSolverFlags) add(cmd *cobra.Command) {
 			`{cnf} is the input, appended when absent; {proof} receives a DRAT proof)`)
 	fl.DurationVar(&f.timeLimit, "time-limit", 10*time.Minute, "time limit for each solver run (0 = none)")
 	fl.BoolVar(&f.quiet, "quiet", false, "no progress display on stderr")
+	fl.StringVar(&f.subgraph, "subgraph", "auto", fmt.Sprintf("refute a small subgraph first (every layout restricts to subgraphs): on, off, or auto (graphs with more than %d vertices)", subgraphAuto))
+}
+
+// obstruction returns the subgraph search for g, or nil when it is off.
+func (f *solveSolverFlags) obstruction(g *graph.Graph, solvers []verify.Solver) *verify.ObstructionOptions {
+	if f.subgraph == "off" || (f.subgraph == "auto" && g.N() <= subgraphAuto) {
+		return nil
+	}
+	return &verify.ObstructionOptions{Oracle: verify.QuickOracle(solvers), CallLimit: min(f.timeLimit, 30*time.Second)}
 }
 
 // build returns the backends the flags name.
 func (f *solveSolverFlags) build() ([]verify.Solver, error) {
 	if f.timeLimit < 0 {
 		return nil, usageErr(fmt.Errorf("--time-limit must not be negative"))
+	}
+	switch f.subgraph {
+	case "auto", "on", "off":
+	default:
+		return nil, usageErr(fmt.Errorf("--subgraph %q: expected auto, on or off", f.subgraph))
 	}
 	child, err := verify.SelfChild(verify.GophersatChild)
 	if err != nil {
@@ -153,11 +173,12 @@ func runSolve(cmd *cobra.Command, o *solveOptions) error {
 	}
 	prog := newSolveProgress(cmd.ErrOrStderr(), o.solver.quiet, solvers)
 	gv, err := verify.DecideLayout(cmd.Context(), g, verify.GraphOptions{
-		Encoding: opt,
-		Solvers:  solvers,
-		Limit:    o.solver.timeLimit,
-		ProofDir: o.proofOut,
-		Progress: prog.event,
+		Encoding:    opt,
+		Solvers:     solvers,
+		Limit:       o.solver.timeLimit,
+		ProofDir:    o.proofOut,
+		Progress:    prog.event,
+		Obstruction: o.solver.obstruction(g, solvers),
 	})
 	prog.finish()
 	if err := interruption(cmd.Context()); err != nil {

@@ -35,7 +35,7 @@ type GraphVerdict struct {
 	Verdict *Verdict `json:"verdict"`
 	// Subgraph, when not nil, is the subgraph H of g whose refutation the
 	// verdict is (Unsatisfiable only): the CNF, results and proofs are H's.
-	Subgraph *SubgraphRecord `json:"subgraph,omitempty"`
+	Subgraph *SubgraphRecord  `json:"subgraph,omitempty"`
 	Results  []*Result        `json:"results"`
 	Checks   []ProofCheck     `json:"proof_checks,omitempty"`
 	Layout   *cert.Layout     `json:"-"` // a layout that passed cert.Validate (Satisfiable only)

@@ -26,6 +26,7 @@ const (
 	memberPlanarity  = "planarity.json"
 	memberCNF        = "cnf/claim.cnf"
 	memberForeignCNF = "cnf/foreign.cnf"
+	memberSubgraph   = "graph/subgraph.txt"
 )
 
 // Evidence is what goes into a bundle.
@@ -56,6 +57,9 @@ type RefutationInput struct {
 	Proof       string         // path of the proof file
 	ProofFormat string         // drat, drat-binary or lrat; "" = detect
 	ForeignCNF  string         // path of a CNF made elsewhere that the proof refutes, or ""
+	// Subgraph, when not nil, is the subgraph of the claim's graph that the
+	// proof refutes (labelled as in the graph; graph.CheckSubgraph must hold).
+	Subgraph *graph.Graph
 }
 
 func inputExt(f graph.Format) string {
@@ -218,7 +222,22 @@ func buildRefutation(ctx context.Context, ev *Evidence, enc Encoder, tmpDir stri
 	if err != nil {
 		return nil, nil, err
 	}
-	cnf, err := enc.Encode(ev.Graph, opt)
+	target := ev.Graph
+	var subSrc *Source
+	var subEntry *SubgraphEntry
+	if h := in.Subgraph; h != nil {
+		if err := graph.CheckSubgraph(h, ev.Graph); err != nil {
+			return nil, nil, fmt.Errorf("%w: %w", ErrRejected, err)
+		}
+		var b bytes.Buffer
+		if err := graph.WriteEdgeList(&b, h); err != nil {
+			return nil, nil, fmt.Errorf("archive: writing the subgraph: %w", err)
+		}
+		src := BytesSource(memberSubgraph, b.Bytes())
+		subSrc, target = &src, h
+		subEntry = &SubgraphEntry{Member: memberSubgraph, GraphID: h.ID(), Vertices: h.N(), Edges: h.M()}
+	}
+	cnf, err := enc.Encode(target, opt)
 	if err != nil {
 		return nil, nil, fmt.Errorf("archive: encoding the claim: %w", err)
 	}
@@ -226,12 +245,15 @@ func buildRefutation(ctx context.Context, ev *Evidence, enc Encoder, tmpDir stri
 	if err != nil {
 		return nil, nil, err
 	}
-	r := &Refutation{Pages: opt.Pages, Encoder: EncoderEntry{Version: enc.Version(), Options: optJSON}, Runs: in.Runs}
+	r := &Refutation{Subgraph: subEntry, Pages: opt.Pages, Encoder: EncoderEntry{Version: enc.Version(), Options: optJSON}, Runs: in.Runs}
 	for _, k := range kinds {
 		r.PageKinds = append(r.PageKinds, k.String())
 	}
 	r.CNF = CNFEntry{SHA256: sum, Vars: cnf.Vars, Clauses: len(cnf.Clauses), Source: CNFOwn}
 	var srcs []Source
+	if subSrc != nil {
+		srcs = append(srcs, *subSrc)
+	}
 	checkAgainst := cnf
 	if in.ForeignCNF != "" {
 		fsum, _, err := hashFile(in.ForeignCNF)

@@ -105,12 +105,25 @@ type LayoutRecord struct {
 
 // Refutation is the evidence that no layout with Pages pages exists.
 type Refutation struct {
-	Pages     int          `json:"pages"` // K-1
-	PageKinds []string     `json:"page_kinds"`
-	Encoder   EncoderEntry `json:"encoder"`
-	CNF       CNFEntry     `json:"cnf"`
-	Runs      []Run        `json:"runs"`
-	Proofs    []Proof      `json:"proofs"`
+	// Subgraph, when present, names the subgraph of the claim's graph that
+	// the CNF encodes: its refutation refutes the graph, since every layout
+	// restricts to its subgraphs. Absent, the CNF encodes the graph itself.
+	Subgraph  *SubgraphEntry `json:"subgraph,omitempty"`
+	Pages     int            `json:"pages"` // K-1
+	PageKinds []string       `json:"page_kinds"`
+	Encoder   EncoderEntry   `json:"encoder"`
+	CNF       CNFEntry       `json:"cnf"`
+	Runs      []Run          `json:"runs"`
+	Proofs    []Proof        `json:"proofs"`
+}
+
+// SubgraphEntry is the subgraph a refutation is about: an edge list member
+// whose labels are labels of the claim's graph.
+type SubgraphEntry struct {
+	Member   string `json:"member"`
+	GraphID  string `json:"graph_id"`
+	Vertices int    `json:"vertices"`
+	Edges    int    `json:"edges"`
 }
 
 // EncoderEntry records the encoder that made the CNF; Options is the encoder's
@@ -332,6 +345,18 @@ func (m *Manifest) Validate() error {
 		}
 		if r.Encoder.Version == "" {
 			bad("refutation.encoder.version is empty")
+		}
+		if sg := r.Subgraph; sg != nil {
+			name("refutation.subgraph.member", sg.Member)
+			if !strings.HasPrefix(sg.Member, "graph/") {
+				bad("refutation.subgraph.member %q is not under graph/", sg.Member)
+			}
+			if !isHex64(sg.GraphID) || sg.Vertices < 0 || sg.Edges < 0 {
+				bad("refutation.subgraph: a graph_id of 64 lowercase hex digits and counts >= 0 are required")
+			}
+			if sg.Vertices > c.Vertices || sg.Edges > c.Edges {
+				bad("refutation.subgraph has n=%d m=%d, more than the claim's graph (n=%d m=%d)", sg.Vertices, sg.Edges, c.Vertices, c.Edges)
+			}
 		}
 		if t := bytes.TrimSpace(r.Encoder.Options); len(t) == 0 || t[0] != '{' {
 			bad("refutation.encoder.options must be a JSON object")

@@ -49,10 +49,14 @@ type Request struct {
 	RequirePlanar      bool // fail with ErrNotPlanar unless the graph is planar (implies Planarity)
 	Solvers            []verify.Solver
 	Limit              time.Duration // per solver run; 0 = none
-	ToolVersion        string
-	Tool               string
-	Created            string // RFC 3339 or ""
-	IncludeCNF         bool
+	// Obstruction, when not nil, lets a lower bound rest on a small subgraph
+	// (verify.FindObstruction): the bundle then stores the subgraph, and
+	// archive and verify check that it is one.
+	Obstruction *verify.ObstructionOptions
+	ToolVersion string
+	Tool        string
+	Created     string // RFC 3339 or ""
+	IncludeCNF  bool
 }
 
 // NeedsSolvers reports whether r needs solver backends: an upper bound
@@ -176,6 +180,7 @@ func lower(ctx context.Context, r *Request, kind cert.Kind, pageKinds []cert.Kin
 	}
 	gv, err := verify.DecideLayout(ctx, r.Graph, verify.GraphOptions{
 		Encoding: ropt, Solvers: r.Solvers, Limit: r.Limit, ProofDir: filepath.Join(tmpDir, "lower"),
+		Obstruction: r.Obstruction,
 	})
 	if err != nil {
 		return nil, fmt.Errorf("evidence: %w", err)
@@ -189,6 +194,9 @@ func lower(ctx context.Context, r *Request, kind cert.Kind, pageKinds []cert.Kin
 	}
 	for _, res := range gv.Results {
 		ref.Runs = append(ref.Runs, archive.Run{Backend: res.Backend, Version: res.Version, Answer: strings.ToLower(res.Answer.String()), Seconds: res.Elapsed.Seconds()})
+	}
+	if gv.Subgraph != nil {
+		ref.Subgraph = gv.Subgraph.Graph
 	}
 	var ok bool
 	if ref.Proof, ref.ProofFormat, ok = gv.CheckedProof(); !ok {

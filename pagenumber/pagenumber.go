@@ -27,6 +27,9 @@ type Options struct {
 	UnsatLower bool
 	Heuristic  heuristic.Options
 	Progress   func(step int, e verify.Event) // solver and proof events of step (pages) K; may be nil
+	// Obstruction lets a refutation step rest on a small subgraph (see
+	// verify.GraphOptions.Obstruction); nil decides the whole graph.
+	Obstruction *verify.ObstructionOptions
 }
 
 // Step is one SAT step: the claim "a layout on Pages pages".
@@ -102,7 +105,7 @@ func Compute(ctx context.Context, g *graph.Graph, opt Options) (*Result, error) 
 		k := res.Upper.Pages - 1
 		eo := opt.Encoding
 		eo.Kind, eo.Pages, eo.PageKinds = opt.Kind, k, nil
-		gopt := verify.GraphOptions{Encoding: eo, Solvers: opt.Solvers, Limit: opt.Limit, Policy: opt.Policy, StopOnModel: true}
+		gopt := verify.GraphOptions{Encoding: eo, Solvers: opt.Solvers, Limit: opt.Limit, Policy: opt.Policy, StopOnModel: true, Obstruction: opt.Obstruction}
 		if opt.ProofDir != "" {
 			gopt.ProofDir = filepath.Join(opt.ProofDir, "pages-"+strconv.Itoa(k))
 		}

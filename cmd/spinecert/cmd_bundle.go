@@ -222,6 +222,7 @@ func runBundle(cmd *cobra.Command, o *bundleOptions) error {
 		if req.Solvers, err = o.solver.build(); err != nil {
 			return err
 		}
+		req.Obstruction = o.solver.obstruction(g, req.Solvers)
 	}
 	out := o.output
 	if out == "" {

@@ -119,12 +119,13 @@ func runPageNumber(cmd *cobra.Command, o *pageNumberOptions) error {
 	prog := newSolveProgress(cmd.ErrOrStderr(), o.solver.quiet, solvers)
 	step := -1
 	res, err := pagenumber.Compute(cmd.Context(), g, pagenumber.Options{
-		Kind:       kind,
-		Solvers:    solvers,
-		Limit:      o.solver.timeLimit,
-		ProofDir:   o.proofOut,
-		Encoding:   o.enc,
-		UnsatLower: o.unsatLower,
+		Kind:        kind,
+		Solvers:     solvers,
+		Limit:       o.solver.timeLimit,
+		ProofDir:    o.proofOut,
+		Encoding:    o.enc,
+		UnsatLower:  o.unsatLower,
+		Obstruction: o.solver.obstruction(g, solvers),
 		Progress: func(k int, e verify.Event) {
 			if k != step {
 				step = k

@@ -21,6 +21,7 @@ func main() {
 	t := flag.Int("t", 135, "vertices of the stacked triangulation (the Kleetope has 3t-4)")
 	seed := flag.Uint64("seed", 1, "random seed")
 	out := flag.String("o", "kleetope.edges", "edge list to write")
+	count := flag.Bool("count", false, "also print the size of the full on-demand formula for 2 pages")
 	flag.Parse()
 	if *t < 4 {
 		fmt.Fprintln(os.Stderr, "kleetopegen: -t must be at least 4")
@@ -42,4 +43,7 @@ func main() {
 		os.Exit(2)
 	}
 	fmt.Fprintf(os.Stderr, "kleetopegen: wrote %s: %d vertices, %d edges\n", *out, g.N(), g.M())
+	if *count {
+		fullSize(g)
+	}
 }

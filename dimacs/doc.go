@@ -182,6 +182,59 @@
 // spine orders for every graph on up to 7 vertices, with the reductions
 // on and off; the CNFs are solved by Debian's cadical.
 //
+// # The on-demand formulation
+//
+// [NewOnDemand] gives the formula F of a claim (version [OnDemandVersion])
+// in a form whose clauses can be produced one group at a time, so that a
+// solver loop can work on a sub-formula F′ ⊆ F (see verify.Refine) and a
+// checker can confirm F′ ⊆ F without building F. Its variables are named
+// by what they mean ([VarName]): o(u,v) for u < v, "u before v", and
+// φ(e,p), "edge e on page p". Its clauses come in groups:
+//
+//   - [OnDemand.TripleClauses] for vertices u < v < w: the two clauses
+//     forbidding the cyclic orientations, (¬o(u,v) ∨ ¬o(v,w) ∨ o(u,w)) and
+//     (o(u,v) ∨ o(v,w) ∨ ¬o(u,w));
+//   - [OnDemand.PageClause] for edge e: e is on some page;
+//   - [OnDemand.ConflictClauses] for disjoint edges e < f and page p: for each
+//     of the eight orders x1 x2 x3 x4 of their ends in which they cross (a
+//     stack page) or nest (a queue page), ¬φ(e,p) ∨ ¬φ(f,p) ∨ ¬[x1<x2] ∨
+//     ¬[x2<x3] ∨ ¬[x3<x4], where [x<y] is o(x,y) for x < y and ¬o(y,x) else.
+//
+// Symmetry breaking fixes variables and substitutes them (a clause a fixed
+// literal satisfies disappears, a fixed false literal is dropped): rotation
+// (all pages stack) fixes o(0,v) true for every v; reflection fixes o(1,2)
+// with rotation, else o(0,1); page symmetry fixes φ(e,p) false when p's rank
+// among the pages of its kind exceeds e. Their soundness is the argument of
+// the default formulation above with twins off.
+//
+// F is satisfiable if and only if the graph has the layout: a layout gives
+// the spine order and pages, which satisfy every clause (the order is
+// transitive, no two edges of a page cross or nest); conversely the order
+// variables of a model form a tournament without 3-cycles, which is a
+// linear order, and an edge placed on a page of its true page variable
+// meets no edge of that page in a crossing (nesting) order, since the
+// clause of that order would be false. The test TestOnDemandExhaustive
+// checks F against brute force for every graph on up to 7 vertices with
+// every combination of the symmetry breakers.
+//
+// Membership ([CheckMembership]). A sub-formula is stored as a CNF with a
+// name for every variable ([WriteVars], [ReadVars]). The check maps each
+// clause back to named literals and recognises its group from them alone:
+// no page literal means a transitivity clause, whose three vertices are
+// those of its order literals; only positive page literals of one edge mean
+// that edge's page clause; two negative page literals of one page and two
+// edges mean that pair's conflict clauses. It then generates that one group
+// with the functions above and requires the clause, as a set of literals,
+// to be one of them. Soundness: if every clause of F′ is a clause of F (a
+// name map that is one to one, so a variable of F′ is a variable of F),
+// any model of F satisfies F′; so F′ unsatisfiable implies F unsatisfiable,
+// and then the claim has no layout. A mistake in recognising a group can
+// only reject a clause of F, never accept one outside it, because what is
+// accepted is always compared with a generated clause of F. The tests
+// compare the checker with F built in full on random graphs, accept every
+// clause of F in any numbering, and reject mutated clauses (fuzzed too).
+//
+// # Versions
 // # Versions
 //
 // [EncoderVersion] is written in every CNF header. [EncodeVersion] reproduces

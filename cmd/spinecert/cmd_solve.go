@@ -16,6 +16,7 @@ import (
 	"spinecert.dev/cert"
 	"spinecert.dev/dimacs"
 	"spinecert.dev/graph"
+	"spinecert.dev/heuristic"
 	"spinecert.dev/verify"
 )
 
@@ -43,6 +44,18 @@ func (f *solveSolverFlags) add(cmd *cobra.Command) {
 	fl.DurationVar(&f.timeLimit, "time-limit", 10*time.Minute, "time limit for each solver run (0 = none)")
 	fl.BoolVar(&f.quiet, "quiet", false, "no progress display on stderr")
 	fl.StringVar(&f.subgraph, "subgraph", "auto", fmt.Sprintf("refute a small subgraph first (every layout restricts to subgraphs): on, off, or auto (graphs with more than %d vertices)", subgraphAuto))
+}
+
+// quickLayout asks the layout heuristics (constructions included) for a
+// layout before any solver runs; verify.DecideLayout checks it directly.
+func quickLayout(kind cert.Kind) func(*graph.Graph) (*cert.Layout, string) {
+	return func(g *graph.Graph) (*cert.Layout, string) {
+		l, err := heuristic.Find(g, kind, heuristic.Options{Seed: 1, TimeLimit: 2 * time.Second})
+		if err != nil {
+			return nil, ""
+		}
+		return l, "spinecert layout (heuristic)"
+	}
 }
 
 // obstruction returns the subgraph search for g, or nil when it is off.
@@ -107,6 +120,7 @@ type solveOptions struct {
 	output   string
 	json     bool
 	graphArg string
+	quick    bool
 }
 
 func newSolveCmd() *cobra.Command {
@@ -147,6 +161,7 @@ Progress goes to stderr when it is a terminal (not with --quiet).`,
 	o.claim.add(cmd)
 	o.solver.add(cmd)
 	cmd.Flags().StringVar(&o.proofOut, "proof-out", "", "keep the solvers' proofs and their LRAT translations in DIR")
+	cmd.Flags().BoolVar(&o.quick, "heuristic", true, "first try a layout from spinecert's layout heuristics (checked directly); no solver runs if it fits")
 	cmd.Flags().StringVarP(&o.output, "output", "o", "", "write the layout (JSON) to FILE when one is found (- for stdout)")
 	cmd.Flags().BoolVar(&o.json, "json", false, "print one JSON object on stdout")
 	return cmd
@@ -172,7 +187,12 @@ func runSolve(cmd *cobra.Command, o *solveOptions) error {
 		return err
 	}
 	prog := newSolveProgress(cmd.ErrOrStderr(), o.solver.quiet, solvers)
+	var quick func(*graph.Graph) (*cert.Layout, string)
+	if o.quick {
+		quick = quickLayout(opt.Kind)
+	}
 	gv, err := verify.DecideLayout(cmd.Context(), g, verify.GraphOptions{
+		Quick:       quick,
 		Encoding:    opt,
 		Solvers:     solvers,
 		Limit:       o.solver.timeLimit,
@@ -280,7 +300,9 @@ func printSolveReport(w io.Writer, claim string, gv *verify.GraphVerdict) {
 	for _, m := range v.Missing {
 		fmt.Fprintf(w, "  missing: %s\n", m)
 	}
-	fmt.Fprintf(w, "  encoding: %d variables, %d clauses (%s)\n", gv.Vars, gv.Clauses, gv.Options)
+	if gv.CNF != nil {
+		fmt.Fprintf(w, "  encoding: %d variables, %d clauses (%s)\n", gv.Vars, gv.Clauses, gv.Options)
+	}
 	for _, r := range gv.Results {
 		line := fmt.Sprintf("  %s", r.Backend)
 		if r.Version != "" {

@@ -38,7 +38,7 @@ func TestInterrupt(t *testing.T) {
 		sig   syscall.Signal
 	}{
 		// gini finds a layout at once; the command waits for the other solver.
-		{"solve-layout", completeGraph(5), "k5.json", []string{"solve", "--quiet", "g.edges", "--pages", "3", "--solvers", "gini", "-o", "k5.json"}, syscall.SIGINT},
+		{"solve-layout", completeGraph(5), "k5.json", []string{"solve", "--quiet", "--heuristic=false", "g.edges", "--pages", "3", "--solvers", "gini", "-o", "k5.json"}, syscall.SIGINT},
 		// The in-process solvers are at work on a hard formula (a dense
 		// random graph on 4 pages) when the signal comes.
 		{"solve-hard", randomGraph(32, 0.5), "g.json", []string{"solve", "--quiet", "g.edges", "--pages", "4", "-o", "g.json"}, syscall.SIGINT},

@@ -3,6 +3,7 @@ package dimacs
 import (
 	"fmt"
 	"slices"
+	"strings"
 
 	"spinecert.dev/cert"
 	"spinecert.dev/graph"
@@ -122,21 +123,11 @@ func (f *OnDemand) Describe() string {
 		for i, k := range f.kinds {
 			names[i] = k.String()
 		}
-		d += " page-kinds=" + joinComma(names)
+		d += " page-kinds=" + strings.Join(names, ",")
 	}
-	return d + " formulation=on-demand reductions=" + joinComma(r)
+	return d + " formulation=on-demand reductions=" + strings.Join(r, ",")
 }
 
-func joinComma(s []string) string {
-	out := ""
-	for i, x := range s {
-		if i > 0 {
-			out += ","
-		}
-		out += x
-	}
-	return out
-}
 
 // Fixed reports whether symmetry breaking fixes v, and to what: such a
 // variable appears in no clause of the formulation, its value substituted.

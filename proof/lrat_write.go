@@ -56,7 +56,7 @@ func (g *lratLog) setHints(c int, hints []int) {
 func (g *lratLog) appendLits(k *dratChecker, c int) {
 	ls := k.lits(c)
 	if len(ls) > 0 {
-		p := k.cls[c].pivot
+		p := k.pivotOf(c)
 		g.line = strconv.AppendInt(g.line, int64(k.extLit(p)), 10)
 		g.line = append(g.line, ' ')
 		for _, l := range ls {
@@ -110,7 +110,7 @@ func (g *lratLog) forwardAdd(k *dratChecker, c int) error {
 	g.line = append(g.line, ' ')
 	g.appendLits(k, c)
 	hints := k.hints
-	if k.cls[c].flags&flagTaut != 0 {
+	if k.flags[c]&flagTaut != 0 {
 		hints = nil
 	}
 	g.appendHints(hints, sameID)
@@ -143,7 +143,7 @@ func (g *lratLog) finish(id func(int) int64) error {
 // order, the deletions that concern clauses present in the output, and the
 // empty clause.
 func (g *lratLog) writeBackward(k *dratChecker, conflictStep int64) error {
-	ids := make([]int64, len(k.cls)-g.nOrig)
+	ids := make([]int64, len(k.flags)-g.nOrig)
 	id := func(c int) int64 {
 		if c < g.nOrig {
 			return int64(c) + 1
@@ -153,8 +153,8 @@ func (g *lratLog) writeBackward(k *dratChecker, conflictStep int64) error {
 	for _, s := range k.steps[:conflictStep] {
 		switch s.kind {
 		case stepAdd:
-			c := s.c
-			if k.cls[c].flags&flagCore == 0 || len(k.lits(c)) == 0 {
+			c := int(s.c)
+			if k.flags[c]&flagCore == 0 || k.size(c) == 0 {
 				continue
 			}
 			g.lastID++
@@ -168,7 +168,7 @@ func (g *lratLog) writeBackward(k *dratChecker, conflictStep int64) error {
 			}
 			g.appendHints(hints, id)
 		case stepDelete:
-			j := id(s.c)
+			j := id(int(s.c))
 			if j == 0 {
 				continue
 			}

@@ -28,7 +28,7 @@ type dratChecker struct {
 	pr    *proofReader
 	steps []dratStep // backward mode only
 	buf   []uint32
-	hints []int
+	hints []int32 // LRAT hints: clause numbers, -(d+1) opening the RAT group of clause d
 	lrat  *lratLog
 	ctx   context.Context
 }
@@ -158,7 +158,7 @@ func (k *dratChecker) checkLemma(c int) string {
 			continue
 		}
 		if want {
-			hints = append(hints, -(d + 1))
+			hints = append(hints, int32(-(d + 1)))
 		}
 		var ok bool
 		hints, ok = k.checkResolvent(d, p, hints, want)
@@ -181,7 +181,7 @@ func (k *dratChecker) describe(c int) string {
 
 // checkResolvent assumes the negation of clause d without ¬p on top of the
 // current assignment and propagates; a conflict is required.
-func (k *dratChecker) checkResolvent(d int, p uint32, hints []int, want bool) ([]int, bool) {
+func (k *dratChecker) checkResolvent(d int, p uint32, hints []int32, want bool) ([]int32, bool) {
 	save := len(k.trail)
 	var flagged []uint32
 	confl := noClause
@@ -229,7 +229,7 @@ func (k *dratChecker) checkResolvent(d int, p uint32, hints []int, want bool) ([
 	return hints, ok
 }
 
-func (k *dratChecker) record(c int, hints []int) {
+func (k *dratChecker) record(c int, hints []int32) {
 	if k.lrat != nil {
 		k.lrat.setHints(c, hints)
 	}

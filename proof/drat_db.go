@@ -337,7 +337,7 @@ func (d *dratDB) isReason(c int) bool {
 // them in hints (when hints is non-nil) in the order propagation used them,
 // the conflict clause last. Variables flagged asm are assumptions: their
 // reasons are not followed.
-func (d *dratDB) analyze(confl int, hints []int, wantHints bool) []int {
+func (d *dratDB) analyze(confl int, hints []int32, wantHints bool) []int32 {
 	d.markCore(confl)
 	pending := 0
 	for _, l := range d.lits(confl) {
@@ -361,7 +361,7 @@ func (d *dratDB) analyze(confl int, hints []int, wantHints bool) []int {
 		}
 		d.markCore(r)
 		if wantHints {
-			hints = append(hints, r)
+			hints = append(hints, int32(r))
 		}
 		for _, l := range d.lits(r) {
 			u := l >> 1
@@ -377,5 +377,5 @@ func (d *dratDB) analyze(confl int, hints []int, wantHints bool) []int {
 	for i, j := start, len(hints)-1; i < j; i, j = i+1, j-1 {
 		hints[i], hints[j] = hints[j], hints[i]
 	}
-	return append(hints, confl)
+	return append(hints, int32(confl))
 }

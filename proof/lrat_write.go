@@ -27,8 +27,8 @@ type lratLog struct {
 	// backward mode: hints per lemma (clause index - nOrig)
 	hintOff []int
 	hintLen []int32
-	arena   []int
-	final   []int
+	arena   []int32
+	final   []int32
 	line    []byte
 	lastID  int64
 }
@@ -39,7 +39,7 @@ func newLRATLog(w io.Writer, forward bool, nOrig int) *lratLog {
 
 // setHints keeps the hints of lemma c (backward mode; forward mode writes
 // them at once through forwardAdd).
-func (g *lratLog) setHints(c int, hints []int) {
+func (g *lratLog) setHints(c int, hints []int32) {
 	if g.forward || c < g.nOrig {
 		return
 	}
@@ -71,11 +71,11 @@ func (g *lratLog) appendLits(k *dratChecker, c int) {
 
 // appendHints writes hints, mapping clause indexes to LRAT ids with id;
 // a RAT group whose clause has no id (a lemma left out) is dropped whole.
-func (g *lratLog) appendHints(hints []int, id func(int) int64) {
+func (g *lratLog) appendHints(hints []int32, id func(int) int64) {
 	skip := false
 	for _, h := range hints {
 		if h < 0 {
-			j := id(-h - 1)
+			j := id(int(-h - 1))
 			skip = j == 0
 			if !skip {
 				g.line = append(g.line, ' ', '-')
@@ -87,7 +87,7 @@ func (g *lratLog) appendHints(hints []int, id func(int) int64) {
 			continue
 		}
 		g.line = append(g.line, ' ')
-		g.line = strconv.AppendInt(g.line, id(h), 10)
+		g.line = strconv.AppendInt(g.line, id(int(h)), 10)
 	}
 	g.line = append(g.line, " 0\n"...)
 }
@@ -162,7 +162,7 @@ func (g *lratLog) writeBackward(k *dratChecker, conflictStep int64) error {
 			g.line = strconv.AppendInt(g.line[:0], g.lastID, 10)
 			g.line = append(g.line, ' ')
 			g.appendLits(k, c)
-			var hints []int
+			var hints []int32
 			if i := c - g.nOrig; i < len(g.hintOff) {
 				hints = g.arena[g.hintOff[i] : g.hintOff[i]+int(g.hintLen[i])]
 			}

@@ -23,7 +23,7 @@ const noClause = -1
 // clause d of a RAT group as -(d+1)) and arena offsets in uint32.
 const (
 	maxClauses = math.MaxInt32 - 1
-	maxArena   = math.MaxUint32
+	maxArena   = min(math.MaxUint32, math.MaxInt)
 )
 
 // dratDB holds every per-clause and per-watch datum in flat arrays of

@@ -52,7 +52,13 @@
 // core lemmas. Forward mode checks every lemma in proof order and keeps no
 // record of the steps; deleted clauses are freed. Memory is linear in the
 // clauses of the formula and the proof, and follows the variables used, not
-// their numbers (any variable up to 2^31-1 is allowed); counters are 64-bit. A RAT check
+// their numbers (any variable up to 2^31-1 is allowed); counters are 64-bit.
+// Clauses live in flat arrays of 32-bit words (literals, offsets, hash
+// chains, flags) made at the formula's size before it is loaded, and a watch
+// is two words, so a clause of three literals costs 25 bytes, 16 more for
+// its two watches and 4 to 8 in the hash table of deletions; the checker holds at most 2^31-2 clauses and 2^32-1 literals
+// at once and says so in an error beyond that. It keeps no reference to the
+// caller's formula once it is loaded. A RAT check
 // scans the current clauses for the negated pivot, so proofs with many RAT
 // lemmas cost time proportional to their number times the formula size.
 //

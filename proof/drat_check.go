@@ -15,8 +15,8 @@ const (
 )
 
 type dratStep struct {
-	c    int   // clause index
 	pos  int64 // text line or binary byte offset
+	c    int32 // clause index
 	kind uint8
 }
 
@@ -26,10 +26,9 @@ type dratChecker struct {
 	opt   DRATOptions
 	res   *DRATResult
 	pr    *proofReader
-	nOrig int
 	steps []dratStep // backward mode only
 	buf   []uint32
-	hints []int
+	hints []int32 // LRAT hints: clause numbers, -(d+1) opening the RAT group of clause d
 	lrat  *lratLog
 	ctx   context.Context
 }
@@ -50,8 +49,8 @@ func (k *dratChecker) reject(step int64, text, pos, why string) error {
 func (k *dratChecker) clauseText(c int) string {
 	ls := k.lits(c)
 	ext := make([]int32, 0, len(ls))
-	if k.cls[c].flags&flagLemma != 0 && len(ls) > 0 {
-		p := k.cls[c].pivot
+	if k.flags[c]&flagLemma != 0 && len(ls) > 0 {
+		p := k.pivotOf(c)
 		ext = append(ext, k.extLit(p))
 		for _, l := range ls {
 			if l != p {
@@ -66,14 +65,17 @@ func (k *dratChecker) clauseText(c int) string {
 	return formatStep(false, ext)
 }
 
-// loadFormula adds the original clauses; it returns false when unit
+// loadFormula adds the original clauses; it reports false when unit
 // propagation already refutes them.
-func (k *dratChecker) loadFormula(clauses [][]int32) bool {
+func (k *dratChecker) loadFormula(clauses [][]int32) (bool, error) {
 	ok := true
 	for _, ext := range clauses {
 		ls, taut := k.normalize(ext, k.buf)
 		k.buf = ls
-		c := k.add(ls, taut, false)
+		c, err := k.add(ls, taut, false)
+		if err != nil {
+			return false, err
+		}
 		if ok && !k.attach(c) {
 			ok = false
 		}
@@ -81,8 +83,8 @@ func (k *dratChecker) loadFormula(clauses [][]int32) bool {
 			ok = false
 		}
 	}
-	k.nOrig = len(k.cls)
-	return ok
+	k.nOrig = len(k.flags)
+	return ok, nil
 }
 
 // checkLemma checks clause c (not active) against the active formula at
@@ -90,8 +92,7 @@ func (k *dratChecker) loadFormula(clauses [][]int32) bool {
 // used are marked core and, with LRAT output, the hints are recorded. It
 // returns "" or the reason of the failure.
 func (k *dratChecker) checkLemma(c int) string {
-	cl := &k.cls[c]
-	if cl.flags&flagTaut != 0 {
+	if k.flags[c]&flagTaut != 0 {
 		k.record(c, nil)
 		return ""
 	}
@@ -114,7 +115,7 @@ func (k *dratChecker) checkLemma(c int) string {
 	for _, l := range ls {
 		switch k.vals[l] {
 		case 1:
-			confl = k.reason[l>>1]
+			confl = int(k.reason[l>>1])
 		case 0:
 			k.assign(l^1, noClause)
 		}
@@ -139,11 +140,10 @@ func (k *dratChecker) checkLemma(c int) string {
 	}
 	// RAT on the pivot: every resolvent with an active clause containing
 	// the pivot's negation must be RUP.
-	p := cl.pivot
+	p := k.pivotOf(c)
 	k.res.RAT++
-	for d := range k.cls {
-		dc := &k.cls[d]
-		if dc.flags&flagActive == 0 || d == c {
+	for d := range len(k.flags) {
+		if k.flags[d]&flagActive == 0 || d == c {
 			continue
 		}
 		dl := k.lits(d)
@@ -158,7 +158,7 @@ func (k *dratChecker) checkLemma(c int) string {
 			continue
 		}
 		if want {
-			hints = append(hints, -(d + 1))
+			hints = append(hints, int32(-(d + 1)))
 		}
 		var ok bool
 		hints, ok = k.checkResolvent(d, p, hints, want)
@@ -181,7 +181,7 @@ func (k *dratChecker) describe(c int) string {
 
 // checkResolvent assumes the negation of clause d without ¬p on top of the
 // current assignment and propagates; a conflict is required.
-func (k *dratChecker) checkResolvent(d int, p uint32, hints []int, want bool) ([]int, bool) {
+func (k *dratChecker) checkResolvent(d int, p uint32, hints []int32, want bool) ([]int32, bool) {
 	save := len(k.trail)
 	var flagged []uint32
 	confl := noClause
@@ -203,7 +203,7 @@ func (k *dratChecker) checkResolvent(d int, p uint32, hints []int, want bool) ([
 			if k.reason[v] == noClause {
 				taut = true // q is the negation of a lemma literal
 			} else {
-				confl = k.reason[v]
+				confl = int(k.reason[v])
 			}
 		case 0:
 			k.assign(q^1, noClause)
@@ -229,7 +229,7 @@ func (k *dratChecker) checkResolvent(d int, p uint32, hints []int, want bool) ([
 	return hints, ok
 }
 
-func (k *dratChecker) record(c int, hints []int) {
+func (k *dratChecker) record(c int, hints []int32) {
 	if k.lrat != nil {
 		k.lrat.setHints(c, hints)
 	}
@@ -288,7 +288,7 @@ func (k *dratChecker) readSteps(forward bool) (conflictStep int64, err error) {
 			case k.isReason(c):
 				k.res.IgnoredDeletions++
 				if !forward {
-					k.steps = append(k.steps, dratStep{c: c, pos: k.pr.stepLine, kind: stepIgnored})
+					k.steps = append(k.steps, dratStep{c: int32(c), pos: k.pr.stepLine, kind: stepIgnored})
 				}
 			default:
 				k.detach(c)
@@ -299,17 +299,20 @@ func (k *dratChecker) readSteps(forward bool) (conflictStep int64, err error) {
 							return 0, err
 						}
 					}
-					k.wasted += int(k.cls[c].n)
+					k.wasted += k.size(c)
 					k.compact()
 				} else {
-					k.steps = append(k.steps, dratStep{c: c, pos: k.pr.stepLine, kind: stepDelete})
+					k.steps = append(k.steps, dratStep{c: int32(c), pos: k.pr.stepLine, kind: stepDelete})
 				}
 			}
 			continue
 		}
-		c := k.add(ls, taut, true)
+		c, err := k.add(ls, taut, true)
+		if err != nil {
+			return 0, err
+		}
 		if len(ext) > 0 {
-			k.cls[c].pivot = k.lit(ext[0])
+			k.pivot[c-k.nOrig] = k.lit(ext[0])
 		}
 		if forward {
 			k.res.CoreLemmas++
@@ -323,7 +326,7 @@ func (k *dratChecker) readSteps(forward bool) (conflictStep int64, err error) {
 				}
 			}
 		} else {
-			k.steps = append(k.steps, dratStep{c: c, pos: k.pr.stepLine, kind: stepAdd})
+			k.steps = append(k.steps, dratStep{c: int32(c), pos: k.pr.stepLine, kind: stepAdd})
 		}
 		if len(ls) == 0 {
 			if forward {
@@ -358,16 +361,14 @@ func (k *dratChecker) compact() {
 		return
 	}
 	arena := make([]uint32, 0, len(k.arena)-k.wasted)
-	for c := range k.cls {
-		cl := &k.cls[c]
-		if cl.flags&flagActive == 0 {
-			cl.off, cl.n = len(arena), 0
-			continue
+	for c := range len(k.flags) {
+		start := k.off[c]
+		k.off[c] = uint32(len(arena))
+		if k.flags[c]&flagActive != 0 {
+			arena = append(arena, k.arena[start:k.off[c+1]]...)
 		}
-		start := len(arena)
-		arena = append(arena, k.arena[cl.off:cl.off+int(cl.n)]...)
-		cl.off = start
 	}
+	k.off[len(k.flags)] = uint32(len(arena))
 	k.arena = arena
 	k.wasted = 0
 }
@@ -393,7 +394,7 @@ func (k *dratChecker) backward(conflictStep int64) error {
 	}
 	// undo the lemma that caused the conflict and propagate afresh
 	last := k.steps[conflictStep-1]
-	k.detach(last.c)
+	k.detach(int(last.c))
 	if !k.resetTopLevel() {
 		return errors.New("proof: internal error: the formula conflicts before the step that refuted it")
 	}
@@ -411,15 +412,15 @@ func (k *dratChecker) backward(conflictStep int64) error {
 		case stepIgnored:
 			continue
 		case stepDelete:
-			if !k.attach(s.c) || !k.propagate() {
+			if !k.attach(int(s.c)) || !k.propagate() {
 				return errors.New("proof: internal error: restoring a deleted clause caused a conflict")
 			}
 			continue
 		}
-		c := s.c
+		c := int(s.c)
 		if i != conflictStep-1 {
 			if k.isReason(c) {
-				at := int(k.pos[k.arena[k.cls[c].off]>>1])
+				at := int(k.pos[k.arena[k.off[c]]>>1])
 				k.detach(c)
 				if !k.unassignFrom(at) {
 					return errors.New("proof: internal error: removing a lemma caused a conflict")
@@ -428,7 +429,7 @@ func (k *dratChecker) backward(conflictStep int64) error {
 				k.detach(c)
 			}
 		}
-		if k.cls[c].flags&flagCore == 0 {
+		if k.flags[c]&flagCore == 0 {
 			continue
 		}
 		k.res.CoreLemmas++

@@ -1,5 +1,10 @@
 package proof
 
+import (
+	"errors"
+	"math"
+)
+
 // The clause database of the DRAT checker: clauses stored in one arena,
 // two watched literals per clause, a top-level trail with reasons, and a hash
 // index for matching deletions. Literals are encoded as 2*v+sign (sign 1 for
@@ -14,20 +19,27 @@ const (
 
 const noClause = -1
 
-type clause struct {
-	off   int    // first literal in db.arena
-	n     int32  // number of (distinct) literals
-	pivot uint32 // first literal as written in the proof (RAT pivot)
-	flags uint8
-	next  int // hash chain
-	hash  uint64
-}
+// Limits of the database: clause numbers are held in int32 (LRAT hints name
+// clause d of a RAT group as -(d+1)) and arena offsets in uint32.
+const (
+	maxClauses = math.MaxInt32 - 1
+	maxArena   = min(math.MaxUint32, math.MaxInt)
+)
 
+// dratDB holds every per-clause and per-watch datum in flat arrays of
+// 32-bit words, so that memory is a few words per clause and per literal
+// and the garbage collector has no pointers to follow in them.
 type dratDB struct {
-	arena    []uint32
-	cls      []clause
+	arena []uint32 // literals; clause c is arena[off[c]:off[c+1]]
+	off   []uint32 // per clause, plus one entry: len(arena)
+	next  []int32  // per clause: hash chain
+	hash  []uint32 // per clause: clauseHash, low 32 bits
+	flags []uint8  // per clause
+	nOrig int      // clauses 0..nOrig-1 are the formula's, the others lemmas
+	pivot []uint32 // per lemma c-nOrig: first literal as written (RAT pivot)
+
 	vals     []int8    // per literal: 1 true, -1 false, 0 unassigned
-	reason   []int     // per variable: clause that implied it, noClause for none
+	reason   []int32   // per variable: clause that implied it, noClause for none
 	pos      []int32   // per variable: index in trail
 	asm      []bool    // per variable: belongs to the clause being checked
 	seen     []bool    // per variable: scratch for conflict analysis
@@ -35,13 +47,13 @@ type dratDB struct {
 	watches  [][]watch // per literal: non-core clauses watching it
 	cwatches [][]watch // per literal: core clauses watching it
 	trail    []uint32
-	head     int   // next trail literal for all clauses
-	headCore int   // next trail literal for core clauses
-	units    []int // clauses of one literal (they are watched on it alone)
+	head     int     // next trail literal for all clauses
+	headCore int     // next trail literal for core clauses
+	units    []int32 // clauses of one literal (they are watched on it alone)
 
-	buckets []int // hash heads, length a power of two
-	live    int   // clauses in the hash index
-	wasted  int   // arena words of clauses removed for good (forward mode)
+	buckets []int32 // hash heads, length a power of two
+	live    int     // clauses in the hash index
+	wasted  int     // arena words of clauses removed for good (forward mode)
 
 	// Variables 1..dense are their own index; a larger one (inputs may name
 	// any variable up to 2^31-1) gets the next index after dense, so memory
@@ -54,10 +66,29 @@ type dratDB struct {
 	propagations uint64
 }
 
-// newDratDB makes a database whose variables up to dense are kept in place.
-func newDratDB(dense int) *dratDB {
+// newDratDB makes a database whose variables up to dense are kept in place,
+// with room for a formula of clauses clauses and lits literals and lemmas of
+// an eighth of its size: the arrays are made once at their size instead of
+// growing (and leaving copies to collect) while the formula is loaded.
+func newDratDB(dense, clauses, lits int) *dratDB {
 	d := &dratDB{conflict: noClause, dense: dense, intern: map[int32]int{}}
-	d.buckets = make([]int, 1024)
+	nc := min(clauses+clauses/8+1024, maxClauses)
+	d.arena = make([]uint32, 0, min(lits+lits/8+4096, maxArena))
+	d.off = make([]uint32, 1, nc+1)
+	d.next = make([]int32, 0, nc)
+	d.hash = make([]uint32, 0, nc)
+	d.flags = make([]uint8, 0, nc)
+	// room for the variables up to dense, or as many as the formula can use
+	nv := min(dense, lits) + 1
+	d.reason = make([]int32, 0, nv)
+	d.pos = make([]int32, 0, nv)
+	d.asm = make([]bool, 0, nv)
+	d.seen = make([]bool, 0, nv)
+	d.vals = make([]int8, 0, 2*nv)
+	d.mark = make([]bool, 0, 2*nv)
+	d.watches = make([][]watch, 0, 2*nv)
+	d.cwatches = make([][]watch, 0, 2*nv)
+	d.buckets = make([]int32, 1024)
 	for i := range d.buckets {
 		d.buckets[i] = noClause
 	}
@@ -112,8 +143,17 @@ func (d *dratDB) ensureVar(v int) {
 }
 
 func (d *dratDB) lits(c int) []uint32 {
-	cl := &d.cls[c]
-	return d.arena[cl.off : cl.off+int(cl.n)]
+	return d.arena[d.off[c]:d.off[c+1]]
+}
+
+// size is the number of (distinct) literals of clause c.
+func (d *dratDB) size(c int) int {
+	return int(d.off[c+1] - d.off[c])
+}
+
+// pivotOf is the first literal of lemma c as the proof wrote it.
+func (d *dratDB) pivotOf(c int) uint32 {
+	return d.pivot[c-d.nOrig]
 }
 
 func mix(x uint64) uint64 {
@@ -157,74 +197,86 @@ func (d *dratDB) normalize(ext []int32, buf []uint32) ([]uint32, bool) {
 	return buf, taut
 }
 
-// add stores a clause (already normalized) and indexes it; it is not watched yet.
-func (d *dratDB) add(ls []uint32, taut, lemma bool) int {
-	c := len(d.cls)
-	cl := clause{off: len(d.arena), n: int32(len(ls)), next: noClause}
-	if len(ls) > 0 {
-		cl.pivot = ls[0]
+// errTooLarge is returned when the formula and proof need more clauses or
+// literals at once than the database holds.
+var errTooLarge = errors.New("proof: more clauses or literals at once than the checker holds (2^31-2 clauses, 2^32-1 literals)")
+
+// add stores a clause (already normalized) and indexes it; it is not watched
+// yet. A lemma's pivot is its first literal.
+func (d *dratDB) add(ls []uint32, taut, lemma bool) (int, error) {
+	c := len(d.flags)
+	if c >= maxClauses || len(d.arena)+len(ls) > maxArena {
+		return noClause, errTooLarge
 	}
+	var fl uint8
 	if taut {
-		cl.flags |= flagTaut
+		fl |= flagTaut
 	}
 	if lemma {
-		cl.flags |= flagLemma
+		fl |= flagLemma
+		var p uint32
+		if len(ls) > 0 {
+			p = ls[0]
+		}
+		d.pivot = append(d.pivot, p)
 	}
 	d.arena = append(d.arena, ls...)
-	cl.hash = clauseHash(ls)
-	d.cls = append(d.cls, cl)
+	d.off = append(d.off, uint32(len(d.arena)))
+	d.flags = append(d.flags, fl)
+	d.hash = append(d.hash, uint32(clauseHash(ls)))
+	d.next = append(d.next, noClause)
 	d.hashInsert(c)
 	if len(ls) == 1 {
-		d.units = append(d.units, c)
+		d.units = append(d.units, int32(c))
 	}
-	return c
+	return c, nil
 }
 
 func (d *dratDB) hashInsert(c int) {
 	if d.live >= len(d.buckets) {
 		old := d.buckets
-		d.buckets = make([]int, 2*len(old))
+		d.buckets = make([]int32, 2*len(old))
 		for i := range d.buckets {
 			d.buckets[i] = noClause
 		}
+		mask := uint32(len(d.buckets) - 1)
 		for _, h := range old {
 			for h != noClause {
-				nx := d.cls[h].next
-				b := d.cls[h].hash & uint64(len(d.buckets)-1)
-				d.cls[h].next = d.buckets[b]
+				nx := d.next[h]
+				b := d.hash[h] & mask
+				d.next[h] = d.buckets[b]
 				d.buckets[b] = h
 				h = nx
 			}
 		}
 	}
-	b := d.cls[c].hash & uint64(len(d.buckets)-1)
-	d.cls[c].next = d.buckets[b]
-	d.buckets[b] = c
+	b := d.hash[c] & uint32(len(d.buckets)-1)
+	d.next[c] = d.buckets[b]
+	d.buckets[b] = int32(c)
 	d.live++
 }
 
 // find returns the most recently added indexed clause with exactly the
 // literals ls (normalized), or noClause.
 func (d *dratDB) find(ls []uint32) int {
-	h := clauseHash(ls)
+	h := uint32(clauseHash(ls))
 	for _, l := range ls {
 		d.mark[l] = true
 	}
 	found := noClause
-	for c := d.buckets[h&uint64(len(d.buckets)-1)]; c != noClause; c = d.cls[c].next {
-		cl := &d.cls[c]
-		if cl.hash != h || int(cl.n) != len(ls) {
+	for c := d.buckets[h&uint32(len(d.buckets)-1)]; c != noClause; c = d.next[c] {
+		if d.hash[c] != h || d.size(int(c)) != len(ls) {
 			continue
 		}
 		same := true
-		for _, l := range d.lits(c) {
+		for _, l := range d.lits(int(c)) {
 			if !d.mark[l] {
 				same = false
 				break
 			}
 		}
 		if same {
-			found = c
+			found = int(c)
 			break
 		}
 	}
@@ -235,16 +287,16 @@ func (d *dratDB) find(ls []uint32) int {
 }
 
 func (d *dratDB) hashRemove(c int) {
-	b := d.cls[c].hash & uint64(len(d.buckets)-1)
-	prev := noClause
-	for h := d.buckets[b]; h != noClause; h = d.cls[h].next {
-		if h == c {
+	b := d.hash[c] & uint32(len(d.buckets)-1)
+	prev := int32(noClause)
+	for h := d.buckets[b]; h != noClause; h = d.next[h] {
+		if int(h) == c {
 			if prev == noClause {
-				d.buckets[b] = d.cls[h].next
+				d.buckets[b] = d.next[h]
 			} else {
-				d.cls[prev].next = d.cls[h].next
+				d.next[prev] = d.next[h]
 			}
-			d.cls[c].next = noClause
+			d.next[c] = noClause
 			d.live--
 			return
 		}
@@ -256,7 +308,7 @@ func (d *dratDB) assign(l uint32, reason int) {
 	d.vals[l] = 1
 	d.vals[l^1] = -1
 	v := l >> 1
-	d.reason[v] = reason
+	d.reason[v] = int32(reason)
 	d.pos[v] = int32(len(d.trail))
 	d.trail = append(d.trail, l)
 }
@@ -274,19 +326,18 @@ func (d *dratDB) backtrack(to int) {
 
 // isReason reports whether clause c is the reason of a current assignment.
 func (d *dratDB) isReason(c int) bool {
-	cl := &d.cls[c]
-	if cl.n == 0 {
+	if d.size(c) == 0 {
 		return false
 	}
-	l := d.arena[cl.off]
-	return d.vals[l] == 1 && d.reason[l>>1] == c
+	l := d.arena[d.off[c]]
+	return d.vals[l] == 1 && int(d.reason[l>>1]) == c
 }
 
 // analyze marks the clauses behind conflict clause confl as core and returns
 // them in hints (when hints is non-nil) in the order propagation used them,
 // the conflict clause last. Variables flagged asm are assumptions: their
 // reasons are not followed.
-func (d *dratDB) analyze(confl int, hints []int, wantHints bool) []int {
+func (d *dratDB) analyze(confl int, hints []int32, wantHints bool) []int32 {
 	d.markCore(confl)
 	pending := 0
 	for _, l := range d.lits(confl) {
@@ -304,13 +355,13 @@ func (d *dratDB) analyze(confl int, hints []int, wantHints bool) []int {
 		}
 		d.seen[v] = false
 		pending--
-		r := d.reason[v]
+		r := int(d.reason[v])
 		if r == noClause {
 			continue
 		}
 		d.markCore(r)
 		if wantHints {
-			hints = append(hints, r)
+			hints = append(hints, int32(r))
 		}
 		for _, l := range d.lits(r) {
 			u := l >> 1
@@ -326,5 +377,5 @@ func (d *dratDB) analyze(confl int, hints []int, wantHints bool) []int {
 	for i, j := start, len(hints)-1; i < j; i, j = i+1, j-1 {
 		hints[i], hints[j] = hints[j], hints[i]
 	}
-	return append(hints, confl)
+	return append(hints, int32(confl))
 }

@@ -7,24 +7,24 @@ package proof
 // watch is a watch-list entry. For a clause of two literals, other is the
 // literal not watched by this entry (always the other watch, since such a
 // clause never moves its watches), so propagation need not load the clause;
-// for other clauses it is 0.
+// for other clauses it is 0. Eight bytes and no pointers.
 type watch struct {
-	c     int
+	c     int32
 	other uint32
 }
 
 // newWatch is the entry of clause c in the list of its literal l.
 func (d *dratDB) newWatch(c int, l uint32) watch {
-	if d.cls[c].n == 2 {
+	if d.size(c) == 2 {
 		ls := d.lits(c)
-		return watch{c, ls[0] ^ ls[1] ^ l}
+		return watch{int32(c), ls[0] ^ ls[1] ^ l}
 	}
-	return watch{c: c}
+	return watch{c: int32(c)}
 }
 
 // wl returns the watch lists that hold clause c.
 func (d *dratDB) wl(c int) [][]watch {
-	if d.cls[c].flags&flagCore != 0 {
+	if d.flags[c]&flagCore != 0 {
 		return d.cwatches
 	}
 	return d.watches
@@ -32,23 +32,22 @@ func (d *dratDB) wl(c int) [][]watch {
 
 // markCore marks clause c core and moves its watches to the core lists.
 func (d *dratDB) markCore(c int) {
-	cl := &d.cls[c]
-	if cl.flags&flagCore != 0 {
+	if d.flags[c]&flagCore != 0 {
 		return
 	}
-	if cl.flags&flagActive != 0 {
+	if d.flags[c]&flagActive != 0 {
 		ls := d.lits(c)
 		for i := 0; i < len(ls) && i < 2; i++ {
 			d.watches[ls[i]] = removeWatch(d.watches[ls[i]], c)
 			d.cwatches[ls[i]] = append(d.cwatches[ls[i]], d.newWatch(c, ls[i]))
 		}
 	}
-	cl.flags |= flagCore
+	d.flags[c] |= flagCore
 }
 
 func removeWatch(ws []watch, c int) []watch {
 	for i, w := range ws {
-		if w.c == c {
+		if int(w.c) == c {
 			ws[i] = ws[len(ws)-1]
 			return ws[:len(ws)-1]
 		}
@@ -60,8 +59,7 @@ func removeWatch(ws []watch, c int) []watch {
 // literals and assigns it when it is unit. It returns false (and sets
 // d.conflict) when the clause is falsified.
 func (d *dratDB) attach(c int) bool {
-	cl := &d.cls[c]
-	cl.flags |= flagActive
+	d.flags[c] |= flagActive
 	ls := d.lits(c)
 	if len(ls) == 0 {
 		d.conflict = c
@@ -101,8 +99,7 @@ func (d *dratDB) attach(c int) bool {
 
 // detach removes clause c from the watch lists and the current formula.
 func (d *dratDB) detach(c int) {
-	cl := &d.cls[c]
-	cl.flags &^= flagActive
+	d.flags[c] &^= flagActive
 	ls := d.lits(c)
 	w := d.wl(c)
 	if len(ls) > 0 {
@@ -151,7 +148,7 @@ func (d *dratDB) propagateLit(f uint32, core bool) bool {
 	for i < len(ws) {
 		e := ws[i]
 		i++
-		c := e.c
+		c := int(e.c)
 		if e.other != 0 { // two literals: no need to load the clause
 			ws[j] = e
 			j++
@@ -171,8 +168,7 @@ func (d *dratDB) propagateLit(f uint32, core bool) bool {
 			wl[f] = ws[:j+len(ws)-i]
 			return false
 		}
-		cl := &d.cls[c]
-		ls := d.arena[cl.off : cl.off+int(cl.n)]
+		ls := d.arena[d.off[c]:d.off[c+1]]
 		if len(ls) == 1 {
 			ws[j] = e
 			j++
@@ -193,7 +189,7 @@ func (d *dratDB) propagateLit(f uint32, core bool) bool {
 		for k := 2; k < len(ls); k++ {
 			if d.vals[ls[k]] != -1 {
 				ls[1], ls[k] = ls[k], ls[1]
-				wl[ls[1]] = append(wl[ls[1]], watch{c: c})
+				wl[ls[1]] = append(wl[ls[1]], watch{c: e.c})
 				moved = true
 				break
 			}
@@ -240,7 +236,7 @@ func (d *dratDB) unassignFrom(k int) bool {
 // implies x again.
 func (d *dratDB) rescan(x uint32, w [][]watch) {
 	for _, e := range w[x] {
-		c := e.c
+		c := int(e.c)
 		ls := d.lits(c)
 		if len(ls) == 1 {
 			d.assign(x, c)
@@ -258,7 +254,7 @@ func (d *dratDB) rescan(x uint32, w [][]watch) {
 			if d.vals[ls[i]] != -1 {
 				w[o] = removeWatch(w[o], c)
 				ls[1], ls[i] = ls[i], ls[1]
-				w[ls[1]] = append(w[ls[1]], watch{c: c})
+				w[ls[1]] = append(w[ls[1]], watch{c: e.c})
 				moved = true
 				break
 			}
@@ -277,16 +273,15 @@ func (d *dratDB) resetTopLevel() bool {
 	d.head, d.headCore = 0, 0
 	d.conflict = noClause
 	for _, c := range d.units {
-		cl := &d.cls[c]
-		if cl.flags&flagActive == 0 {
+		if d.flags[c]&flagActive == 0 {
 			continue
 		}
-		l := d.arena[cl.off]
+		l := d.arena[d.off[c]]
 		switch d.vals[l] {
 		case 0:
-			d.assign(l, c)
+			d.assign(l, int(c))
 		case -1:
-			d.conflict = c
+			d.conflict = int(c)
 			return false
 		}
 	}

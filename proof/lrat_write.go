@@ -27,8 +27,8 @@ type lratLog struct {
 	// backward mode: hints per lemma (clause index - nOrig)
 	hintOff []int
 	hintLen []int32
-	arena   []int
-	final   []int
+	arena   []int32
+	final   []int32
 	line    []byte
 	lastID  int64
 }
@@ -39,7 +39,7 @@ func newLRATLog(w io.Writer, forward bool, nOrig int) *lratLog {
 
 // setHints keeps the hints of lemma c (backward mode; forward mode writes
 // them at once through forwardAdd).
-func (g *lratLog) setHints(c int, hints []int) {
+func (g *lratLog) setHints(c int, hints []int32) {
 	if g.forward || c < g.nOrig {
 		return
 	}
@@ -56,7 +56,7 @@ func (g *lratLog) setHints(c int, hints []int) {
 func (g *lratLog) appendLits(k *dratChecker, c int) {
 	ls := k.lits(c)
 	if len(ls) > 0 {
-		p := k.cls[c].pivot
+		p := k.pivotOf(c)
 		g.line = strconv.AppendInt(g.line, int64(k.extLit(p)), 10)
 		g.line = append(g.line, ' ')
 		for _, l := range ls {
@@ -71,11 +71,11 @@ func (g *lratLog) appendLits(k *dratChecker, c int) {
 
 // appendHints writes hints, mapping clause indexes to LRAT ids with id;
 // a RAT group whose clause has no id (a lemma left out) is dropped whole.
-func (g *lratLog) appendHints(hints []int, id func(int) int64) {
+func (g *lratLog) appendHints(hints []int32, id func(int) int64) {
 	skip := false
 	for _, h := range hints {
 		if h < 0 {
-			j := id(-h - 1)
+			j := id(int(-h - 1))
 			skip = j == 0
 			if !skip {
 				g.line = append(g.line, ' ', '-')
@@ -87,7 +87,7 @@ func (g *lratLog) appendHints(hints []int, id func(int) int64) {
 			continue
 		}
 		g.line = append(g.line, ' ')
-		g.line = strconv.AppendInt(g.line, id(h), 10)
+		g.line = strconv.AppendInt(g.line, id(int(h)), 10)
 	}
 	g.line = append(g.line, " 0\n"...)
 }
@@ -110,7 +110,7 @@ func (g *lratLog) forwardAdd(k *dratChecker, c int) error {
 	g.line = append(g.line, ' ')
 	g.appendLits(k, c)
 	hints := k.hints
-	if k.cls[c].flags&flagTaut != 0 {
+	if k.flags[c]&flagTaut != 0 {
 		hints = nil
 	}
 	g.appendHints(hints, sameID)
@@ -143,7 +143,7 @@ func (g *lratLog) finish(id func(int) int64) error {
 // order, the deletions that concern clauses present in the output, and the
 // empty clause.
 func (g *lratLog) writeBackward(k *dratChecker, conflictStep int64) error {
-	ids := make([]int64, len(k.cls)-g.nOrig)
+	ids := make([]int64, len(k.flags)-g.nOrig)
 	id := func(c int) int64 {
 		if c < g.nOrig {
 			return int64(c) + 1
@@ -153,8 +153,8 @@ func (g *lratLog) writeBackward(k *dratChecker, conflictStep int64) error {
 	for _, s := range k.steps[:conflictStep] {
 		switch s.kind {
 		case stepAdd:
-			c := s.c
-			if k.cls[c].flags&flagCore == 0 || len(k.lits(c)) == 0 {
+			c := int(s.c)
+			if k.flags[c]&flagCore == 0 || k.size(c) == 0 {
 				continue
 			}
 			g.lastID++
@@ -162,13 +162,13 @@ func (g *lratLog) writeBackward(k *dratChecker, conflictStep int64) error {
 			g.line = strconv.AppendInt(g.line[:0], g.lastID, 10)
 			g.line = append(g.line, ' ')
 			g.appendLits(k, c)
-			var hints []int
+			var hints []int32
 			if i := c - g.nOrig; i < len(g.hintOff) {
 				hints = g.arena[g.hintOff[i] : g.hintOff[i]+int(g.hintLen[i])]
 			}
 			g.appendHints(hints, id)
 		case stepDelete:
-			j := id(s.c)
+			j := id(int(s.c))
 			if j == 0 {
 				continue
 			}

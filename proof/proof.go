@@ -97,8 +97,10 @@ func CheckDRAT(ctx context.Context, cnf *dimacs.CNF, proof io.Reader, opt DRATOp
 	// variables are kept in place up to a bound set by the size of the
 	// formula, whatever its header says
 	dense := min(cnf.Vars, 2*cnf.Literals()+1<<16)
-	k := &dratChecker{dratDB: newDratDB(dense), opt: opt, res: res, pr: pr, ctx: ctx}
-	k.loadFormula(cnf.Clauses)
+	k := &dratChecker{dratDB: newDratDB(dense, len(cnf.Clauses), cnf.Literals()), opt: opt, res: res, pr: pr, ctx: ctx}
+	if _, err := k.loadFormula(cnf.Clauses); err != nil {
+		return nil, err
+	}
 	if opt.LRAT != nil {
 		k.lrat = newLRATLog(opt.LRAT, opt.Forward, k.nOrig)
 	}

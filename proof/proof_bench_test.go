@@ -7,6 +7,7 @@ import (
 	"os"
 	"os/exec"
 	"path/filepath"
+	"runtime"
 	"syscall"
 	"testing"
 	"time"
@@ -72,6 +73,63 @@ func benchCheck(b *testing.B, n int, opt DRATOptions) {
 func BenchmarkCheckPHP9Backward(b *testing.B) { benchCheck(b, 8, DRATOptions{}) }
 func BenchmarkCheckPHP9Forward(b *testing.B)  { benchCheck(b, 8, DRATOptions{Forward: true}) }
 func BenchmarkCheckPHP9LRAT(b *testing.B)     { benchCheck(b, 8, DRATOptions{LRAT: io.Discard}) }
+
+// padded returns f with m random 3-clauses on n fresh variables: a formula
+// whose size, not its proof, sets the checker's memory (as for the CNFs of
+// page-number claims, millions of clauses refuted by a short proof). The
+// padding shares no variable with f, so f's proof refutes it unchanged.
+func padded(f *dimacs.CNF, n, m int) *dimacs.CNF {
+	pad := formulas.Random3SAT(1, n, m)
+	g := &dimacs.CNF{Vars: f.Vars + n, Clauses: append([][]int32(nil), f.Clauses...)}
+	for _, c := range pad.Clauses {
+		for i, l := range c {
+			if l < 0 {
+				c[i] = l - int32(f.Vars)
+			} else {
+				c[i] = l + int32(f.Vars)
+			}
+		}
+		g.Clauses = append(g.Clauses, c)
+	}
+	return g
+}
+
+// BenchmarkCheckPaddedPHP9 checks the proof of PHP(9,8) against PHP(9,8)
+// with a million random 3-clauses beside it. It reports allocated bytes per
+// check (B/op) and live-MB, the heap still in use when the check ends (after
+// a collection), that is what the checker holds for the formula and proof.
+func BenchmarkCheckPaddedPHP9(b *testing.B) {
+	f, proof, report := benchProof(b, 8)
+	f = padded(f, 200000, 1000000)
+	var live uint64
+	opt := DRATOptions{Progress: func(p Progress) {
+		if p.Phase == "checking" && p.Steps == p.Total {
+			runtime.GC()
+			var ms runtime.MemStats
+			runtime.ReadMemStats(&ms)
+			live = ms.HeapAlloc
+		}
+	}}
+	runtime.GC()
+	var ms runtime.MemStats
+	runtime.ReadMemStats(&ms)
+	before := ms.HeapAlloc
+	if _, err := CheckDRAT(context.Background(), f, bytes.NewReader(proof), opt); err != nil {
+		b.Fatal(err)
+	}
+	b.ReportAllocs()
+	b.ResetTimer()
+	cpu := cpuTime()
+	for b.Loop() {
+		if _, err := CheckDRAT(context.Background(), f, bytes.NewReader(proof), DRATOptions{}); err != nil {
+			b.Fatal(err)
+		}
+	}
+	b.ReportMetric(float64((cpuTime()-cpu).Microseconds())/1000/float64(b.N), "check-cpu-ms")
+	b.ReportMetric(float64(live-min(live, before))/(1<<20), "live-MB")
+	b.ReportMetric(float64(len(f.Clauses)), "clauses")
+	report()
+}
 
 // The separate LRAT checker on the LRAT written for PHP(9,8).
 func BenchmarkLRATCheckPHP9(b *testing.B) {

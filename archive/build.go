@@ -27,6 +27,8 @@ const (
 	memberCNF        = "cnf/claim.cnf"
 	memberForeignCNF = "cnf/foreign.cnf"
 	memberSubgraph   = "graph/subgraph.txt"
+	memberSubCNF     = "cnf/sub.cnf"
+	memberSubVars    = "cnf/sub-vars.txt"
 )
 
 // Evidence is what goes into a bundle.
@@ -60,6 +62,9 @@ type RefutationInput struct {
 	// Subgraph, when not nil, is the subgraph of the claim's graph that the
 	// proof refutes (labelled as in the graph; graph.CheckSubgraph must hold).
 	Subgraph *graph.Graph
+	// Sub, when not nil, is a sub-formula of the on-demand formulation that
+	// the proof refutes (instead of the default encoding).
+	Sub *dimacs.Sub
 }
 
 func inputExt(f graph.Format) string {
@@ -237,6 +242,26 @@ func buildRefutation(ctx context.Context, ev *Evidence, enc Encoder, tmpDir stri
 		subSrc, target = &src, h
 		subEntry = &SubgraphEntry{Member: memberSubgraph, GraphID: h.ID(), Vertices: h.N(), Edges: h.M()}
 	}
+	r := &Refutation{Subgraph: subEntry, Pages: opt.Pages, Encoder: EncoderEntry{Version: enc.Version(), Options: optJSON}, Runs: in.Runs}
+	for _, k := range kinds {
+		r.PageKinds = append(r.PageKinds, k.String())
+	}
+	var srcs []Source
+	if subSrc != nil {
+		srcs = append(srcs, *subSrc)
+	}
+	if in.Sub != nil {
+		ss, err := subFormula(r, in, target, opt)
+		if err != nil {
+			return nil, nil, err
+		}
+		srcs = append(srcs, ss...)
+		ps, err := checkAndStoreProof(ctx, r, in, in.Sub.CNF, tmpDir)
+		if err != nil {
+			return nil, nil, err
+		}
+		return r, append(srcs, ps...), nil
+	}
 	cnf, err := enc.Encode(target, opt)
 	if err != nil {
 		return nil, nil, fmt.Errorf("archive: encoding the claim: %w", err)
@@ -245,15 +270,7 @@ func buildRefutation(ctx context.Context, ev *Evidence, enc Encoder, tmpDir stri
 	if err != nil {
 		return nil, nil, err
 	}
-	r := &Refutation{Subgraph: subEntry, Pages: opt.Pages, Encoder: EncoderEntry{Version: enc.Version(), Options: optJSON}, Runs: in.Runs}
-	for _, k := range kinds {
-		r.PageKinds = append(r.PageKinds, k.String())
-	}
 	r.CNF = CNFEntry{SHA256: sum, Vars: cnf.Vars, Clauses: len(cnf.Clauses), Source: CNFOwn}
-	var srcs []Source
-	if subSrc != nil {
-		srcs = append(srcs, *subSrc)
-	}
 	checkAgainst := cnf
 	if in.ForeignCNF != "" {
 		fsum, _, err := hashFile(in.ForeignCNF)
@@ -278,11 +295,23 @@ func buildRefutation(ctx context.Context, ev *Evidence, enc Encoder, tmpDir stri
 		srcs = append(srcs, BytesSource(memberCNF, text))
 		r.CNF.Member = memberCNF
 	}
+	ps, err := checkAndStoreProof(ctx, r, in, checkAgainst, tmpDir)
+	if err != nil {
+		return nil, nil, err
+	}
+	return r, append(srcs, ps...), nil
+}
+
+// checkAndStoreProof checks the refutation's proof against cnf (converting
+// a text DRAT proof to binary first), records it in r and returns its member.
+func checkAndStoreProof(ctx context.Context, r *Refutation, in *RefutationInput, checkAgainst *dimacs.CNF, tmpDir string) ([]Source, error) {
+	var srcs []Source
+	var err error
 	format := in.ProofFormat
 	if format == "" || format == proof.RUP {
 		format, err = detectFormat(in.Proof)
 		if err != nil {
-			return nil, nil, err
+			return nil, err
 		}
 	}
 	proofPath, converted := in.Proof, ""
@@ -290,33 +319,33 @@ func buildRefutation(ctx context.Context, ev *Evidence, enc Encoder, tmpDir stri
 		// Store text proofs as binary DRAT: smaller, and compresses better.
 		bin, err := convertProof(in.Proof, tmpDir)
 		if err != nil {
-			return nil, nil, err
+			return nil, err
 		}
 		proofPath, format, converted = bin, proof.DRATBinary, proof.DRAT
 	}
 	f, err := os.Open(proofPath)
 	if err != nil {
-		return nil, nil, fmt.Errorf("archive: %w", err)
+		return nil, fmt.Errorf("archive: %w", err)
 	}
 	defer f.Close()
 	psum := sha256.New()
 	out := proof.CheckRefutation(ctx, checkAgainst, io.TeeReader(bufio.NewReaderSize(f, 1<<20), psum), proof.RefutationOptions{Format: format, Name: in.Proof, TempDir: tmpDir})
 	if err := ctx.Err(); err != nil {
-		return nil, nil, err
+		return nil, err
 	}
 	if out.Err != nil {
-		return nil, nil, fmt.Errorf("archive: checking %s: %w", in.Proof, out.Err)
+		return nil, fmt.Errorf("archive: checking %s: %w", in.Proof, out.Err)
 	}
 	if !out.OK() {
-		return nil, nil, fmt.Errorf("%w: %s: %s", ErrRejected, in.Proof, out.Detail)
+		return nil, fmt.Errorf("%w: %s: %s", ErrRejected, in.Proof, out.Detail)
 	}
 	// The checker may stop before the end of the proof (after the empty clause).
 	if _, err := io.Copy(psum, f); err != nil {
-		return nil, nil, fmt.Errorf("archive: %w", err)
+		return nil, fmt.Errorf("archive: %w", err)
 	}
 	src, err := FileSource("proofs/refutation."+proofExt(format), proofPath)
 	if err != nil {
-		return nil, nil, err
+		return nil, err
 	}
 	srcs = append(srcs, src)
 	checker := CheckerDRAT
@@ -325,7 +354,31 @@ func buildRefutation(ctx context.Context, ev *Evidence, enc Encoder, tmpDir stri
 	}
 	r.Proofs = []Proof{{Member: src.Name, Format: format, Size: src.Size, SHA256: hex.EncodeToString(psum.Sum(nil)),
 		Checker: checker, Result: ResultVerified, ConvertedFrom: converted}}
-	return r, srcs, nil
+	return srcs, nil
+}
+
+// subFormula checks that the sub-formula of the refutation is part of the
+// on-demand formulation of the claim about target, records it in r, and
+// returns its two members: the CNF and the names of its variables.
+func subFormula(r *Refutation, in *RefutationInput, target *graph.Graph, opt dimacs.Options) ([]Source, error) {
+	f, err := dimacs.NewOnDemand(target, opt)
+	if err != nil {
+		return nil, fmt.Errorf("archive: %w", err)
+	}
+	if err := dimacs.CheckMembership(f, in.Sub); err != nil {
+		return nil, fmt.Errorf("%w: %w", ErrRejected, err)
+	}
+	text, sum, err := CNFText(in.Sub.CNF)
+	if err != nil {
+		return nil, err
+	}
+	var names bytes.Buffer
+	if err := dimacs.WriteVars(&names, in.Sub.Vars); err != nil {
+		return nil, fmt.Errorf("archive: %w", err)
+	}
+	r.Encoder.Version = dimacs.OnDemandVersion
+	r.CNF = CNFEntry{SHA256: sum, Vars: in.Sub.CNF.Vars, Clauses: len(in.Sub.CNF.Clauses), Source: CNFSub, Member: memberSubCNF, VarNames: memberSubVars}
+	return []Source{BytesSource(memberSubCNF, text), BytesSource(memberSubVars, names.Bytes())}, nil
 }
 
 func detectFormat(path string) (string, error) {

@@ -38,6 +38,9 @@ const (
 const (
 	CNFOwn     = "spinecert"
 	CNFForeign = "foreign"
+	// CNFSub is a sub-formula of spinecert's on-demand formulation, stored
+	// with the names of its variables; verify checks its membership.
+	CNFSub = "on-demand"
 )
 
 // maxManifestSize bounds the manifest member.
@@ -138,8 +141,11 @@ type CNFEntry struct {
 	SHA256  string `json:"sha256"` // of the DIMACS text as written
 	Vars    int    `json:"vars"`
 	Clauses int    `json:"clauses"`
-	Source  string `json:"source"`           // CNFOwn or CNFForeign
-	Member  string `json:"member,omitempty"` // present with --include-cnf or for foreign CNFs
+	Source  string `json:"source"`           // CNFOwn, CNFForeign or CNFSub
+	Member  string `json:"member,omitempty"` // present with --include-cnf, for foreign CNFs and sub-formulas
+	// VarNames names the member that names every variable of a sub-formula
+	// (CNFSub only; dimacs.WriteVars format).
+	VarNames string `json:"var_names,omitempty"`
 }
 
 // Run is one solver run on the CNF.
@@ -373,8 +379,21 @@ func (m *Manifest) Validate() error {
 			if r.CNF.Member == "" {
 				bad("refutation.cnf: a foreign CNF must be included as a member")
 			}
+		case CNFSub:
+			if r.CNF.Member == "" || r.CNF.VarNames == "" {
+				bad("refutation.cnf: a sub-formula must be included as a member, with its var_names member")
+			}
 		default:
-			bad("refutation.cnf.source %q is not spinecert or foreign", r.CNF.Source)
+			bad("refutation.cnf.source %q is not spinecert, foreign or on-demand", r.CNF.Source)
+		}
+		if r.CNF.VarNames != "" {
+			if r.CNF.Source != CNFSub {
+				bad("refutation.cnf.var_names is only for on-demand sub-formulas")
+			}
+			name("refutation.cnf.var_names", r.CNF.VarNames)
+			if !strings.HasPrefix(r.CNF.VarNames, "cnf/") {
+				bad("refutation.cnf.var_names %q is not under cnf/", r.CNF.VarNames)
+			}
 		}
 		if r.CNF.Member != "" {
 			name("refutation.cnf.member", r.CNF.Member)

@@ -21,6 +21,8 @@ import (
 //     it is maximal planar and not Hamiltonian (removing the 335 old vertices
 //     leaves 666 components; Chvátal 1973), so not subhamiltonian (Bernhart
 //     and Kainen 1979). The bundle's refutation rests on a 37-vertex subgraph;
+//     the on-demand bundle refutes a sub-formula of the on-demand formulation
+//     of that subgraph, whose membership verify checks;
 //   - queue number of K3,3 = 2: 1-queue graphs are planar (Heath and
 //     Rosenberg, "Laying out graphs using queues", SIAM J. Comput. 21,
 //     1992), K3,3 is not (derived, as in REFERENCES).
@@ -37,6 +39,7 @@ func TestPublishedBundles(t *testing.T) {
 		{"goldner-harary.spinecert.tar.zst", "goldner-harary.txt", "stack", Exact, 3},
 		{"k33-queue.spinecert.tar.zst", "k33.txt", "queue", Exact, 2},
 		{"kleetope-1001.spinecert.tar.zst", "kleetope-1001.txt", "stack", AtLeast, 3},
+		{"kleetope-1001-on-demand.spinecert.tar.zst", "kleetope-1001.txt", "stack", AtLeast, 3},
 	}
 	dir := filepath.Join("..", "testdata", "bundles")
 	for _, w := range want {

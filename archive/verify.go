@@ -358,6 +358,10 @@ func (v *verifier) prepareRefutation() {
 			return
 		}
 	}
+	if r.CNF.Source == CNFSub {
+		v.prepareSub(refuted, opts)
+		return
+	}
 	enc := v.opt.Encoder
 	cur, err := enc.Encode(refuted, opts)
 	if err != nil {
@@ -416,6 +420,49 @@ func (v *verifier) prepareRefutation() {
 		d.Summary = fmt.Sprintf("encoder changed since the bundle was made: bundle %s, this spinecert %s; the CNF for the claim is now SHA-256 %s, the bundle's %s; encoder %s is not available in this spinecert", r.Encoder.Version, enc.Version(), curSum, r.CNF.SHA256, r.Encoder.Version)
 	}
 	v.rep.add("encoder drift", StatusFail, "%s", d.Summary)
+}
+
+// prepareSub reads a stored sub-formula of the on-demand formulation and
+// its variable names, and checks that every clause is a clause of the
+// formulation of the refuted claim (dimacs.CheckMembership); the proofs are
+// then checked against it.
+func (v *verifier) prepareSub(refuted *graph.Graph, opts dimacs.Options) {
+	r := v.m.Refutation
+	if r.Encoder.Version != dimacs.OnDemandVersion {
+		v.rep.add("membership", StatusFail, "the sub-formula is of formulation %q; this spinecert checks %s", r.Encoder.Version, dimacs.OnDemandVersion)
+		return
+	}
+	cdata, ok1 := v.files[r.CNF.Member]
+	ndata, ok2 := v.files[r.CNF.VarNames]
+	if !ok1 || !ok2 {
+		v.rep.add("membership", StatusFail, "members %s and %s are needed", r.CNF.Member, r.CNF.VarNames)
+		return
+	}
+	cnf, err := dimacs.ReadCNF(bytes.NewReader(cdata), r.CNF.Member, dimacs.ReadOptions{})
+	if err != nil {
+		v.rep.add("membership", StatusFail, "%v", err)
+		return
+	}
+	if _, sum, err := CNFText(cnf); err != nil || sum != r.CNF.SHA256 {
+		v.rep.add("membership", StatusFail, "%s does not read back as the CNF the manifest records (SHA-256 %s)", r.CNF.Member, r.CNF.SHA256)
+		return
+	}
+	names, err := dimacs.ReadVars(bytes.NewReader(ndata), r.CNF.VarNames)
+	if err != nil {
+		v.rep.add("membership", StatusFail, "%v", err)
+		return
+	}
+	f, err := dimacs.NewOnDemand(refuted, opts)
+	if err != nil {
+		v.rep.add("membership", StatusFail, "%v", err)
+		return
+	}
+	if err := dimacs.CheckMembership(f, &dimacs.Sub{Vars: names, CNF: cnf}); err != nil {
+		v.rep.add("membership", StatusFail, "%v", err)
+		return
+	}
+	v.target = cnf
+	v.rep.add("membership", StatusPass, "all %d clauses of %s are clauses of the on-demand formulation %s of the claim (checked from %s), so a refutation of it refutes the claim", len(cnf.Clauses), r.CNF.Member, dimacs.OnDemandVersion, r.CNF.VarNames)
 }
 
 // subgraph reads the subgraph a refutation is about and checks that it is

@@ -128,7 +128,6 @@ func (f *OnDemand) Describe() string {
 	return d + " formulation=on-demand reductions=" + strings.Join(r, ",")
 }
 
-
 // Fixed reports whether symmetry breaking fixes v, and to what: such a
 // variable appears in no clause of the formulation, its value substituted.
 func (f *OnDemand) Fixed(v VarName) (value, ok bool) { return f.fixed(v) }

@@ -53,6 +53,9 @@ type Request struct {
 	// (verify.FindObstruction): the bundle then stores the subgraph, and
 	// archive and verify check that it is one.
 	Obstruction *verify.ObstructionOptions
+	// OnDemand refutes on a sub-formula of the on-demand formulation
+	// (verify.DecideOnDemand); the bundle stores it with its variable names.
+	OnDemand    bool
 	ToolVersion string
 	Tool        string
 	Created     string // RFC 3339 or ""
@@ -180,7 +183,7 @@ func lower(ctx context.Context, r *Request, kind cert.Kind, pageKinds []cert.Kin
 	}
 	gv, err := verify.DecideLayout(ctx, r.Graph, verify.GraphOptions{
 		Encoding: ropt, Solvers: r.Solvers, Limit: r.Limit, ProofDir: filepath.Join(tmpDir, "lower"),
-		Obstruction: r.Obstruction,
+		Obstruction: r.Obstruction, OnDemand: r.OnDemand,
 	})
 	if err != nil {
 		return nil, fmt.Errorf("evidence: %w", err)
@@ -198,6 +201,7 @@ func lower(ctx context.Context, r *Request, kind cert.Kind, pageKinds []cert.Kin
 	if gv.Subgraph != nil {
 		ref.Subgraph = gv.Subgraph.Graph
 	}
+	ref.Sub = gv.Sub
 	var ok bool
 	if ref.Proof, ref.ProofFormat, ok = gv.CheckedProof(); !ok {
 		return nil, fmt.Errorf("%w: no proof of the refutation passed the checkers", ErrUndecided)

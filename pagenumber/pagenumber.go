@@ -30,6 +30,9 @@ type Options struct {
 	// Obstruction lets a refutation step rest on a small subgraph (see
 	// verify.GraphOptions.Obstruction); nil decides the whole graph.
 	Obstruction *verify.ObstructionOptions
+	// OnDemand decides each step on the on-demand formulation (see
+	// verify.DecideOnDemand).
+	OnDemand bool
 }
 
 // Step is one SAT step: the claim "a layout on Pages pages".
@@ -105,7 +108,7 @@ func Compute(ctx context.Context, g *graph.Graph, opt Options) (*Result, error) 
 		k := res.Upper.Pages - 1
 		eo := opt.Encoding
 		eo.Kind, eo.Pages, eo.PageKinds = opt.Kind, k, nil
-		gopt := verify.GraphOptions{Encoding: eo, Solvers: opt.Solvers, Limit: opt.Limit, Policy: opt.Policy, StopOnModel: true, Obstruction: opt.Obstruction}
+		gopt := verify.GraphOptions{Encoding: eo, Solvers: opt.Solvers, Limit: opt.Limit, Policy: opt.Policy, StopOnModel: true, Obstruction: opt.Obstruction, OnDemand: opt.OnDemand}
 		if opt.ProofDir != "" {
 			gopt.ProofDir = filepath.Join(opt.ProofDir, "pages-"+strconv.Itoa(k))
 		}

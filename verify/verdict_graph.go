@@ -33,6 +33,9 @@ type GraphOptions struct {
 	// passes the direct check decides "satisfiable" at once; anything else
 	// is ignored. Not used for mixed claims.
 	Quick func(*graph.Graph) (layout *cert.Layout, method string)
+	// OnDemand decides the claim on a sub-formula of the on-demand
+	// formulation (see DecideOnDemand) instead of the whole default encoding.
+	OnDemand bool
 }
 
 // GraphVerdict is the decision about "g has a layout of this kind on K pages".
@@ -40,7 +43,12 @@ type GraphVerdict struct {
 	Verdict *Verdict `json:"verdict"`
 	// Subgraph, when not nil, is the subgraph H of g whose refutation the
 	// verdict is (Unsatisfiable only): the CNF, results and proofs are H's.
-	Subgraph *SubgraphRecord  `json:"subgraph,omitempty"`
+	Subgraph *SubgraphRecord `json:"subgraph,omitempty"`
+	// Sub, when not nil, is the sub-formula of the on-demand formulation
+	// that CNF is (DecideOnDemand); it passed dimacs.CheckMembership.
+	Sub      *dimacs.Sub      `json:"-"`
+	Rounds   int              `json:"refine_rounds,omitempty"`
+	FullSize int64            `json:"full_clauses,omitempty"` // clauses of the whole on-demand formula
 	Results  []*Result        `json:"results"`
 	Checks   []ProofCheck     `json:"proof_checks,omitempty"`
 	Layout   *cert.Layout     `json:"-"` // a layout that passed cert.Validate (Satisfiable only)
@@ -97,6 +105,9 @@ func DecideLayout(ctx context.Context, g *graph.Graph, opt GraphOptions) (*Graph
 			}
 		}
 	}
+	if opt.OnDemand {
+		return DecideOnDemand(ctx, g, opt)
+	}
 	start := time.Now()
 	enc, err := dimacs.Encode(g, opt.Encoding)
 	if err != nil {
@@ -108,59 +119,10 @@ func DecideLayout(ctx context.Context, g *graph.Graph, opt GraphOptions) (*Graph
 	if d, err := opt.Encoding.Describe(); err == nil {
 		gv.Options = d
 	}
-	policy := opt.Policy
-	if policy == (Policy{}) {
-		policy = DefaultPolicy()
-	}
-	dir := opt.ProofDir
-	if dir == "" {
-		tmp, err := os.MkdirTemp("", "spinecert-proofs-*")
-		if err != nil {
-			return nil, fmt.Errorf("verify: %w", err)
-		}
-		defer os.RemoveAll(tmp)
-		dir = tmp
-	} else {
-		gv.ProofDir = dir
-	}
-	gv.Results, err = RunAll(ctx, cnf, opt.Solvers, RunOptions{Limit: opt.Limit, ProofDir: dir, StopOnModel: opt.StopOnModel, Progress: opt.Progress})
-	if err != nil {
+	if err := gv.runPolicy(ctx, cnf, opt); err != nil {
 		return nil, err
 	}
-	unsatBy := map[string]bool{}
-	hasSat := false
-	for _, r := range gv.Results {
-		if r.Answer == Unsat {
-			unsatBy[r.Backend] = true
-		}
-		hasSat = hasSat || r.Answer == Sat
-	}
-	// Proofs matter only when there is no model (with a model beside an
-	// UNSAT claim the verdict is a conflict whatever the proof says) and
-	// when enough backends said UNSAT for a verdict.
-	switch {
-	case len(unsatBy) == 0 || hasSat:
-	case len(unsatBy) < policy.MinUnsat:
-		for _, r := range gv.Results {
-			if r.Answer == Unsat && r.Proof != "" {
-				gv.Checks = append(gv.Checks, ProofCheck{Backend: r.Backend, Format: r.ProofFormat,
-					Skipped: fmt.Sprintf("too few UNSAT answers for a verdict (%d of %d)", len(unsatBy), policy.MinUnsat)})
-			}
-		}
-	default:
-		enough := policy.MinProofs
-		if opt.AllProofs {
-			enough = 0
-		}
-		gv.Checks = CheckProofs(ctx, cnf, gv.Results, ProofCheckOptions{Enough: enough, KeepLRAT: opt.ProofDir != "", Progress: opt.Progress})
-	}
-	v := Decide(gv.Results, gv.Checks, policy)
-	if opt.ProofDir == "" {
-		for _, r := range gv.Results {
-			r.Proof = "" // in the temporary directory, removed on return
-		}
-	}
-	gv.Verdict = v
+	v := gv.Verdict
 	if v.Outcome == Satisfiable {
 		model := make([]bool, len(v.Model)+1) // the encoder counts variables from 1
 		copy(model[1:], v.Model)
@@ -234,4 +196,135 @@ func padPages(l *cert.Layout, k int) *cert.Layout {
 		out.PageKinds[i] = l.Kind
 	}
 	return &out
+}
+
+// runPolicy runs the solvers on cnf, checks the proofs the policy needs and
+// draws the verdict into gv. Proofs kept in a temporary directory are
+// removed before it returns.
+func (gv *GraphVerdict) runPolicy(ctx context.Context, cnf *dimacs.CNF, opt GraphOptions) error {
+	var err error
+	policy := opt.Policy
+	if policy == (Policy{}) {
+		policy = DefaultPolicy()
+	}
+	dir := opt.ProofDir
+	if dir == "" {
+		tmp, err := os.MkdirTemp("", "spinecert-proofs-*")
+		if err != nil {
+			return fmt.Errorf("verify: %w", err)
+		}
+		defer os.RemoveAll(tmp)
+		dir = tmp
+	} else {
+		gv.ProofDir = dir
+	}
+	gv.Results, err = RunAll(ctx, cnf, opt.Solvers, RunOptions{Limit: opt.Limit, ProofDir: dir, StopOnModel: opt.StopOnModel, Progress: opt.Progress})
+	if err != nil {
+		return err
+	}
+	unsatBy := map[string]bool{}
+	hasSat := false
+	for _, r := range gv.Results {
+		if r.Answer == Unsat {
+			unsatBy[r.Backend] = true
+		}
+		hasSat = hasSat || r.Answer == Sat
+	}
+	// Proofs matter only when there is no model (with a model beside an
+	// UNSAT claim the verdict is a conflict whatever the proof says) and
+	// when enough backends said UNSAT for a verdict.
+	switch {
+	case len(unsatBy) == 0 || hasSat:
+	case len(unsatBy) < policy.MinUnsat:
+		for _, r := range gv.Results {
+			if r.Answer == Unsat && r.Proof != "" {
+				gv.Checks = append(gv.Checks, ProofCheck{Backend: r.Backend, Format: r.ProofFormat,
+					Skipped: fmt.Sprintf("too few UNSAT answers for a verdict (%d of %d)", len(unsatBy), policy.MinUnsat)})
+			}
+		}
+	default:
+		enough := policy.MinProofs
+		if opt.AllProofs {
+			enough = 0
+		}
+		gv.Checks = CheckProofs(ctx, cnf, gv.Results, ProofCheckOptions{Enough: enough, KeepLRAT: opt.ProofDir != "", Progress: opt.Progress})
+	}
+	v := Decide(gv.Results, gv.Checks, policy)
+	if opt.ProofDir == "" {
+		for _, r := range gv.Results {
+			r.Proof = "" // in the temporary directory, removed on return
+		}
+	}
+	gv.Verdict = v
+	return nil
+}
+
+// DecideOnDemand decides "g has a layout" on the on-demand formulation F:
+// Refine works with gini until it has a layout (checked directly: the
+// verdict is "satisfiable" with no other solver) or a sub-formula F′ ⊆ F
+// that gini finds unsatisfiable. F′ must pass dimacs.CheckMembership, and
+// then it goes to the solvers and proof checkers under the policy like any
+// CNF: "unsatisfiable" needs two UNSATs on F′ and a checked proof of F′.
+// Since F′ ⊆ F, that refutes F and so the claim.
+func DecideOnDemand(ctx context.Context, g *graph.Graph, opt GraphOptions) (*GraphVerdict, error) {
+	start := time.Now()
+	f, err := dimacs.NewOnDemand(g, opt.Encoding)
+	if err != nil {
+		return nil, fmt.Errorf("verify: %w", err)
+	}
+	ref, err := Refine(ctx, f, RefineOptions{Limit: opt.Limit})
+	if err != nil {
+		return nil, err
+	}
+	gv := &GraphVerdict{Options: f.Describe(), Rounds: ref.Rounds, FullSize: f.FullSize(), Encode: ref.Elapsed}
+	switch {
+	case ref.Layout != nil:
+		gv.Layout = ref.Layout
+		gv.Verdict = &Verdict{Outcome: Satisfiable, ModelFrom: "gini (on-demand)",
+			Checked: []string{fmt.Sprintf("a layout on %d pages decoded from gini's model of an on-demand sub-formula passed the direct check (cert.Validate)", ref.Layout.Pages())}}
+		gv.Elapsed = time.Since(start)
+		return gv, nil
+	case !ref.Unsat:
+		gv.Verdict = &Verdict{Outcome: Undecided, Missing: []string{"on-demand generation stopped: " + ref.Stopped}}
+		gv.Elapsed = time.Since(start)
+		return gv, nil
+	}
+	if err := dimacs.CheckMembership(f, ref.Sub); err != nil {
+		return nil, fmt.Errorf("verify: the sub-formula built is not part of the formulation (a bug): %w", err)
+	}
+	cnf := ref.Sub.CNF
+	gv.Sub, gv.CNF, gv.Vars, gv.Clauses = ref.Sub, cnf, cnf.Vars, len(cnf.Clauses)
+	if err := gv.runPolicy(ctx, cnf, opt); err != nil {
+		return nil, err
+	}
+	v := gv.Verdict
+	switch v.Outcome {
+	case Unsatisfiable:
+		v.Checked = append(v.Checked, fmt.Sprintf("every clause of the sub-formula (%d of the formulation's %d) is a clause of the on-demand formulation %s (dimacs.CheckMembership)", len(cnf.Clauses), gv.FullSize, dimacs.OnDemandVersion))
+	case Satisfiable:
+		// gini found F′ unsatisfiable and another solver a model: the model
+		// still has to give a layout to count.
+		model := v.Model
+		index := make(map[dimacs.VarName]int, len(ref.Sub.Vars))
+		for i, n := range ref.Sub.Vars {
+			index[n] = i
+		}
+		l := f.Decode(func(x dimacs.VarName) (bool, bool) {
+			if i, ok := index[x]; ok && i < len(model) {
+				return model[i], true
+			}
+			return false, false
+		}, nil)
+		if rep := cert.Validate(g, l); !rep.OK() {
+			v.Outcome = Undecided
+			v.Conflict = fmt.Sprintf("gini found the sub-formula unsatisfiable, %s found a model of it, which gives no valid layout", v.ModelFrom)
+			v.Missing = append(v.Missing, "agreement on the sub-formula")
+			v.Model = nil
+		} else {
+			gv.Layout = l
+			v.Checked = append(v.Checked, fmt.Sprintf("decoded layout on %d pages passed the direct check (cert.Validate)", l.Pages()))
+		}
+	}
+	gv.Elapsed = time.Since(start)
+	return gv, nil
 }

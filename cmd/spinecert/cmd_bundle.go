@@ -223,6 +223,7 @@ func runBundle(cmd *cobra.Command, o *bundleOptions) error {
 			return err
 		}
 		req.Obstruction = o.solver.obstruction(g, req.Solvers)
+		req.OnDemand = o.solver.formula == "on-demand"
 	}
 	out := o.output
 	if out == "" {

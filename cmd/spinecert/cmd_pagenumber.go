@@ -126,6 +126,7 @@ func runPageNumber(cmd *cobra.Command, o *pageNumberOptions) error {
 		Encoding:    o.enc,
 		UnsatLower:  o.unsatLower,
 		Obstruction: o.solver.obstruction(g, solvers),
+		OnDemand:    o.solver.formula == "on-demand",
 		Progress: func(k int, e verify.Event) {
 			if k != step {
 				step = k

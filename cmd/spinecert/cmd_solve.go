@@ -27,6 +27,7 @@ type solveSolverFlags struct {
 	timeLimit time.Duration
 	quiet     bool
 	subgraph  string
+	formula   string
 }
 
 // subgraphAuto is the size from which --subgraph auto looks for a small
@@ -43,6 +44,7 @@ func (f *solveSolverFlags) add(cmd *cobra.Command) {
 			`{cnf} is the input, appended when absent; {proof} receives a DRAT proof)`)
 	fl.DurationVar(&f.timeLimit, "time-limit", 10*time.Minute, "time limit for each solver run (0 = none)")
 	fl.BoolVar(&f.quiet, "quiet", false, "no progress display on stderr")
+	fl.StringVar(&f.formula, "formula", "default", "the formula solved: default (the whole encoding) or on-demand (clauses generated as models need them, then two solvers and a checked proof on the sub-formula, whose membership is checked)")
 	fl.StringVar(&f.subgraph, "subgraph", "auto", fmt.Sprintf("refute a small subgraph first (every layout restricts to subgraphs): on, off, or auto (graphs with more than %d vertices)", subgraphAuto))
 }
 
@@ -75,6 +77,11 @@ func (f *solveSolverFlags) build() ([]verify.Solver, error) {
 	case "auto", "on", "off":
 	default:
 		return nil, usageErr(fmt.Errorf("--subgraph %q: expected auto, on or off", f.subgraph))
+	}
+	switch f.formula {
+	case "default", "on-demand":
+	default:
+		return nil, usageErr(fmt.Errorf("--formula %q: expected default or on-demand", f.formula))
 	}
 	child, err := verify.SelfChild(verify.GophersatChild)
 	if err != nil {
@@ -193,6 +200,7 @@ func runSolve(cmd *cobra.Command, o *solveOptions) error {
 	}
 	gv, err := verify.DecideLayout(cmd.Context(), g, verify.GraphOptions{
 		Quick:       quick,
+		OnDemand:    o.solver.formula == "on-demand",
 		Encoding:    opt,
 		Solvers:     solvers,
 		Limit:       o.solver.timeLimit,

@@ -9,6 +9,8 @@ import (
 	"io"
 	"slices"
 	"strings"
+
+	"spinecert.dev/textpos"
 )
 
 // ManifestName is the member holding the manifest.
@@ -207,6 +209,9 @@ func ReadManifest(data []byte) (*Manifest, error) {
 	if _, err := dec.Token(); err != io.EOF {
 		return nil, merr("%s: data after the manifest object", position(data, dec.InputOffset()))
 	}
+	if err := checkKeys(data, &m); err != nil {
+		return nil, merr("%s", err)
+	}
 	if err := m.Validate(); err != nil {
 		return nil, err
 	}
@@ -219,6 +224,16 @@ func position(data []byte, off int64) string {
 	line := 1 + bytes.Count(data[:off], []byte{'\n'})
 	col := off - int64(bytes.LastIndexByte(data[:off], '\n'))
 	return fmt.Sprintf("%d:%d", line, col)
+}
+
+// checkKeys applies textpos.CheckJSONKeys to data, to be decoded into v, and
+// returns its finding as "line:col: message".
+func checkKeys(data []byte, v any) error {
+	var te *textpos.Error
+	if err := textpos.CheckJSONKeys(data, "", v); errors.As(err, &te) {
+		return fmt.Errorf("%d:%d: %s", te.Line, te.Col, te.Msg)
+	}
+	return nil
 }
 
 func jsonErr(data []byte, err error, off int64) string {

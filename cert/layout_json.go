@@ -194,7 +194,7 @@ func (s *jscan) layout() (*RawLayout, error) {
 			return nil, err
 		}
 		if seen[string(key)] {
-			return nil, s.errf("field %q appears twice", key)
+			return nil, &textpos.Error{File: s.name, Line: keyLine, Col: keyCol, Msg: fmt.Sprintf("field %q appears twice", key)}
 		}
 		seen[string(key)] = true
 		if err := s.expect(':', "':' after a field name"); err != nil {
@@ -237,7 +237,7 @@ func (s *jscan) layout() (*RawLayout, error) {
 				return nil, err
 			}
 		default:
-			return nil, s.errf("unknown field %q (expected kind, pages, page_kinds, spine, edges or graph)", key)
+			return nil, &textpos.Error{File: s.name, Line: keyLine, Col: keyCol, Msg: fmt.Sprintf("unknown field %q (expected kind, pages, page_kinds, spine, edges or graph; field names are case-sensitive)", key)}
 		}
 	}
 	if c, ok := s.skip(); ok {

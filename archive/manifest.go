@@ -48,7 +48,7 @@ const maxManifestSize = 1 << 20
 // Manifest is the contents of manifest.json, schema version 1. Every field
 // is required unless marked omitempty. No wall-clock time is recorded
 // unless Created is set by the caller, so that the same evidence gives the
-// same bytes; solver times are part of the evidence as run.
+// same bytes; for the same reason solver run times are not recorded.
 type Manifest struct {
 	Format        string          `json:"format"`         // FormatName
 	FormatVersion int             `json:"format_version"` // FormatVersion
@@ -146,10 +146,13 @@ type CNFEntry struct {
 
 // Run is one solver run on the CNF.
 type Run struct {
-	Backend string  `json:"backend"`
-	Version string  `json:"version"`
-	Answer  string  `json:"answer"` // sat, unsat or unknown
-	Seconds float64 `json:"seconds"`
+	Backend string `json:"backend"`
+	Version string `json:"version"`
+	Answer  string `json:"answer"` // sat, unsat or unknown
+	// Seconds is the run time. Build does not record it (0, omitted), so
+	// that building the same claim twice gives the same bytes; bundles made
+	// by earlier versions carry it, and it is read and kept as it is.
+	Seconds float64 `json:"seconds,omitempty"`
 }
 
 // Proof is one proof member and the result of checking it when bundled.

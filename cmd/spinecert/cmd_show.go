@@ -102,7 +102,11 @@ func runShow(cmd *cobra.Command, o *showOptions) error {
 			if v == "" {
 				v = "version unknown"
 			}
-			fmt.Fprintf(w, "run:      %s (%s): %s in %.3f s\n", run.Backend, v, run.Answer, run.Seconds)
+			took := ""
+			if run.Seconds > 0 {
+				took = fmt.Sprintf(" in %.3f s", run.Seconds)
+			}
+			fmt.Fprintf(w, "run:      %s (%s): %s%s\n", run.Backend, v, run.Answer, took)
 		}
 		for _, p := range r.Proofs {
 			conv := ""

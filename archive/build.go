@@ -55,7 +55,7 @@ type Evidence struct {
 // RefutationInput is the evidence that K-1 pages do not suffice.
 type RefutationInput struct {
 	Options     dimacs.Options // encoder options, Pages = K-1
-	Runs        []Run          // the solver runs that gave the proof (may be empty)
+	Runs        []Run          // the solver runs that gave the proof (may be empty); their Seconds are not recorded
 	Proof       string         // path of the proof file
 	ProofFormat string         // drat, drat-binary or lrat; "" = detect
 	ForeignCNF  string         // path of a CNF made elsewhere that the proof refutes, or ""
@@ -242,7 +242,11 @@ func buildRefutation(ctx context.Context, ev *Evidence, enc Encoder, tmpDir stri
 		subSrc, target = &src, h
 		subEntry = &SubgraphEntry{Member: memberSubgraph, GraphID: h.ID(), Vertices: h.N(), Edges: h.M()}
 	}
-	r := &Refutation{Subgraph: subEntry, Pages: opt.Pages, Encoder: EncoderEntry{Version: enc.Version(), Options: optJSON}, Runs: in.Runs}
+	r := &Refutation{Subgraph: subEntry, Pages: opt.Pages, Encoder: EncoderEntry{Version: enc.Version(), Options: optJSON}}
+	for _, run := range in.Runs {
+		run.Seconds = 0 // run times differ from run to run: they would make rebuilds differ
+		r.Runs = append(r.Runs, run)
+	}
 	for _, k := range kinds {
 		r.PageKinds = append(r.PageKinds, k.String())
 	}

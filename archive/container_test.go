@@ -328,3 +328,47 @@ func TestFlipBundleBytes(t *testing.T) {
 		}
 	}
 }
+
+// Extraction that fails after the bundle was read leaves nothing in DIR: a
+// symbolic link where a member's directory goes is refused before any member
+// is moved, and a move that fails halfway is undone.
+func TestExtractFailureLeavesNothing(t *testing.T) {
+	b := writeBytes(t, sampleMembers())
+	t.Run("symlink", func(t *testing.T) {
+		dir, elsewhere := t.TempDir(), t.TempDir()
+		if err := os.Symlink(elsewhere, filepath.Join(dir, "proofs")); err != nil {
+			t.Fatal(err)
+		}
+		_, err := Extract(context.Background(), bytes.NewReader(b), "b", dir, DefaultLimits())
+		if !errors.Is(err, ErrExists) || !strings.Contains(err.Error(), "proofs is not a directory (it is in the way of proofs/refutation.drat)") {
+			t.Fatalf("got %v", err)
+		}
+		assertOnly(t, dir, "proofs")
+		assertOnly(t, elsewhere)
+	})
+	t.Run("file", func(t *testing.T) {
+		dir := t.TempDir()
+		if err := os.WriteFile(filepath.Join(dir, "graph"), nil, 0o644); err != nil {
+			t.Fatal(err)
+		}
+		if _, err := Extract(context.Background(), bytes.NewReader(b), "b", dir, DefaultLimits()); !errors.Is(err, ErrExists) {
+			t.Fatalf("got %v", err)
+		}
+		assertOnly(t, dir, "graph")
+	})
+	t.Run("halfway", func(t *testing.T) {
+		dir := t.TempDir()
+		boom := errors.New("boom")
+		testOnlyBeforeMove = func(n string) error {
+			if n == "proofs/refutation.drat" {
+				return boom
+			}
+			return nil
+		}
+		defer func() { testOnlyBeforeMove = func(string) error { return nil } }()
+		if _, err := Extract(context.Background(), bytes.NewReader(b), "b", dir, DefaultLimits()); !errors.Is(err, boom) {
+			t.Fatalf("got %v", err)
+		}
+		assertOnly(t, dir)
+	})
+}

@@ -31,9 +31,9 @@
 // the solver runs, each proof with its format, size, hash and checker
 // result, and every member with its size and hash. It is read strictly
 // (unknown fields, trailing data and inconsistencies are errors). No
-// wall-clock time is recorded unless the caller gives one (Created); solver
-// run times are recorded as measured, so rebuilding from the same runs gives
-// the same bytes.
+// wall-clock time is recorded unless the caller gives one (Created), and no
+// solver run time (bundles of earlier versions hold them and still read), so
+// building the same claim twice gives the same bytes.
 //
 // [Verify] re-checks a bundle from scratch and streams it once: layouts with
 // cert.Check; proofs (binary DRAT as stored; text DRAT given to [Build] is

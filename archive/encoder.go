@@ -110,6 +110,9 @@ func UnmarshalEncoderOptions(raw json.RawMessage) (dimacs.Options, error) {
 	if err := dec.Decode(&j); err != nil {
 		return dimacs.Options{}, fmt.Errorf("archive: encoder options: %s", jsonErr(raw, err, dec.InputOffset()))
 	}
+	if err := checkKeys(raw, &j); err != nil {
+		return dimacs.Options{}, fmt.Errorf("archive: encoder options: %w", err)
+	}
 	k, err := cert.ParseKind(j.Kind)
 	if err != nil {
 		return dimacs.Options{}, fmt.Errorf("archive: encoder options: %w", err)

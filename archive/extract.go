@@ -10,6 +10,7 @@ import (
 	"os"
 	"path"
 	"path/filepath"
+	"slices"
 )
 
 // Extract unpacks the bundle read from r into dir (created if missing).
@@ -60,13 +61,6 @@ func Extract(ctx context.Context, r io.Reader, name, dir string, lim Limits) (*C
 	for _, m := range c.Members {
 		names = append(names, m.Name)
 	}
-	for _, n := range names {
-		if _, err := os.Lstat(filepath.Join(dir, filepath.FromSlash(n))); err == nil {
-			return c, fmt.Errorf("%w: %s", ErrExists, filepath.Join(dir, filepath.FromSlash(n)))
-		} else if !errors.Is(err, fs.ErrNotExist) {
-			return c, fmt.Errorf("archive: %w", err)
-		}
-	}
 	dst, err := os.OpenRoot(dir)
 	if err != nil {
 		return c, fmt.Errorf("archive: %w", err)
@@ -76,15 +70,68 @@ func Extract(ctx context.Context, r io.Reader, name, dir string, lim Limits) (*C
 	if err != nil {
 		return c, fmt.Errorf("archive: %w", err)
 	}
+	// Every directory a member goes into must be a directory or missing: a
+	// symbolic link or a file in its place would stop the moves halfway.
 	for _, n := range names {
-		if d := path.Dir(n); d != "." {
-			if err := dst.MkdirAll(d, 0o755); err != nil {
+		var dirs []string
+		for d := path.Dir(n); d != "."; d = path.Dir(d) {
+			dirs = append(dirs, d)
+		}
+		for _, d := range slices.Backward(dirs) { // the top first
+			fi, err := dst.Lstat(d)
+			switch {
+			case errors.Is(err, fs.ErrNotExist):
+			case err != nil:
 				return c, fmt.Errorf("archive: %w", err)
+			case !fi.IsDir():
+				return c, fmt.Errorf("%w: %s is not a directory (it is in the way of %s)", ErrExists, filepath.Join(dir, filepath.FromSlash(d)), n)
 			}
 		}
-		if err := dst.Rename(path.Join(filepath.ToSlash(rel), n), n); err != nil {
+	}
+	for _, n := range names {
+		if _, err := os.Lstat(filepath.Join(dir, filepath.FromSlash(n))); err == nil {
+			return c, fmt.Errorf("%w: %s", ErrExists, filepath.Join(dir, filepath.FromSlash(n)))
+		} else if !errors.Is(err, fs.ErrNotExist) {
 			return c, fmt.Errorf("archive: %w", err)
 		}
 	}
+	// Should a move fail all the same, the members moved and the
+	// directories made are taken out again, so nothing is left in dir.
+	var moved, made []string
+	undo := func(err error) (*Contents, error) {
+		for _, n := range slices.Backward(moved) {
+			dst.Remove(n)
+		}
+		for _, d := range slices.Backward(made) {
+			dst.Remove(d)
+		}
+		return c, err
+	}
+	for _, n := range names {
+		if d := path.Dir(n); d != "." {
+			var missing []string
+			for p := d; p != "."; p = path.Dir(p) {
+				if _, err := dst.Lstat(p); errors.Is(err, fs.ErrNotExist) {
+					missing = append(missing, p)
+				}
+			}
+			if err := dst.MkdirAll(d, 0o755); err != nil {
+				return undo(fmt.Errorf("archive: %w", err))
+			}
+			slices.Reverse(missing) // parents first, as MkdirAll made them
+			made = append(made, missing...)
+		}
+		if err := testOnlyBeforeMove(n); err != nil {
+			return undo(err)
+		}
+		if err := dst.Rename(path.Join(filepath.ToSlash(rel), n), n); err != nil {
+			return undo(fmt.Errorf("archive: %w", err))
+		}
+		moved = append(moved, n)
+	}
 	return c, nil
 }
+
+// testOnlyBeforeMove is called before each member is moved into place; tests
+// make it fail to see a failure halfway through the moves undone.
+var testOnlyBeforeMove = func(name string) error { return nil }

@@ -9,6 +9,8 @@ import (
 	"io"
 	"slices"
 	"strings"
+
+	"spinecert.dev/textpos"
 )
 
 // ManifestName is the member holding the manifest.
@@ -49,7 +51,7 @@ const maxManifestSize = 1 << 20
 // Manifest is the contents of manifest.json, schema version 1. Every field
 // is required unless marked omitempty. No wall-clock time is recorded
 // unless Created is set by the caller, so that the same evidence gives the
-// same bytes; solver times are part of the evidence as run.
+// same bytes; for the same reason solver run times are not recorded.
 type Manifest struct {
 	Format        string          `json:"format"`         // FormatName
 	FormatVersion int             `json:"format_version"` // FormatVersion
@@ -150,10 +152,13 @@ type CNFEntry struct {
 
 // Run is one solver run on the CNF.
 type Run struct {
-	Backend string  `json:"backend"`
-	Version string  `json:"version"`
-	Answer  string  `json:"answer"` // sat, unsat or unknown
-	Seconds float64 `json:"seconds"`
+	Backend string `json:"backend"`
+	Version string `json:"version"`
+	Answer  string `json:"answer"` // sat, unsat or unknown
+	// Seconds is the run time. Build does not record it (0, omitted), so
+	// that building the same claim twice gives the same bytes; bundles made
+	// by earlier versions carry it, and it is read and kept as it is.
+	Seconds float64 `json:"seconds,omitempty"`
 }
 
 // Proof is one proof member and the result of checking it when bundled.
@@ -213,6 +218,9 @@ func ReadManifest(data []byte) (*Manifest, error) {
 	if _, err := dec.Token(); err != io.EOF {
 		return nil, merr("%s: data after the manifest object", position(data, dec.InputOffset()))
 	}
+	if err := checkKeys(data, &m); err != nil {
+		return nil, merr("%s", err)
+	}
 	if err := m.Validate(); err != nil {
 		return nil, err
 	}
@@ -225,6 +233,16 @@ func position(data []byte, off int64) string {
 	line := 1 + bytes.Count(data[:off], []byte{'\n'})
 	col := off - int64(bytes.LastIndexByte(data[:off], '\n'))
 	return fmt.Sprintf("%d:%d", line, col)
+}
+
+// checkKeys applies textpos.CheckJSONKeys to data, to be decoded into v, and
+// returns its finding as "line:col: message".
+func checkKeys(data []byte, v any) error {
+	var te *textpos.Error
+	if err := textpos.CheckJSONKeys(data, "", v); errors.As(err, &te) {
+		return fmt.Errorf("%d:%d: %s", te.Line, te.Col, te.Msg)
+	}
+	return nil
 }
 
 func jsonErr(data []byte, err error, off int64) string {

@@ -138,3 +138,47 @@ func FuzzWalk(f *testing.F) {
 		}
 	})
 }
+
+// A manifest must mean the same to spinecert as to other JSON readers:
+// encoding/json matches keys without regard to case and lets a later key
+// win, while jq and Python's json keep the last key as written.
+func TestManifestRejectsAmbiguousKeys(t *testing.T) {
+	b, err := sampleManifest().Marshal()
+	if err != nil {
+		t.Fatal(err)
+	}
+	fake := `"Claim": {"graph_id": "` + zeroHash + `", "name": "fake", "vertices": 7, "edges": 21, "kind": "stack", "bound": "exact", "k": 4},` + "\n  "
+	for _, tc := range []struct {
+		name, data, want string
+	}{
+		{"case", strings.Replace(string(b), `"members":`, fake+`"members":`, 1), `keys "claim" and "Claim" differ only in case`},
+		{"case first", strings.Replace(string(b), `"claim":`, `"Claim":`, 1), `key "Claim" is not "claim"`},
+		{"twice", strings.Replace(string(b), `"members":`, strings.Replace(fake, "Claim", "claim", 1)+`"members":`, 1), `key "claim" appears twice`},
+		{"inner", strings.Replace(string(b), `"k": 4`, `"k": 4, "K": 3`, 1), `keys "k" and "K" differ only in case`},
+		{"options", strings.Replace(string(b), `"symmetry": true`, `"symmetry": true, "Symmetry": false`, 1), `keys "symmetry" and "Symmetry"`},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			if tc.data == string(b) {
+				t.Fatal("the edit did not apply")
+			}
+			_, err := ReadManifest([]byte(tc.data))
+			if !errors.Is(err, ErrManifest) || !strings.Contains(err.Error(), tc.want) {
+				t.Fatalf("error %v, want %q", err, tc.want)
+			}
+		})
+	}
+}
+
+func TestEncoderOptionsRejectAmbiguousKeys(t *testing.T) {
+	for raw, want := range map[string]string{
+		`{"kind":"stack","pages":2,"pages":3}`:    `1:27: key "pages" appears twice`,
+		`{"kind":"stack","pages":2,"Pages":3}`:    `keys "pages" and "Pages" differ only in case`,
+		`{"kind":"stack","Pages":2}`:              `key "Pages" is not "pages"`,
+		`{"kind":"stack","pages":2,"no_twins":1}`: "expected bool",
+	} {
+		_, err := UnmarshalEncoderOptions([]byte(raw))
+		if err == nil || !strings.Contains(err.Error(), want) {
+			t.Errorf("%s: error %v, want %q", raw, err, want)
+		}
+	}
+}

@@ -56,6 +56,7 @@ type Report struct {
 	Verified   bool      `json:"verified"`
 	Unreadable bool      `json:"unreadable,omitempty"` // the file could not be read (not a verdict on the bundle)
 	Claim      string    `json:"claim,omitempty"`
+	Label      string    `json:"label,omitempty"` // claim.name as the bundle gives it: not checked
 	Checks     []Check   `json:"checks"`
 	Drift      *Drift    `json:"encoder_drift,omitempty"`
 	Seconds    float64   `json:"seconds"`
@@ -209,7 +210,7 @@ func (v *verifier) prepare() {
 		return
 	}
 	v.m, v.rep.Manifest = m, m
-	v.rep.Claim = ClaimText(m)
+	v.rep.Claim, v.rep.Label = ClaimText(m), m.Claim.Name
 	v.rep.add("manifest", StatusPass, "schema version %d, made by %s %s", m.FormatVersion, m.Tool, m.ToolVersion)
 	if !v.checkGraph() {
 		return
@@ -675,13 +676,12 @@ func describe(o proof.Outcome) string {
 }
 
 // ClaimText states a manifest's claim for people, e.g.
-// "stack layouts of K7 (n=7, m=21): exactly 4 pages".
+// "stack layouts of graph 5f0e4d2a91c3 (n=7, m=21): exactly 4 pages". It
+// names the graph by its identity, which verification checks, and never by
+// claim.name, which nothing checks: show that apart, with LabelText.
 func ClaimText(m *Manifest) string {
 	c := m.Claim
 	g := fmt.Sprintf("graph %s", short(c.GraphID))
-	if c.Name != "" {
-		g = c.Name
-	}
 	kind := c.Kind + " layouts"
 	if c.Kind == "mixed" {
 		kind = "mixed layouts with pages " + strings.Join(c.PageKinds, ",")
@@ -696,6 +696,16 @@ func ClaimText(m *Manifest) string {
 		b = fmt.Sprintf("exactly %d pages", c.K)
 	}
 	return fmt.Sprintf("%s of %s (n=%d, m=%d): %s", kind, g, c.Vertices, c.Edges, b)
+}
+
+// LabelText returns claim.name quoted and marked as unchecked, e.g.
+// `"K7" (the bundle's name for the graph, not checked)`, or "" when the claim
+// has no name.
+func LabelText(name string) string {
+	if name == "" {
+		return ""
+	}
+	return fmt.Sprintf("%+q (the bundle's name for the graph, not checked)", name)
 }
 
 func short(id string) string {

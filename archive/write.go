@@ -6,8 +6,11 @@ import (
 	"context"
 	"crypto/sha256"
 	"encoding/hex"
+	"errors"
 	"fmt"
 	"io"
+	"io/fs"
+	"math/rand/v2"
 	"os"
 	"path/filepath"
 	"slices"
@@ -199,10 +202,26 @@ func writeMember(ctx context.Context, tw *tar.Writer, m Source, sum string) erro
 // WriteFile writes a bundle to path atomically: through a temporary file in
 // the same directory that is synced and renamed into place. On any error,
 // including cancellation of ctx, the temporary file is removed and path is
-// left as it was.
+// left as it was. The file gets mode 0666 less the umask. A path that
+// exists and is not a regular file (a device, a FIFO) is written directly,
+// since renaming over it would replace it.
 func WriteFile(ctx context.Context, path string, members []Source) (err error) {
+	if fi, err := os.Stat(path); err == nil && !fi.Mode().IsRegular() {
+		f, err := os.OpenFile(path, os.O_WRONLY, 0)
+		if err != nil {
+			return fmt.Errorf("archive: %w", err)
+		}
+		if err := Write(ctx, f, members); err != nil {
+			f.Close()
+			return err
+		}
+		if err := f.Close(); err != nil {
+			return fmt.Errorf("archive: %w", err)
+		}
+		return nil
+	}
 	dir := filepath.Dir(path)
-	tmp, err := os.CreateTemp(dir, "."+filepath.Base(path)+".tmp-*")
+	tmp, err := createTemp(path)
 	if err != nil {
 		return fmt.Errorf("archive: %w", err)
 	}
@@ -219,9 +238,6 @@ func WriteFile(ctx context.Context, path string, members []Source) (err error) {
 	if err := ctx.Err(); err != nil {
 		return err
 	}
-	if err := tmp.Chmod(0o644); err != nil {
-		return fmt.Errorf("archive: %w", err)
-	}
 	if err := tmp.Sync(); err != nil {
 		return fmt.Errorf("archive: %w", err)
 	}
@@ -236,4 +252,18 @@ func WriteFile(ctx context.Context, path string, members []Source) (err error) {
 		d.Close()
 	}
 	return nil
+}
+
+// createTemp creates a new temporary file beside path with mode 0666 less
+// the umask, as for any file a program creates (os.CreateTemp uses 0600).
+func createTemp(path string) (*os.File, error) {
+	dir, base := filepath.Split(path)
+	for range 1000 {
+		name := filepath.Join(dir, fmt.Sprintf(".%s.tmp-%016x", base, rand.Uint64()))
+		f, err := os.OpenFile(name, os.O_RDWR|os.O_CREATE|os.O_EXCL, 0o666)
+		if !errors.Is(err, fs.ErrExist) {
+			return f, err
+		}
+	}
+	return nil, fmt.Errorf("no unused temporary file name in %s", filepath.Dir(path))
 }

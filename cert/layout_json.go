@@ -66,12 +66,13 @@ type jscan struct {
 	name string
 	data []byte // data[pos:] is unread
 	pos  int
-	// lines counts the newlines in input already dropped from data
-	lines int
-	rerr  error
-	b     *graph.Builder
-	buf   []byte
-	hint  int // expected number of edges
+	// lines counts the newlines in input already dropped from data; cols
+	// counts the bytes of the current line dropped with them
+	lines, cols int
+	rerr        error
+	b           *graph.Builder
+	buf         []byte
+	hint        int // expected number of edges
 }
 
 func newJScan(r io.Reader, name string) *jscan {
@@ -83,7 +84,13 @@ func (s *jscan) fill() bool {
 	if s.rerr != nil {
 		return false
 	}
-	s.lines += bytes.Count(s.data[:s.pos], []byte{'\n'})
+	dropped := s.data[:s.pos]
+	s.lines += bytes.Count(dropped, []byte{'\n'})
+	if nl := bytes.LastIndexByte(dropped, '\n'); nl >= 0 {
+		s.cols = len(dropped) - nl - 1
+	} else {
+		s.cols += len(dropped)
+	}
 	n := copy(s.data[:cap(s.data)], s.data[s.pos:])
 	s.data, s.pos = s.data[:n], 0
 	for {
@@ -110,8 +117,10 @@ func (s *jscan) errf(format string, a ...any) error {
 func (s *jscan) where() (line, col int) {
 	before := s.data[:min(s.pos, len(s.data))]
 	line = s.lines + bytes.Count(before, []byte{'\n'}) + 1
-	col = len(before) - bytes.LastIndexByte(before, '\n') - 1
-	return line, col
+	if nl := bytes.LastIndexByte(before, '\n'); nl >= 0 {
+		return line, len(before) - nl - 1
+	}
+	return line, s.cols + len(before)
 }
 
 // next returns the next byte; false at end of input.
@@ -194,7 +203,7 @@ func (s *jscan) layout() (*RawLayout, error) {
 			return nil, err
 		}
 		if seen[string(key)] {
-			return nil, s.errf("field %q appears twice", key)
+			return nil, &textpos.Error{File: s.name, Line: keyLine, Col: keyCol, Msg: fmt.Sprintf("field %q appears twice", key)}
 		}
 		seen[string(key)] = true
 		if err := s.expect(':', "':' after a field name"); err != nil {
@@ -237,7 +246,7 @@ func (s *jscan) layout() (*RawLayout, error) {
 				return nil, err
 			}
 		default:
-			return nil, s.errf("unknown field %q (expected kind, pages, page_kinds, spine, edges or graph)", key)
+			return nil, &textpos.Error{File: s.name, Line: keyLine, Col: keyCol, Msg: fmt.Sprintf("unknown field %q (expected kind, pages, page_kinds, spine, edges or graph; field names are case-sensitive)", key)}
 		}
 	}
 	if c, ok := s.skip(); ok {

@@ -166,3 +166,31 @@ func FuzzLayoutJSON(f *testing.F) {
 		}
 	})
 }
+
+// Positions in a single-line layout stay right when the reader refills its
+// buffer: near the end of the input (the fast edge path asks for more when
+// few bytes are left) and past the first megabyte.
+func TestLayoutJSONColumnAfterRefill(t *testing.T) {
+	short := `{"kind":"stack","pages":1,"spine":[1,2,3],"edges":[[1,2,1],[2,3,1],[1,3,1],[1,2,1],[2,3,1],9]}`
+	var long strings.Builder
+	long.WriteString(`{"kind":"stack","pages":1,"spine":[1,2],"edges":[`)
+	for long.Len() < 3<<20 {
+		long.WriteString("[1,2,1],")
+	}
+	long.WriteString("[1,2,1]x")
+	for in, col := range map[string]int{
+		short:                     len(short) - 2, // the stray 9 (column 93)
+		long.String():             long.Len(),     // the x
+		"\n" + short:              len(short) - 2,
+		"{\n" + long.String()[1:]: long.Len() - 1,
+	} {
+		_, err := ReadLayoutJSON(strings.NewReader(in), "l.json")
+		pe, ok := err.(*textpos.Error)
+		if !ok {
+			t.Fatalf("error %v, want a *textpos.Error", err)
+		}
+		if line := strings.Count(in, "\n") + 1; pe.Line != line || pe.Col != col {
+			t.Errorf("error %v, want it at %d:%d", err, line, col)
+		}
+	}
+}

@@ -76,11 +76,18 @@ func ReadFile(path string, f Format) (*ReadResult, error) {
 // its extension as a format hint when f is FormatAuto.
 func Read(r io.Reader, name string, f Format) (*ReadResult, error) {
 	br := bufio.NewReaderSize(r, 1<<20)
+	var warnings []string
+	// A UTF-8 byte-order mark (some editors write one) is not part of the
+	// first label: it would change the graph's identity unseen.
+	if head, _ := br.Peek(len(utf8BOM)); bytes.Equal(head, utf8BOM) {
+		_, _ = br.Discard(len(utf8BOM))
+		warnings = append(warnings, fmt.Sprintf("%s: ignored the UTF-8 byte-order mark at the start of the file", name))
+	}
 	if f == FormatAuto {
 		head, _ := br.Peek(detectPeek)
 		f = DetectFormat(head, name)
 	}
-	res := &ReadResult{Format: f}
+	res := &ReadResult{Format: f, Warnings: warnings}
 	var err error
 	switch f {
 	case FormatEdgeList:
@@ -108,6 +115,9 @@ func Read(r io.Reader, name string, f Format) (*ReadResult, error) {
 	}
 	return res, nil
 }
+
+// utf8BOM is the UTF-8 encoding of U+FEFF, the byte-order mark.
+var utf8BOM = []byte{0xef, 0xbb, 0xbf}
 
 // DetectFormat guesses the format of a file from its first bytes and name.
 // A recognised extension (.g6 .graph6, .s6 .sparse6, .dimacs .col .clq,

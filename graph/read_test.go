@@ -623,3 +623,24 @@ func BenchmarkReadEdgeList(b *testing.B) {
 	}
 	b.ReportMetric(float64(m)*float64(b.N)/b.Elapsed().Seconds(), "edges/s")
 }
+
+// A UTF-8 byte-order mark at the start is dropped with a warning; it does
+// not become part of the first label, and the graph keeps its identity.
+func TestByteOrderMark(t *testing.T) {
+	for _, body := range []string{"a b\nb c\n", "1 2\n2 3\n", "p edge 3 2\ne 1 2\ne 2 3\n"} {
+		plain, err := Read(strings.NewReader(body), "g", FormatAuto)
+		if err != nil {
+			t.Fatal(err)
+		}
+		res, err := Read(strings.NewReader("\ufeff"+body), "g", FormatAuto)
+		if err != nil {
+			t.Fatalf("%q with a byte-order mark: %v", body, err)
+		}
+		if res.Format != plain.Format || res.Graphs[0].ID() != plain.Graphs[0].ID() {
+			t.Errorf("%q: with a byte-order mark %v %s, without %v %s", body, res.Format, res.Graphs[0].ID(), plain.Format, plain.Graphs[0].ID())
+		}
+		if len(res.Warnings) != 1 || !strings.Contains(res.Warnings[0], "g: ignored the UTF-8 byte-order mark") {
+			t.Errorf("%q: warnings %q", body, res.Warnings)
+		}
+	}
+}

@@ -256,12 +256,16 @@ func printBundle(cmd *cobra.Command, o *bundleOptions, out string, m *archive.Ma
 			Bundle   string            `json:"bundle"`
 			Size     int64             `json:"size"`
 			Claim    string            `json:"claim"`
+			Label    string            `json:"label,omitempty"`
 			Manifest *archive.Manifest `json:"manifest"`
-		}{out, size, archive.ClaimText(m), m})
+		}{out, size, archive.ClaimText(m), m.Claim.Name, m})
 	}
 	w := cmd.OutOrStdout()
 	fmt.Fprintf(w, "wrote %s (%d bytes)\n", out, size)
 	fmt.Fprintf(w, "claim: %s\n", archive.ClaimText(m))
+	if m.Claim.Name != "" {
+		fmt.Fprintf(w, "label: %s\n", archive.LabelText(m.Claim.Name))
+	}
 	if m.Layout != nil {
 		fmt.Fprintf(w, "layout: checked directly, %d pages\n", m.Layout.Pages)
 	}

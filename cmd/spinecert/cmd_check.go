@@ -37,8 +37,9 @@ or the missing or extra edge.`,
 		Args: cobra.ExactArgs(2),
 		RunE: func(cmd *cobra.Command, args []string) error {
 			o.graphArg, o.layout = args[0], args[1]
-			if o.pages < 0 {
-				return usageErr(fmt.Errorf("--pages must be positive"))
+			// 0 is the default, "no limit"; given, the limit must be a page count.
+			if cmd.Flags().Changed("pages") && o.pages < 1 {
+				return usageErr(fmt.Errorf("--pages must be at least 1, found %d", o.pages))
 			}
 			return runCheck(cmd, &o)
 		},

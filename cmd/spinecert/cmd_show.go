@@ -77,6 +77,9 @@ func runShow(cmd *cobra.Command, o *showOptions) error {
 	}
 	fmt.Fprintf(w, "bundle:   %s (%d bytes, %d decompressed)\n", o.bundle, c.Packed, c.Total)
 	fmt.Fprintf(w, "claim:    %s\n", archive.ClaimText(m))
+	if m.Claim.Name != "" {
+		fmt.Fprintf(w, "label:    %s\n", archive.LabelText(m.Claim.Name))
+	}
 	fmt.Fprintf(w, "graph:    identity %s, %s (as given, %s) and %s (canonical)\n", m.Claim.GraphID, m.Graph.Input, m.Graph.InputFormat, m.Graph.Canonical)
 	if l := m.Layout; l != nil {
 		fmt.Fprintf(w, "layout:   %s, %d pages, %s when bundled\n", l.Member, l.Pages, l.Check)
@@ -99,7 +102,11 @@ func runShow(cmd *cobra.Command, o *showOptions) error {
 			if v == "" {
 				v = "version unknown"
 			}
-			fmt.Fprintf(w, "run:      %s (%s): %s in %.3f s\n", run.Backend, v, run.Answer, run.Seconds)
+			took := ""
+			if run.Seconds > 0 {
+				took = fmt.Sprintf(" in %.3f s", run.Seconds)
+			}
+			fmt.Fprintf(w, "run:      %s (%s): %s%s\n", run.Backend, v, run.Answer, took)
 		}
 		for _, p := range r.Proofs {
 			conv := ""

@@ -198,6 +198,9 @@ func verifyPrint(w io.Writer, s *verifySummary) {
 		if r.Claim != "" {
 			fmt.Fprintf(w, "  claim: %s\n", r.Claim)
 		}
+		if r.Label != "" {
+			fmt.Fprintf(w, "  label: %s\n", archive.LabelText(r.Label))
+		}
 		for _, c := range r.Checks {
 			fmt.Fprintf(w, "  %-4s %s: %s\n", c.Status, c.Name, c.Detail)
 		}
@@ -262,6 +265,9 @@ func verifyJUnit(w io.Writer, reports []*archive.Report) error {
 		tc := junitCase{Name: r.Bundle, Classname: "spinecert.verify", Time: fmt.Sprintf("%.3f", r.Seconds), SystemOut: strings.Join(lines, "\n")}
 		if r.Claim != "" {
 			tc.SystemOut = "claim: " + r.Claim + "\n" + tc.SystemOut
+		}
+		if r.Label != "" {
+			tc.SystemOut = "label: " + archive.LabelText(r.Label) + "\n" + tc.SystemOut
 		}
 		if !r.Verified {
 			var msgs []string

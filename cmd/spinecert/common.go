@@ -2,8 +2,11 @@ package main
 
 import (
 	"encoding/json"
+	"errors"
 	"fmt"
 	"io"
+	"io/fs"
+	"math/rand/v2"
 	"os"
 	"path/filepath"
 
@@ -80,13 +83,17 @@ func writeJSON(w io.Writer, v any) error {
 
 // writeFileAtomic writes a file through a temporary file in the same
 // directory, synced and renamed into place, so that path is never left
-// half-written. "-" writes to stdout.
+// half-written. "-" writes to stdout. A path that exists and is not a
+// regular file (a device such as /dev/null, a FIFO) is written directly:
+// renaming over it would replace it. New files get mode 0666 less the umask.
 func writeFileAtomic(path string, stdout io.Writer, write func(io.Writer) error) error {
 	if path == "-" {
 		return write(stdout)
 	}
-	dir := filepath.Dir(path)
-	tmp, err := os.CreateTemp(dir, "."+filepath.Base(path)+".tmp-*")
+	if fi, err := os.Stat(path); err == nil && !fi.Mode().IsRegular() {
+		return writeDirect(path, write)
+	}
+	tmp, err := createTemp(path)
 	if err != nil {
 		return usageErr(fmt.Errorf("cannot write %s: %w", path, err))
 	}
@@ -112,4 +119,36 @@ func writeFileAtomic(path string, stdout io.Writer, write func(io.Writer) error)
 	}
 	ok = true
 	return nil
+}
+
+// writeDirect writes to an existing file that is not a regular file.
+func writeDirect(path string, write func(io.Writer) error) error {
+	f, err := os.OpenFile(path, os.O_WRONLY, 0)
+	if err != nil {
+		return usageErr(fmt.Errorf("cannot write %s: %w", path, err))
+	}
+	if err := write(f); err != nil {
+		f.Close()
+		return err
+	}
+	if err := f.Close(); err != nil {
+		return fmt.Errorf("writing %s: %w", path, err)
+	}
+	return nil
+}
+
+// createTemp creates a new temporary file beside path. Unlike
+// os.CreateTemp (mode 0600) it asks for mode 0666, which the umask filters
+// as it does for any file a program creates, so the file renamed into
+// place has the mode a user expects.
+func createTemp(path string) (*os.File, error) {
+	dir, base := filepath.Split(path)
+	for range 1000 {
+		name := filepath.Join(dir, fmt.Sprintf(".%s.tmp-%016x", base, rand.Uint64()))
+		f, err := os.OpenFile(name, os.O_RDWR|os.O_CREATE|os.O_EXCL, 0o666)
+		if !errors.Is(err, fs.ErrExist) {
+			return f, err
+		}
+	}
+	return nil, fmt.Errorf("no unused temporary file name in %s", filepath.Dir(path))
 }

@@ -167,3 +167,76 @@ func randomGraph(n int, p float64) string {
 	}
 	return b.String()
 }
+
+// TestInterruptExtract interrupts extract while it reads a bundle, half of
+// which has arrived through a FIFO: it exits with status 130, says
+// "interrupted" (not "context canceled", not exit 2) and leaves nothing in
+// DIR.
+func TestInterruptExtract(t *testing.T) {
+	bin, err := exec.LookPath("spinecert")
+	if err != nil {
+		t.Fatalf("spinecert is not on PATH (testscript.Main puts it there): %v", err)
+	}
+	dir := t.TempDir()
+	if err := os.WriteFile(filepath.Join(dir, "g.edges"), []byte(completeGraph(5)), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	mk := exec.Command(bin, "bundle", "g.edges", "--exact", "3", "--solvers", "gophersat,gini", "-o", "k5.spinecert.tar.zst")
+	mk.Dir = dir
+	if out, err := mk.CombinedOutput(); err != nil {
+		t.Fatalf("bundle: %v\n%s", err, out)
+	}
+	b, err := os.ReadFile(filepath.Join(dir, "k5.spinecert.tar.zst"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	fifo := filepath.Join(dir, "bundle.fifo")
+	if err := syscall.Mkfifo(fifo, 0o600); err != nil {
+		t.Skipf("cannot make a FIFO: %v", err)
+	}
+	out := filepath.Join(dir, "out")
+	cmd := exec.Command(bin, "extract", fifo, out)
+	var stdout, stderr bytes.Buffer
+	cmd.Stdout, cmd.Stderr = &stdout, &stderr
+	if err := cmd.Start(); err != nil {
+		t.Fatal(err)
+	}
+	done := make(chan error, 1)
+	go func() { done <- cmd.Wait() }()
+	// Opening the FIFO for writing returns once extract has opened it, so
+	// its signal handling is in place.
+	w, err := os.OpenFile(fifo, os.O_WRONLY, 0)
+	if err != nil {
+		cmd.Process.Kill()
+		t.Fatal(err)
+	}
+	if _, err := w.Write(b[:len(b)/2]); err != nil {
+		t.Fatal(err)
+	}
+	time.Sleep(200 * time.Millisecond)
+	if err := cmd.Process.Signal(syscall.SIGINT); err != nil {
+		t.Fatal(err)
+	}
+	time.Sleep(100 * time.Millisecond)
+	w.Close()
+	var werr error
+	select {
+	case werr = <-done:
+	case <-time.After(time.Minute):
+		cmd.Process.Kill()
+		t.Fatalf("extract did not stop within a minute of the interrupt; stderr:\n%s", &stderr)
+	}
+	var ee *exec.ExitError
+	if !errors.As(werr, &ee) || ee.ExitCode() != exitInterrupted {
+		t.Fatalf("exit %v, want status %d; stderr:\n%s", werr, exitInterrupted, &stderr)
+	}
+	if stdout.Len() != 0 {
+		t.Errorf("stdout not empty:\n%s", &stdout)
+	}
+	if got := stderr.String(); got != "spinecert: interrupted\n" {
+		t.Errorf("stderr %q, want \"spinecert: interrupted\\n\"", got)
+	}
+	if left, _ := os.ReadDir(out); len(left) > 0 {
+		t.Errorf("left in DIR after the interrupt: %s", left[0].Name())
+	}
+}

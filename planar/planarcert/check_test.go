@@ -235,6 +235,9 @@ func TestPlanarCertBadFiles(t *testing.T) {
 		"bad-trailing.json":   "end of input",
 		"bad-neighbours.json": "list of [vertex, neighbours...] lists",
 		"bad-empty.json":      "is empty",
+		"bad-case.json":       `p.json:1:143: keys "planar" and "Planar" differ only in case`,
+		"bad-case-inner.json": `keys "kind" and "Kind" differ only in case`,
+		"bad-key-twice.json":  `key "planar" appears twice`,
 	}
 	for _, f := range files {
 		data, err := os.ReadFile(f)

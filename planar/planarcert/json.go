@@ -141,6 +141,9 @@ func Read(r io.Reader, name string, g *graph.Graph) (*Cert, error) {
 	if dec.More() {
 		return nil, perr(dec.InputOffset(), "expected end of input after the certificate object")
 	}
+	if err := textpos.CheckJSONKeys(data, name, &f); err != nil {
+		return nil, err
+	}
 	switch {
 	case f.Format == nil || *f.Format != Format:
 		return nil, perr(0, "expected \"format\": %q", Format)

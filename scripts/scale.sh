@@ -1,12 +1,13 @@
 #!/usr/bin/env bash
 # Lower bounds at scale: "solve --pages 2" on Kleetopes of random stacked
 # triangulations (internal/kleetopegen; maximal planar, not Hamiltonian, so
-# 3 pages are needed), with the subgraph search on and off, side by side in
-# one run. Each run is bounded in time and memory (a full encoding of a
+# 3 pages are needed), side by side in one run: the subgraph search, the
+# whole default encoding, the on-demand formulation, and both levers. Each run is bounded in time and memory (a full encoding of a
 # large graph can exceed the machine). A benchmark, not a test.
 #
 # Usage: scripts/scale.sh [SIZES...]   (triangulation sizes t; the Kleetope has 3t-4 vertices)
-# Environment: LIMIT (seconds per run, default 600), MEM_KB (default 16 GiB),
+# Environment: LIMIT (seconds per run, default 600; LIMIT_OD for the on-demand
+#              runs, default 120), MEM_KB (default 16 GiB),
 #              SOLVERS (default: spinecert's default, auto).
 set -euo pipefail
 cd "$(dirname "$0")/.."
@@ -43,4 +44,8 @@ for t in "${sizes[@]}"; do
   echo "== Kleetope from t=$t: $(( 3 * t - 4 )) vertices"
   run subgraph solve --quiet "$g" --pages 2 --subgraph on "${solvers[@]}"
   run full solve --quiet "$g" --pages 2 --subgraph off "${solvers[@]}"
+  LIMIT_SAVE=$limit; limit=${LIMIT_OD:-120}
+  run on-demand solve --quiet "$g" --pages 2 --subgraph off --formula on-demand "${solvers[@]}"
+  run both solve --quiet "$g" --pages 2 --subgraph on --formula on-demand "${solvers[@]}"
+  limit=$LIMIT_SAVE
 done

@@ -31,7 +31,11 @@ const (
 	MethodSweep = Method("sweep")
 )
 
-// Methods lists the methods in the order auto tries them.
+// Methods lists the methods. Auto takes the complete-graph layout when it
+// applies; otherwise the 4-connected or else the planar 3-tree
+// construction, and on graphs of at most hamiltonMaxEdges edges, when that
+// gives more than 2 pages or none applies, also the sweep and then the
+// Hamiltonian search, keeping the layout with the fewest pages.
 var Methods = []Method{MethodAuto, MethodComplete, MethodStacked, MethodFourConnected, MethodHamiltonSearch, MethodSweep}
 
 // ParseMethod returns the method named s.
@@ -92,19 +96,33 @@ func FindReport(g *graph.Graph, kind cert.Kind, opts Options) (*cert.Layout, Rep
 		}
 		return l, rep, nil
 	}
-	for _, m := range []Method{MethodComplete, MethodStacked, MethodFourConnected} {
+	if l, rep, _ := construct(g, MethodComplete, opts); l != nil {
+		return l, rep, nil // optimal (Bernhart and Kainen 1979)
+	}
+	var best *cert.Layout
+	var bestRep Report
+	for _, m := range []Method{MethodFourConnected, MethodStacked} {
 		if l, rep, _ := construct(g, m, opts); l != nil {
-			return l, rep, nil
+			best, bestRep = l, rep
+			break
 		}
 	}
+	if best != nil && (best.Pages() <= 2 || g.M() > hamiltonMaxEdges) {
+		return best, bestRep, nil
+	}
+	// On graphs of moderate size, the sweep and the Hamiltonian search may
+	// beat a 3-page construction (K4 is a planar 3-tree with 2 pages).
 	l := search(g, cert.Stack, opts)
-	if l.Pages() <= 2 {
-		return l, Report{Method: MethodSweep}, nil
+	if best == nil || l.Pages() < best.Pages() {
+		best, bestRep = l, Report{Method: MethodSweep}
+	}
+	if best.Pages() <= 2 {
+		return best, bestRep, nil
 	}
 	if h, rep, _ := construct(g, MethodHamiltonSearch, opts); h != nil {
 		return h, rep, nil
 	}
-	return l, Report{Method: MethodSweep}, nil
+	return best, bestRep, nil
 }
 
 // construct runs one stack method; nil and the reason when it does not apply.

@@ -42,18 +42,18 @@ type Step struct {
 // Result is the page number (or queue number) with the evidence
 // for both bounds. PageNumber is -1 unless Lower == Upper.
 type Result struct {
-	Graph      string        `json:"graph"`
-	Kind       string        `json:"kind"`
-	PageNumber int           `json:"pagenumber"`
-	Lower      Bound         `json:"lower"`
-	Upper      Bound         `json:"upper"`
-	Steps      []Step        `json:"steps,omitempty"`
-	Layout     *cert.Layout  `json:"-"` // the layout behind Upper, validated
+	Graph      string       `json:"graph"`
+	Kind       string       `json:"kind"`
+	PageNumber int          `json:"pagenumber"`
+	Lower      Bound        `json:"lower"`
+	Upper      Bound        `json:"upper"`
+	Steps      []Step       `json:"steps,omitempty"`
+	Layout     *cert.Layout `json:"-"` // the layout behind Upper, validated
 	// Method names the construction of the first checked layout (see
 	// heuristic.FindReport), with its class bound and theorem when it has
 	// one; the SAT steps may improve on it.
-	Method heuristic.Report `json:"upper_start"`
-	Elapsed    time.Duration `json:"elapsed_ns"`
+	Method  heuristic.Report `json:"upper_start"`
+	Elapsed time.Duration    `json:"elapsed_ns"`
 }
 
 // Compute determines the page number (Kind stack) or queue number (Kind

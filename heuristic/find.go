@@ -1,7 +1,6 @@
 package heuristic
 
 import (
-	"fmt"
 	"time"
 
 	"spinecert.dev/cert"
@@ -19,6 +18,9 @@ type Options struct {
 	// TimeLimit stops trying further candidates once it has passed
 	// (0 = no limit). The best layout found so far is returned.
 	TimeLimit time.Duration
+	// Method chooses the construction ("" or MethodAuto: the first that
+	// applies; see FindReport).
+	Method Method
 }
 
 // candidates returns the spine orders to try: Candidates, or by default 8;
@@ -34,15 +36,11 @@ func (o Options) candidates(kind cert.Kind, m int) int {
 	return max(3, min(8, 8*200_000/max(m, 1)))
 }
 
-// Find returns a layout of kind cert.Stack or cert.Queue for g.
+// Find returns a layout of kind cert.Stack or cert.Queue for g, by the
+// method opts.Method (see FindReport).
 func Find(g *graph.Graph, kind cert.Kind, opts Options) (*cert.Layout, error) {
-	switch kind {
-	case cert.Stack:
-		return Stack(g, opts), nil
-	case cert.Queue:
-		return Queue(g, opts), nil
-	}
-	return nil, fmt.Errorf("%w: %s (expected stack or queue)", ErrKind, kind)
+	l, _, err := FindReport(g, kind, opts)
+	return l, err
 }
 
 // Stack returns a stack layout (book embedding) of g.

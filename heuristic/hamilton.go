@@ -221,6 +221,18 @@ func HamiltonianTwoPage(g *graph.Graph, emb *planarcert.Embedding, budget int) (
 	if !ok {
 		return nil, false
 	}
+	return cycleTwoPage(g, emb, cyc)
+}
+
+// cycleTwoPage turns the Hamiltonian cycle cyc of g and the planar
+// embedding emb into a 2-page stack layout with cyc as the spine, and
+// checks it for crossings; false if cyc is not a Hamiltonian cycle of g
+// or emb not a planar embedding of g.
+func cycleTwoPage(g *graph.Graph, emb *planarcert.Embedding, cyc []int32) (*cert.Layout, bool) {
+	n := g.N()
+	if len(cyc) != n || len(emb.Rotation) != n {
+		return nil, false
+	}
 	pos := make([]int32, n)
 	for i, v := range cyc {
 		pos[v] = int32(i)
@@ -254,6 +266,9 @@ func HamiltonianTwoPage(g *graph.Graph, emb *planarcert.Embedding, budget int) (
 	}
 	for i := 0; i < n; i++ {
 		e := g.EdgeIndex(cyc[i], cyc[(i+1)%n])
+		if e < 0 {
+			return nil, false
+		}
 		page[e] = 1
 	}
 	l := &cert.Layout{Kind: cert.Stack, PageKinds: []cert.Kind{cert.Stack, cert.Stack}, Order: cyc, Page: page}

@@ -45,14 +45,18 @@ type Step struct {
 // Result is the page number (or queue number) with the evidence
 // for both bounds. PageNumber is -1 unless Lower == Upper.
 type Result struct {
-	Graph      string        `json:"graph"`
-	Kind       string        `json:"kind"`
-	PageNumber int           `json:"pagenumber"`
-	Lower      Bound         `json:"lower"`
-	Upper      Bound         `json:"upper"`
-	Steps      []Step        `json:"steps,omitempty"`
-	Layout     *cert.Layout  `json:"-"` // the layout behind Upper, validated
-	Elapsed    time.Duration `json:"elapsed_ns"`
+	Graph      string       `json:"graph"`
+	Kind       string       `json:"kind"`
+	PageNumber int          `json:"pagenumber"`
+	Lower      Bound        `json:"lower"`
+	Upper      Bound        `json:"upper"`
+	Steps      []Step       `json:"steps,omitempty"`
+	Layout     *cert.Layout `json:"-"` // the layout behind Upper, validated
+	// Method names the construction of the first checked layout (see
+	// heuristic.FindReport), with its class bound and theorem when it has
+	// one; the SAT steps may improve on it.
+	Method  heuristic.Report `json:"upper_start"`
+	Elapsed time.Duration    `json:"elapsed_ns"`
 }
 
 // Compute determines the page number (Kind stack) or queue number (Kind
@@ -90,16 +94,21 @@ func Compute(ctx context.Context, g *graph.Graph, opt Options) (*Result, error) 
 		}
 	}
 	// Upper bound from the heuristic, checked directly.
-	l, err := heuristic.Find(g, opt.Kind, opt.Heuristic)
+	l, hr, err := heuristic.FindReport(g, opt.Kind, opt.Heuristic)
 	if err != nil {
 		return nil, fmt.Errorf("pagenumber: %w", err)
 	}
 	l = trimPages(l)
 	if rep := cert.Validate(g, l); !rep.OK() {
-		return nil, fmt.Errorf("pagenumber: heuristic layout failed the direct check: %w", rep.Err())
+		return nil, fmt.Errorf("pagenumber: layout by method %s failed the direct check: %w", hr.Method, rep.Err())
 	}
 	res.Layout = l
-	res.Upper = Bound{l.Pages(), SourceLayout, fmt.Sprintf("heuristic layout on %d pages passed the direct check (cert.Validate)", l.Pages())}
+	res.Method = hr
+	detail := fmt.Sprintf("layout by method %s on %d pages passed the direct check (cert.Validate)", hr.Method, l.Pages())
+	if hr.Theorem != "" {
+		detail += fmt.Sprintf("; the method's class bound is %d: %s", hr.Bound, hr.Theorem)
+	}
+	res.Upper = Bound{l.Pages(), SourceLayout, detail}
 	if res.Lower.Pages > res.Upper.Pages {
 		return nil, fmt.Errorf("pagenumber: lower bound %d (%s) above a checked layout on %d pages: a bound is wrong", res.Lower.Pages, res.Lower.Detail, res.Upper.Pages)
 	}

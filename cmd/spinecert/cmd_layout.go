@@ -20,6 +20,8 @@ type layoutOptions struct {
 	seed       int64
 	timeLimit  time.Duration
 	candidates int
+	method     string
+	parsedMeth heuristic.Method // from method, by validate
 	json       bool
 	graphArg   string
 }
@@ -40,6 +42,24 @@ this many pages suffice, not that fewer would not. Before writing, the
 layout is validated with the same checker as spinecert check; a layout that
 fails is not written.
 
+For stack layouts, --method auto (the default) first tries the
+constructions that guarantee a bound for a class of graphs, in this order,
+and otherwise the sweep:
+
+  complete            K_n on ceil(n/2) pages (Bernhart and Kainen 1979)
+  planar-3-tree       planar 3-trees (stacked triangulations) on 3 pages
+                      (Heath 1984), recognised by peeling vertices of degree 3
+  4-connected         triangulations without separating triangles on 2 pages:
+                      a Hamiltonian cycle (Tutte 1956) as the spine
+                      (Bernhart and Kainen 1979)
+  hamiltonian-search  a bounded search for a Hamiltonian cycle of a planar
+                      graph, tried after the sweep when it needs 3+ pages
+  sweep               spine candidates and the page sweep
+
+--method NAME forces one; a forced construction that does not apply is a
+usage error. The report names the method and the theorem behind its bound;
+the bound is a claim about the class, the layout is what was checked.
+
 The search is deterministic for a given --seed unless --time-limit stops it
 early.`,
 		Args:    cobra.ExactArgs(1),
@@ -55,6 +75,7 @@ early.`,
 	cmd.Flags().Int64Var(&o.seed, "seed", 1, "seed for the randomised spine orders")
 	cmd.Flags().DurationVar(&o.timeLimit, "time-limit", 10*time.Second, "stop trying further spine orders after this long (0 = no limit)")
 	cmd.Flags().IntVar(&o.candidates, "candidates", 8, "number of spine orders to try")
+	cmd.Flags().StringVar(&o.method, "method", "auto", "construction: auto, complete, planar-3-tree, 4-connected, hamiltonian-search or sweep")
 	cmd.Flags().BoolVar(&o.json, "json", false, "print one JSON object on stdout")
 	return cmd
 }
@@ -72,6 +93,14 @@ func (o *layoutOptions) validate() error {
 		return usageErr(fmt.Errorf("--kind %q: expected stack or queue", o.kind))
 	}
 	o.parsedKind = kind
+	m, err := heuristic.ParseMethod(o.method)
+	if err != nil {
+		return usageErr(fmt.Errorf("--method %q: expected auto, complete, planar-3-tree, 4-connected, hamiltonian-search or sweep", o.method))
+	}
+	if kind == cert.Queue && m != heuristic.MethodAuto && m != heuristic.MethodSweep {
+		return usageErr(fmt.Errorf("--method %s builds stack layouts only", m))
+	}
+	o.parsedMeth = m
 	return nil
 }
 
@@ -82,7 +111,7 @@ func runLayout(cmd *cobra.Command, o *layoutOptions) error {
 		return err
 	}
 	start := time.Now()
-	l, err := heuristic.Find(g, kind, heuristic.Options{Seed: o.seed, Candidates: o.candidates, TimeLimit: o.timeLimit})
+	l, hr, err := heuristic.FindReport(g, kind, heuristic.Options{Seed: o.seed, Candidates: o.candidates, TimeLimit: o.timeLimit, Method: o.parsedMeth})
 	if err != nil {
 		return usageErr(err)
 	}
@@ -96,22 +125,25 @@ func runLayout(cmd *cobra.Command, o *layoutOptions) error {
 	if !rep.OK() {
 		// The heuristic's own output failed the checker: report, write nothing.
 		if o.json {
-			_ = writeJSON(cmd.OutOrStdout(), layoutResult{g.ID(), kind.String(), l.Pages(), perPage, false, "", took.Seconds(), g.N(), g.M()})
+			_ = writeJSON(cmd.OutOrStdout(), layoutResult{g.ID(), kind.String(), l.Pages(), perPage, false, "", took.Seconds(), g.N(), g.M(), string(hr.Method), hr.Bound, hr.Theorem})
 		}
-		return refuted(fmt.Errorf("the layout found failed validation, not written: %w", rep.Err()))
+		return refuted(fmt.Errorf("the layout found by method %s failed validation, not written: %w", hr.Method, rep.Err()))
 	}
 	if err := writeFileAtomic(o.output, cmd.OutOrStdout(), func(w io.Writer) error { return cert.WriteLayoutJSON(w, g, l) }); err != nil {
 		return err
 	}
 	if o.json {
-		return writeJSON(cmd.OutOrStdout(), layoutResult{g.ID(), kind.String(), l.Pages(), perPage, true, o.output, took.Seconds(), g.N(), g.M()})
+		return writeJSON(cmd.OutOrStdout(), layoutResult{g.ID(), kind.String(), l.Pages(), perPage, true, o.output, took.Seconds(), g.N(), g.M(), string(hr.Method), hr.Bound, hr.Theorem})
 	}
 	dest := o.output
 	if dest == "-" {
 		dest = "stdout"
 	}
-	fmt.Fprintf(stderr, "%s layout of %s (n=%d, m=%d) on %d page(s), found in %s and validated; written to %s\n  edges per page: %s\n",
-		kind, o.graphArg, g.N(), g.M(), l.Pages(), took.Round(time.Millisecond), dest, layoutJoin(perPage))
+	fmt.Fprintf(stderr, "%s layout of %s (n=%d, m=%d) on %d page(s), found by method %s in %s and validated; written to %s\n  edges per page: %s\n",
+		kind, o.graphArg, g.N(), g.M(), l.Pages(), hr.Method, took.Round(time.Millisecond), dest, layoutJoin(perPage))
+	if hr.Theorem != "" {
+		fmt.Fprintf(stderr, "  method's class bound: %d page(s): %s\n", hr.Bound, hr.Theorem)
+	}
 	return nil
 }
 
@@ -126,6 +158,9 @@ type layoutResult struct {
 	Seconds  float64 `json:"seconds"`
 	Vertices int     `json:"vertices"`
 	Edges    int     `json:"edges"`
+	Method   string  `json:"method"`
+	Bound    int     `json:"class_bound,omitempty"`
+	Theorem  string  `json:"theorem,omitempty"`
 }
 
 func layoutJoin(a []int) string {

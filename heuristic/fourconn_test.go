@@ -1,0 +1,67 @@
+package heuristic
+
+import (
+	"math/rand/v2"
+	"testing"
+
+	"spinecert.dev/cert"
+	"spinecert.dev/graph"
+	"spinecert.dev/internal/fixture"
+)
+
+func fourConnected(t *testing.T, g *graph.Graph) {
+	t.Helper()
+	l, why := FourConnectedTwoPage(g, 1)
+	if l == nil {
+		t.Fatalf("%v: %s", g, why)
+	}
+	if rep := cert.Validate(g, l); !rep.OK() || l.Pages() != 2 {
+		t.Fatalf("%v: %d pages, %v", g, l.Pages(), rep.Err())
+	}
+}
+
+// The octahedron (4-connected) and the icosahedron (5-connected) are
+// triangulations without separating triangles, so Hamiltonian (Whitney
+// 1931) and on 2 pages (Bernhart and Kainen 1979; REFERENCES); so is K4
+// (its four triangles are its faces); and random triangulations without
+// separating triangles (fixture.RandomFourConnected).
+func TestFourConnectedTwoPage(t *testing.T) {
+	fourConnected(t, fixture.Complete(4))
+	fourConnected(t, fixture.Octahedron())
+	fourConnected(t, fixture.Icosahedron())
+	// The disk growth is a heuristic: on random inputs it must succeed
+	// often, and whatever it returns must pass the checker.
+	rng := rand.New(rand.NewPCG(7, 8))
+	found, tried := 0, 0
+	for n := 6; n < 80; n++ {
+		for rep := 0; rep < 10; rep++ {
+			g := fixture.RandomFourConnected(rng, n, rng.IntN(3*n)).Graph()
+			tried++
+			l, _ := FourConnectedTwoPage(g, 1)
+			if l == nil {
+				continue
+			}
+			found++
+			if rep := cert.Validate(g, l); !rep.OK() || l.Pages() != 2 {
+				t.Fatalf("%v: %d pages, %v", g, l.Pages(), rep.Err())
+			}
+		}
+	}
+	if found < tried*9/10 {
+		t.Errorf("the disk growth found 2-page layouts of %d of %d random 4-connected triangulations", found, tried)
+	}
+	t.Logf("2-page layouts of %d of %d random 4-connected triangulations on 6..79 vertices", found, tried)
+}
+
+// Triangulations with a separating triangle are refused: the
+// Goldner–Harary graph and stacked triangulations on 5+ vertices (the
+// corners of the first face stacked into, once a vertex is inside and one
+// outside; the definition), and non-triangulations.
+func TestFourConnectedRefuses(t *testing.T) {
+	rng := rand.New(rand.NewPCG(9, 10))
+	for _, g := range []*graph.Graph{fixture.GoldnerHarary(), fixture.RandomStackedTriangulation(rng, 50).Graph(), fixture.Petersen(), fixture.Complete(5)} {
+		if l, _ := FourConnectedTwoPage(g, 1); l != nil {
+			t.Errorf("%v: a layout from the 4-connected method", g)
+		}
+	}
+}

@@ -327,38 +327,82 @@ func checkAndStoreProof(ctx context.Context, r *Refutation, in *RefutationInput,
 		}
 		proofPath, format, converted = bin, proof.DRATBinary, proof.DRAT
 	}
-	f, err := os.Open(proofPath)
-	if err != nil {
-		return nil, fmt.Errorf("archive: %w", err)
+	trimmed := ""
+	if format == proof.DRATBinary {
+		tf, err := os.CreateTemp(tmpDir, "spinecert-trimmed-*.drat")
+		if err != nil {
+			return nil, fmt.Errorf("archive: %w", err)
+		}
+		trimmed = tf.Name()
+		tf.Close()
 	}
-	defer f.Close()
-	psum := sha256.New()
-	out := proof.CheckRefutation(ctx, checkAgainst, io.TeeReader(bufio.NewReaderSize(f, 1<<20), psum), proof.RefutationOptions{Format: format, Name: in.Proof, TempDir: tmpDir})
-	if err := ctx.Err(); err != nil {
+	sum, out, err := checkProofFile(ctx, checkAgainst, proofPath, in.Proof, format, trimmed, tmpDir)
+	if err != nil {
 		return nil, err
 	}
-	if out.Err != nil {
-		return nil, fmt.Errorf("archive: checking %s: %w", in.Proof, out.Err)
+	checker := CheckerDRAT
+	if format == "lrat" {
+		checker = CheckerLRAT
 	}
-	if !out.OK() {
-		return nil, fmt.Errorf("%w: %s: %s", ErrRejected, in.Proof, out.Detail)
-	}
-	// The checker may stop before the end of the proof (after the empty clause).
-	if _, err := io.Copy(psum, f); err != nil {
-		return nil, fmt.Errorf("archive: %w", err)
+	p := Proof{Format: format, SHA256: sum, Checker: checker, Result: ResultVerified, ConvertedFrom: converted}
+	if trimmed != "" && out.Core < out.Lemmas {
+		// The trimmed proof is kept only if the same checkers accept it
+		// again, from scratch, and it is smaller.
+		tsum, tout, err := checkProofFile(ctx, checkAgainst, trimmed, in.Proof+" (trimmed)", format, "", tmpDir)
+		if err == nil && tout.OK() {
+			if ts, ps := fileSize(trimmed), fileSize(proofPath); ts >= 0 && ts < ps {
+				p.TrimmedFrom = &TrimmedFrom{Format: format, Size: ps, SHA256: sum, Lemmas: out.Lemmas, CoreLemmas: out.Core}
+				proofPath, p.SHA256 = trimmed, tsum
+			}
+		} else if cerr := ctx.Err(); cerr != nil {
+			return nil, cerr
+		}
 	}
 	src, err := FileSource("proofs/refutation."+proofExt(format), proofPath)
 	if err != nil {
 		return nil, err
 	}
 	srcs = append(srcs, src)
-	checker := CheckerDRAT
-	if format == "lrat" {
-		checker = CheckerLRAT
-	}
-	r.Proofs = []Proof{{Member: src.Name, Format: format, Size: src.Size, SHA256: hex.EncodeToString(psum.Sum(nil)),
-		Checker: checker, Result: ResultVerified, ConvertedFrom: converted}}
+	p.Member, p.Size = src.Name, src.Size
+	r.Proofs = []Proof{p}
 	return srcs, nil
+}
+
+// checkProofFile checks the proof in path against cnf with
+// proof.CheckRefutation and returns the SHA-256 of the whole file and the
+// outcome; a proof the checkers reject is an error wrapping ErrRejected.
+// trimmed, when not empty, receives the trimmed proof (unchecked).
+func checkProofFile(ctx context.Context, cnf *dimacs.CNF, path, name, format, trimmed, tmpDir string) (string, proof.Outcome, error) {
+	f, err := os.Open(path)
+	if err != nil {
+		return "", proof.Outcome{}, fmt.Errorf("archive: %w", err)
+	}
+	defer f.Close()
+	psum := sha256.New()
+	out := proof.CheckRefutation(ctx, cnf, io.TeeReader(bufio.NewReaderSize(f, 1<<20), psum), proof.RefutationOptions{Format: format, Name: name, TempDir: tmpDir, TrimmedPath: trimmed})
+	if err := ctx.Err(); err != nil {
+		return "", out, err
+	}
+	if out.Err != nil {
+		return "", out, fmt.Errorf("archive: checking %s: %w", name, out.Err)
+	}
+	if !out.OK() {
+		return "", out, fmt.Errorf("%w: %s: %s", ErrRejected, name, out.Detail)
+	}
+	// The checker may stop before the end of the proof (after the empty clause).
+	if _, err := io.Copy(psum, f); err != nil {
+		return "", out, fmt.Errorf("archive: %w", err)
+	}
+	return hex.EncodeToString(psum.Sum(nil)), out, nil
+}
+
+// fileSize returns the size of the file at path, or -1.
+func fileSize(path string) int64 {
+	fi, err := os.Stat(path)
+	if err != nil {
+		return -1
+	}
+	return fi.Size()
 }
 
 // subFormula checks that the sub-formula of the refutation is part of the

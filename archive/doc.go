@@ -35,6 +35,14 @@
 // solver run time (bundles of earlier versions hold them and still read), so
 // building the same claim twice gives the same bytes.
 //
+// [Build] stores a DRAT proof trimmed to the lemmas its backward check used
+// (see package proof) when the same checkers, proof.CheckRefutation, accept
+// the trimmed proof again from scratch and it is smaller; the manifest then
+// records the proof it came from (trimmed_from: size, SHA-256, lemmas and
+// core lemmas). A trimmed proof is a proof like any other for [Verify]: it
+// refutes the same CNF or it fails. Manifests with trimmed_from are not
+// read by spinecert versions before it.
+//
 // [Verify] re-checks a bundle from scratch and streams it once: layouts with
 // cert.Check; proofs (binary DRAT as stored; text DRAT given to [Build] is
 // converted to binary) with proof.CheckDRAT, whose LRAT output is checked

@@ -172,6 +172,19 @@ type Proof struct {
 	// ConvertedFrom is "drat" when the proof was given as DRAT text and
 	// stored as the equivalent binary DRAT (the stored form was checked).
 	ConvertedFrom string `json:"converted_from,omitempty"`
+	// TrimmedFrom, when present, describes the proof that was checked when
+	// bundling and then trimmed to the lemmas its backward check used; the
+	// stored proof is that trimmed proof, checked again from scratch.
+	TrimmedFrom *TrimmedFrom `json:"trimmed_from,omitempty"`
+}
+
+// TrimmedFrom is the proof a stored proof was trimmed from.
+type TrimmedFrom struct {
+	Format     string `json:"format"` // as checked: drat-binary (a text proof is converted first)
+	Size       int64  `json:"size"`
+	SHA256     string `json:"sha256"`
+	Lemmas     int64  `json:"lemmas"`      // lemmas of that proof
+	CoreLemmas int64  `json:"core_lemmas"` // lemmas kept: those its backward check used
 }
 
 // PlanarityEntry names a planarity certificate member.
@@ -444,6 +457,14 @@ func (m *Manifest) Validate() error {
 			}
 			if p.ConvertedFrom != "" && (p.ConvertedFrom != "drat" || p.Format != "drat-binary") {
 				bad("%s.converted_from %q: only drat text converted to drat-binary is recorded", f, p.ConvertedFrom)
+			}
+			if t := p.TrimmedFrom; t != nil {
+				if p.Format != "drat-binary" || t.Format != "drat-binary" {
+					bad("%s.trimmed_from: only drat-binary trimmed to drat-binary is recorded", f)
+				}
+				if t.Size < 0 || !isHex64(t.SHA256) || t.Lemmas < 0 || t.CoreLemmas < 0 || t.CoreLemmas > t.Lemmas {
+					bad("%s.trimmed_from: size, sha256 (64 lowercase hex digits), lemmas and core_lemmas (at most lemmas) are required", f)
+				}
 			}
 			if p.Checker == "" || !slices.Contains(results, p.Result) {
 				bad("%s: checker and result (verified or rejected) are required", f)

@@ -63,6 +63,13 @@ func TestManifestRejects(t *testing.T) {
 		{name: "no layout", edit: func(m *Manifest) { m.Layout = nil }, want: "layout is required"},
 		{name: "no refutation", edit: func(m *Manifest) { m.Refutation = nil }, want: "refutation is required"},
 		{name: "proof hash", edit: func(m *Manifest) { m.Refutation.Proofs[0].SHA256 = "ABC" }, want: "proofs[0].sha256"},
+		{name: "trimmed lrat", edit: func(m *Manifest) {
+			m.Refutation.Proofs[0].Format = "lrat"
+			m.Refutation.Proofs[0].TrimmedFrom = &TrimmedFrom{Format: "drat-binary", Size: 20, SHA256: zeroHash, Lemmas: 5, CoreLemmas: 3}
+		}, want: "trimmed_from: only drat-binary trimmed to drat-binary"},
+		{name: "trimmed core", edit: func(m *Manifest) {
+			m.Refutation.Proofs[0].TrimmedFrom = &TrimmedFrom{Format: "drat-binary", Size: 20, SHA256: zeroHash, Lemmas: 3, CoreLemmas: 5}
+		}, want: "core_lemmas (at most lemmas)"},
 		{name: "unlisted", edit: func(m *Manifest) { m.Members = m.Members[1:] }, want: `names "graph/canonical.txt", which is not in members`},
 		{name: "extra", edit: func(m *Manifest) { m.Members = append(m.Members, MemberEntry{"z", 0, zeroHash}) }, want: `lists "z", which no field`},
 		{name: "unsafe", edit: func(m *Manifest) { m.Layout.Member = "../x" }, want: "layout.member"},

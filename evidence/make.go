@@ -30,6 +30,9 @@ var (
 	ErrNotPlanar = errors.New("evidence: the graph is not planar")
 	// ErrLayoutRejected: the given layout failed the direct check.
 	ErrLayoutRejected = errors.New("evidence: layout rejected")
+	// ErrExactTooSmall: FindExact found a page number below 2, for which
+	// no exact claim can be stated (its lower bound would refute 0 pages).
+	ErrExactTooSmall = errors.New("evidence: no exact claim for this page number")
 )
 
 // Request is a claim and what is known about it.
@@ -38,6 +41,11 @@ type Request struct {
 	Input       []byte       // the graph file as given
 	InputFormat graph.Format // its format
 	Claim       archive.Claim
+	// FindExact finds the page number K for an exact claim (Claim.Bound
+	// Exact, Claim.K ignored, Kind stack or queue) with the solvers: the
+	// bundle then claims exact K, with a layout on K pages and a checked
+	// refutation of K-1. Layout and FromProof must be empty.
+	FindExact bool
 	// Layout is a layout read from a file for an upper bound; it is matched
 	// with the graph and checked directly. Nil means: find one with the solvers.
 	Layout *cert.RawLayout
@@ -65,6 +73,9 @@ type Request struct {
 // NeedsSolvers reports whether r needs solver backends: an upper bound
 // without a layout, or a lower bound without a proof.
 func (r *Request) NeedsSolvers() bool {
+	if r.FindExact {
+		return true
+	}
 	b := r.Claim.Bound
 	return (b != archive.AtLeast && r.Layout == nil) || (b != archive.AtMost && r.FromProof == "")
 }
@@ -72,7 +83,7 @@ func (r *Request) NeedsSolvers() bool {
 // Make gathers the evidence for r, has archive.Build check it, and writes
 // the bundle to out atomically. Nothing is written unless every check passed.
 func Make(ctx context.Context, r *Request, out string) (*archive.Manifest, error) {
-	if err := r.Claim.Validate(); err != nil {
+	if err := r.Validate(); err != nil {
 		return nil, err
 	}
 	tmp, err := os.MkdirTemp("", "spinecert-bundle-")
@@ -92,6 +103,24 @@ func Make(ctx context.Context, r *Request, out string) (*archive.Manifest, error
 		return nil, err
 	}
 	return m, nil
+}
+
+// Validate checks the claim of r (for FindExact, the rules of an exact
+// claim with the smallest K it allows, 2) and that FindExact comes with no
+// evidence given.
+func (r *Request) Validate() error {
+	c := r.Claim
+	if !r.FindExact {
+		return c.Validate()
+	}
+	if c.Bound != archive.Exact {
+		return fmt.Errorf("%w: finding the page number is for an exact claim", archive.ErrBadClaim)
+	}
+	if r.Layout != nil || r.FromProof != "" {
+		return fmt.Errorf("%w: finding the page number takes no layout or proof", archive.ErrBadClaim)
+	}
+	c.K = 2
+	return c.Validate()
 }
 
 // Gather collects the evidence for r without checking it for the bundle
@@ -128,6 +157,12 @@ func Gather(ctx context.Context, r *Request, tmpDir string) (*archive.Evidence, 
 	name := c.Name
 	if name == "" {
 		name = "the graph"
+	}
+	if r.FindExact {
+		if err := findExact(ctx, r, kind, tmpDir, ev); err != nil {
+			return nil, err
+		}
+		return ev, nil
 	}
 	if c.Bound != archive.AtLeast {
 		if ev.Layout, err = upper(ctx, r, kind, pageKinds, name, tmpDir); err != nil {
@@ -195,6 +230,15 @@ func lower(ctx context.Context, r *Request, kind cert.Kind, pageKinds []cert.Kin
 	default:
 		return nil, fmt.Errorf("%w: %d pages neither refuted nor found: %s", ErrUndecided, k-1, strings.Join(gv.Verdict.Missing, "; "))
 	}
+	if err := fromVerdict(ref, gv); err != nil {
+		return nil, err
+	}
+	return ref, nil
+}
+
+// fromVerdict fills ref from an UNSAT verdict: the solver runs, the
+// subgraph or sub-formula refuted, and the proof that passed both checkers.
+func fromVerdict(ref *archive.RefutationInput, gv *verify.GraphVerdict) error {
 	for _, res := range gv.Results {
 		ref.Runs = append(ref.Runs, archive.Run{Backend: res.Backend, Version: res.Version, Answer: strings.ToLower(res.Answer.String()), Seconds: res.Elapsed.Seconds()})
 	}
@@ -204,7 +248,7 @@ func lower(ctx context.Context, r *Request, kind cert.Kind, pageKinds []cert.Kin
 	ref.Sub = gv.Sub
 	var ok bool
 	if ref.Proof, ref.ProofFormat, ok = gv.CheckedProof(); !ok {
-		return nil, fmt.Errorf("%w: no proof of the refutation passed the checkers", ErrUndecided)
+		return fmt.Errorf("%w: no proof of the refutation passed the checkers", ErrUndecided)
 	}
-	return ref, nil
+	return nil
 }

@@ -67,6 +67,24 @@
 // one group "-j hints" per clause j containing the negated pivot, each group
 // complete on its own. In backward mode only core lemmas are written.
 //
+// # Trimmed proofs
+//
+// With DRATOptions.Trimmed (RefutationOptions.TrimmedPath) an accepted
+// proof is also written trimmed, as binary DRAT: the core lemmas in proof
+// order (the first literal as written, the RAT pivot, first, the others by
+// variable), the deletions that took effect of formula clauses and core
+// lemmas, and the empty clause; lemmas after the refutation and deletions
+// the checker ignored are left out. Trimming is not trusted: whoever keeps a
+// trimmed proof checks it again with [CheckRefutation], as package archive
+// does. Why it passes that check: unit propagation is monotone (more clauses
+// never stop it from reaching a conflict), and every clause that a core
+// lemma's check and the final conflict used is a formula clause or a core
+// lemma, present at that point of the trimmed proof, so every RUP check and
+// every resolvent check still succeeds; the clauses holding the negated
+// pivot of a RAT lemma are a subset of those in the original check, except
+// where a deletion the checker ignores in the trimmed proof keeps a clause,
+// and then the re-check decides.
+//
 // # The LRAT checker ([CheckLRAT])
 //
 // A second, deliberately small checker in its own file, sharing no code with

@@ -30,6 +30,10 @@ type DRATOptions struct {
 	Forward bool
 	// LRAT, when non-nil, receives the checked proof in LRAT text.
 	LRAT io.Writer
+	// Trimmed, when non-nil, receives the accepted proof trimmed to what
+	// the backward check used, as binary DRAT (see the package doc). It
+	// needs backward mode.
+	Trimmed io.Writer
 	// Progress, when non-nil, is called from time to time.
 	Progress func(Progress)
 	// Name is the proof's name in messages.
@@ -85,6 +89,9 @@ func CheckDRAT(ctx context.Context, cnf *dimacs.CNF, proof io.Reader, opt DRATOp
 		return nil, fmt.Errorf("proof: %s: %w", name, err)
 	}
 	defer dr.Close()
+	if opt.Trimmed != nil && opt.Forward {
+		return nil, fmt.Errorf("proof: %s: a trimmed proof needs the backward check", name)
+	}
 	pr, detected, err := newProofReader(dr, name, opt.Format)
 	if err != nil {
 		return nil, err
@@ -130,6 +137,11 @@ func CheckDRAT(ctx context.Context, cnf *dimacs.CNF, proof io.Reader, opt DRATOp
 	}
 	if k.lrat != nil {
 		if err := k.lrat.writeBackward(k, conflictStep); err != nil {
+			return nil, err
+		}
+	}
+	if opt.Trimmed != nil {
+		if err := k.writeTrimmed(opt.Trimmed, max(conflictStep, 0)); err != nil {
 			return nil, err
 		}
 	}

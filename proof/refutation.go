@@ -23,6 +23,11 @@ type RefutationOptions struct {
 	// (the system's when empty) that is removed before CheckRefutation returns.
 	LRATPath string
 	TempDir  string
+	// TrimmedPath, when not empty and the proof is DRAT, receives the
+	// accepted proof trimmed to the lemmas the backward check used, as
+	// binary DRAT (DRATOptions.Trimmed). It is not checked here: a caller
+	// that keeps it checks it again with CheckRefutation.
+	TrimmedPath string
 	// Progress, when not nil, receives the DRAT checker's progress.
 	Progress func(Progress)
 }
@@ -81,7 +86,19 @@ func CheckRefutation(ctx context.Context, cnf *dimacs.CNF, r io.Reader, opt Refu
 	}
 	defer lf.Close()
 	lw := bufio.NewWriterSize(lf, 256<<10)
-	res, err := CheckDRAT(ctx, cnf, r, DRATOptions{Format: opt.Format, LRAT: lw, Name: opt.Name, Progress: opt.Progress})
+	dopt := DRATOptions{Format: opt.Format, LRAT: lw, Name: opt.Name, Progress: opt.Progress}
+	var tf *os.File
+	if opt.TrimmedPath != "" {
+		tf, err = os.Create(opt.TrimmedPath)
+		if err != nil {
+			out.Err = fmt.Errorf("proof: %w", err)
+			out.Detail = "the trimmed proof could not be created: " + err.Error()
+			return out
+		}
+		defer tf.Close()
+		dopt.Trimmed = tf
+	}
+	res, err := CheckDRAT(ctx, cnf, r, dopt)
 	if res != nil {
 		out.Format = res.Format
 		out.Lemmas, out.Core = int64(res.Lemmas), int64(res.CoreLemmas)
@@ -99,6 +116,13 @@ func CheckRefutation(ctx context.Context, cnf *dimacs.CNF, r io.Reader, opt Refu
 		return out
 	}
 	out.DRAT = true
+	if tf != nil {
+		if err := tf.Close(); err != nil {
+			out.Err = fmt.Errorf("proof: writing the trimmed proof: %w", err)
+			out.Detail = "the trimmed proof could not be written: " + err.Error()
+			return out
+		}
+	}
 	if err := lw.Flush(); err != nil {
 		out.Err = fmt.Errorf("proof: writing lrat: %w", err)
 		out.Detail = "the LRAT output could not be written: " + err.Error()

@@ -24,7 +24,8 @@ type bundleOptions struct {
 	solver     solveSolverFlags
 	atMost     int
 	atLeast    int
-	exact      int
+	exact      string
+	findExact  bool // --exact auto
 	layout     string
 	kind       string
 	pageKinds  string
@@ -44,7 +45,7 @@ type bundleOptions struct {
 func newBundleCmd() *cobra.Command {
 	var o bundleOptions
 	cmd := &cobra.Command{
-		Use:   "bundle GRAPH (--at-most K | --at-least K | --exact K)",
+		Use:   "bundle GRAPH (--at-most K | --at-least K | --exact K | --exact auto)",
 		Short: "Make an evidence bundle for a claim about GRAPH",
 		Long: `Make an evidence bundle, NAME.spinecert.tar.zst, for a claim about the page
 number of GRAPH, running what is needed and checking everything it stores.
@@ -57,6 +58,10 @@ number of GRAPH, running what is needed and checking everything it stores.
                 for spinecert's encoding or for --from-cnf CNF (if that CNF is
                 not spinecert's encoding the bundle says it is foreign)
   --exact K     both
+  --exact auto  find the page number K with the solvers and claim exact K:
+                a layout on K pages (checked directly) and a checked
+                refutation of K-1 pages, walking down from a heuristic
+                layout (stack or queue; no --layout or --from-proof)
 
 The bundle is a tar stream compressed with zstd ("tar --zstd -xf" opens
 it): manifest.json, the graph as given and in canonical form, the layout,
@@ -77,7 +82,7 @@ interrupt. Re-check a bundle with "spinecert verify".`,
 	o.solver.add(cmd)
 	fl.IntVar(&o.atMost, "at-most", 0, "claim: a layout on K pages exists")
 	fl.IntVar(&o.atLeast, "at-least", 0, "claim: no layout on K-1 pages exists")
-	fl.IntVar(&o.exact, "exact", 0, "claim: both, the page number is exactly K")
+	fl.StringVar(&o.exact, "exact", "", "claim: both, the page number is exactly K; auto finds K")
 	fl.StringVar(&o.layout, "layout", "", "the layout for --at-most/--exact (spinecert layout JSON) instead of solving")
 	fl.StringVar(&o.kind, "kind", "stack", "layout kind: stack, queue or mixed")
 	fl.StringVar(&o.pageKinds, "page-kinds", "", "for --kind mixed: the kind of every page (K for --at-most, K-1 for --at-least)")
@@ -139,12 +144,22 @@ func bundleErr(err error) error {
 // bundleClaim reads the claim from the flags and checks its rules with
 // archive.Claim.Validate, before any work starts.
 func bundleClaim(cmd *cobra.Command, o *bundleOptions) error {
+	exact := 0
+	if cmd.Flags().Changed("exact") {
+		if o.exact == "auto" {
+			o.findExact = true
+		} else if n, err := strconv.Atoi(o.exact); err == nil {
+			exact = n
+		} else {
+			return usageErr(fmt.Errorf("--exact %q: expected a number of pages or auto", o.exact))
+		}
+	}
 	set := 0
 	for _, c := range []struct {
 		b string
 		v int
 		f string
-	}{{archive.AtMost, o.atMost, "at-most"}, {archive.AtLeast, o.atLeast, "at-least"}, {archive.Exact, o.exact, "exact"}} {
+	}{{archive.AtMost, o.atMost, "at-most"}, {archive.AtLeast, o.atLeast, "at-least"}, {archive.Exact, exact, "exact"}} {
 		if cmd.Flags().Changed(c.f) {
 			set++
 			o.claim.Bound, o.claim.K = c.b, c.v
@@ -159,7 +174,11 @@ func bundleClaim(cmd *cobra.Command, o *bundleOptions) error {
 			o.claim.PageKinds = append(o.claim.PageKinds, strings.TrimSpace(s))
 		}
 	}
-	if err := o.claim.Validate(); err != nil {
+	if o.findExact && (o.layout != "" || o.fromProof != "" || o.fromCNF != "") {
+		return usageErr(fmt.Errorf("--exact auto finds its own evidence: it takes no --layout, --from-proof or --from-cnf"))
+	}
+	req := evidence.Request{Claim: o.claim, FindExact: o.findExact}
+	if err := req.Validate(); err != nil {
 		return usageErr(err)
 	}
 	if o.layout != "" && o.claim.Bound == archive.AtLeast {
@@ -210,7 +229,7 @@ func runBundle(cmd *cobra.Command, o *bundleOptions) error {
 	if c.Name = o.name; c.Name == "" {
 		c.Name = bundleBase(o.graphArg)
 	}
-	req := &evidence.Request{Graph: g, Input: input, InputFormat: res.Format, Claim: c,
+	req := &evidence.Request{Graph: g, Input: input, InputFormat: res.Format, Claim: c, FindExact: o.findExact,
 		FromProof: o.fromProof, FromCNF: o.fromCNF, Planarity: o.planarity, RequirePlanar: o.planar,
 		Limit: o.solver.timeLimit, ToolVersion: version, Tool: "spinecert bundle", Created: o.created, IncludeCNF: o.includeCNF}
 	if o.layout != "" {
@@ -238,6 +257,8 @@ func runBundle(cmd *cobra.Command, o *bundleOptions) error {
 		return refuted(err)
 	case errors.Is(err, evidence.ErrUndecided):
 		return undecided(err)
+	case errors.Is(err, evidence.ErrExactTooSmall):
+		return usageErr(err)
 	case err != nil:
 		return bundleErr(err)
 	}
@@ -263,6 +284,9 @@ func printBundle(cmd *cobra.Command, o *bundleOptions, out string, m *archive.Ma
 	w := cmd.OutOrStdout()
 	fmt.Fprintf(w, "wrote %s (%d bytes)\n", out, size)
 	fmt.Fprintf(w, "claim: %s\n", archive.ClaimText(m))
+	if o.findExact {
+		fmt.Fprintf(w, "page number: %d, found (--exact auto)\n", m.Claim.K)
+	}
 	if m.Claim.Name != "" {
 		fmt.Fprintf(w, "label: %s\n", archive.LabelText(m.Claim.Name))
 	}

@@ -113,6 +113,9 @@ func runShow(cmd *cobra.Command, o *showOptions) error {
 			if p.ConvertedFrom != "" {
 				conv = " (given as " + p.ConvertedFrom + " text)"
 			}
+			if t := p.TrimmedFrom; t != nil {
+				conv += fmt.Sprintf(" (trimmed to %d core lemmas from a proof of %d lemmas, %d bytes, SHA-256 %s)", t.CoreLemmas, t.Lemmas, t.Size, t.SHA256)
+			}
 			fmt.Fprintf(w, "proof:    %s, %s%s, %d bytes, SHA-256 %s: %s by %s when bundled\n", p.Member, p.Format, conv, p.Size, p.SHA256, p.Result, p.Checker)
 		}
 	}

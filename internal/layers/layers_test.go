@@ -3,7 +3,7 @@
 //
 //	textpos → graph → cert, planar/planarcert → planar, toughcert →
 //	heuristic, draw → dimacs → proof → verify → pagenumber; archive beside
-//	verify; evidence on verify and archive
+//	verify; evidence on verify, pagenumber and archive
 //
 // with cmd/spinecert on top. The planarity certificate checker
 // (planar/planarcert) imports only the graph model and the position errors,
@@ -43,7 +43,7 @@ var allowed = map[string][]string{
 	"verify":            {"graph", "cert", "dimacs", "proof"},
 	"pagenumber":        {"graph", "cert", "dimacs", "planar", "planar/planarcert", "toughcert", "heuristic", "proof", "verify"},
 	"archive":           {"graph", "cert", "dimacs", "planar/planarcert", "proof", "textpos"},
-	"evidence":          {"graph", "cert", "dimacs", "planar", "planar/planarcert", "verify", "archive"},
+	"evidence":          {"graph", "cert", "dimacs", "planar", "planar/planarcert", "verify", "pagenumber", "archive"},
 }
 
 // testOnly lists what test files may import besides their package's own

@@ -145,7 +145,7 @@ func (p *proofReader) nextText() (bool, []int32, error) {
 			}
 			continue
 		case c == 'd' && started:
-			return false, nil, p.textErr(line, col, "found 'd' after the literals of a step: this looks like an LRAT deletion (\"ID d IDS 0\"), not DRAT; check the proof as LRAT")
+			return false, nil, p.textErr(line, col, "found 'd' after the literals of a step: the line looks like an LRAT deletion (\"ID d IDS 0\"), which DRAT does not have")
 		case c == 'd' && !started:
 			if p.format == RUP {
 				return false, nil, p.textErr(line, col, "deletion step in a proof read as %s (lemmas only)", RUP)

@@ -18,3 +18,7 @@ var ErrTooLarge = errors.New("dimacs: encoding too large")
 // ErrNotMember is wrapped by CheckMembership when a clause of a sub-formula
 // is not a clause of the on-demand formulation it claims to be part of.
 var ErrNotMember = errors.New("dimacs: not a clause of the formulation")
+
+// ErrBomb is returned (wrapped) by a reader from Decompress when the input
+// decompresses to more than MaxRatio bytes per compressed byte.
+var ErrBomb = errors.New("dimacs: decompression ratio too high")

@@ -55,11 +55,56 @@ func (d *decompressor) Close() error {
 	return nil
 }
 
+// Limits of Decompress, the same as those of evidence bundles: once more
+// than RatioGrace bytes have come out, at most MaxRatio bytes may come out
+// per compressed byte read so far.
+const (
+	MaxRatio   = 1000
+	RatioGrace = 64 << 20
+)
+
+// ratioReader counts the bytes read from src and out of r, and fails with
+// ErrBomb once the output outgrows the ratio limit.
+type ratioReader struct {
+	r    io.Reader
+	src  *countReader
+	n    int64
+	fail error
+}
+
+type countReader struct {
+	r io.Reader
+	n int64
+}
+
+func (c *countReader) Read(p []byte) (int, error) {
+	n, err := c.r.Read(p)
+	c.n += int64(n)
+	return n, err
+}
+
+func (l *ratioReader) Read(p []byte) (int, error) {
+	if l.fail != nil {
+		return 0, l.fail
+	}
+	n, err := l.r.Read(p)
+	l.n += int64(n)
+	if l.n > RatioGrace && l.n > MaxRatio*max(l.src.n, 1) {
+		l.fail = fmt.Errorf("%w: %d bytes from %d compressed bytes (at most %d:1 beyond the first %d bytes)", ErrBomb, l.n, l.src.n, MaxRatio, RatioGrace)
+		return n, l.fail
+	}
+	return n, err
+}
+
 // Decompress returns a reader that transparently decompresses gzip or zstd
 // input (recognised by their magic bytes) and passes anything else through.
-// Close releases the decoders; it does not close r.
+// Compressed input may not decompress to more than MaxRatio bytes per
+// compressed byte once RatioGrace bytes have come out: the reader then fails
+// with an error wrapping ErrBomb. Close releases the decoders; it does not
+// close r.
 func Decompress(r io.Reader) (io.ReadCloser, error) {
-	br := bufio.NewReaderSize(r, 64<<10)
+	src := &countReader{r: r}
+	br := bufio.NewReaderSize(src, 64<<10)
 	head, err := br.Peek(4)
 	if err != nil && err != io.EOF && err != bufio.ErrBufferFull {
 		return nil, fmt.Errorf("dimacs: %w", err)
@@ -70,13 +115,13 @@ func Decompress(r io.Reader) (io.ReadCloser, error) {
 		if err != nil {
 			return nil, fmt.Errorf("dimacs: gzip: %w", err)
 		}
-		return &decompressor{Reader: zr, close: func() { zr.Close() }}, nil
+		return &decompressor{Reader: &ratioReader{r: zr, src: src}, close: func() { zr.Close() }}, nil
 	case bytes.HasPrefix(head, zstdMagic):
 		zr, err := zstd.NewReader(br, zstd.WithDecoderConcurrency(1))
 		if err != nil {
 			return nil, fmt.Errorf("dimacs: zstd: %w", err)
 		}
-		return &decompressor{Reader: zr, close: zr.Close}, nil
+		return &decompressor{Reader: &ratioReader{r: zr, src: src}, close: zr.Close}, nil
 	}
 	return &decompressor{Reader: br}, nil
 }

@@ -20,7 +20,8 @@ import (
 // Counting: EDGES must equal the number of 'e' lines. A repeated edge (in
 // either orientation) counts as a line like any other and is then merged
 // into one edge with a warning, so the graph may have fewer than EDGES edges.
-// All NODES vertices exist, labelled "1".."NODES", even when isolated.
+// All NODES vertices exist, labelled "1".."NODES", even when isolated; so
+// NODES may be at most 64 per byte of the file plus 2^20 (checkDeclared).
 
 // dimacsFields splits a line into at most len(out) fields separated by
 // blanks, recording 1-based columns; it returns the number of fields, or
@@ -82,6 +83,7 @@ func readDIMACSGraph(br *bufio.Reader, name string, res *ReadResult) (*Graph, er
 		cols     [5]int
 		n, m     uint64
 		pline    int
+		pcol     int
 		elines   uint64
 		pairs    []uint64
 		valueLns int
@@ -128,7 +130,7 @@ func readDIMACSGraph(br *bufio.Reader, name string, res *ReadResult) (*Graph, er
 			if m, ok = dimacsUint(fields[3]); !ok {
 				return nil, perr(line, cols[3], "expected the number of edges (a non-negative integer), found %q", fields[3])
 			}
-			pline = line
+			pline, pcol = line, cols[2]
 			pairs = make([]uint64, 0, min(m, 1<<20))
 		case 'e':
 			if pline == 0 {
@@ -178,6 +180,10 @@ func readDIMACSGraph(br *bufio.Reader, name string, res *ReadResult) (*Graph, er
 	}
 	if elines != m {
 		return nil, perr(pline, 0, "problem line declares %d edges, found %d edge lines", m, elines)
+	}
+	if err := checkDeclared(n, lr.n, "file", pcol); err != nil {
+		err.File, err.Line = name, pline
+		return nil, err
 	}
 	if valueLns > 0 {
 		res.Warnings = append(res.Warnings, fmt.Sprintf("%s:%d: %d vertex value line(s) ignored", name, valueAt, valueLns))

@@ -32,6 +32,7 @@ type lineReader struct {
 	buf  []byte
 	line int
 	max  int
+	n    int64 // bytes read so far
 }
 
 // next returns the next line, or io.EOF after the last one.
@@ -39,6 +40,7 @@ func (lr *lineReader) next() ([]byte, error) {
 	lr.buf = lr.buf[:0]
 	for {
 		chunk, err := lr.br.ReadSlice('\n')
+		lr.n += int64(len(chunk))
 		if err == bufio.ErrBufferFull {
 			if len(lr.buf)+len(chunk) > lr.max {
 				return nil, fmt.Errorf("line longer than %d bytes", lr.max)
@@ -185,6 +187,29 @@ func checkVertices(n uint64, col int) *textpos.Error {
 	return nil
 }
 
+// Formats in which an isolated vertex takes no room (sparse6, DIMACS) may
+// declare at most verticesPerByte vertices per byte of the input plus
+// verticesGrace: memory then follows what the file holds, not what its
+// header claims.
+const (
+	verticesPerByte = 64
+	verticesGrace   = 1 << 20
+)
+
+// verticesFor is the most vertices an input of size bytes may declare.
+func verticesFor(size int64) uint64 {
+	return uint64(verticesPerByte)*uint64(max(size, 0)) + verticesGrace
+}
+
+// checkDeclared rejects a vertex count out of proportion to the input of
+// size bytes that declares it; what names that input ("line", "file").
+func checkDeclared(n uint64, size int64, what string, col int) *textpos.Error {
+	if lim := verticesFor(size); n > lim {
+		return &textpos.Error{Col: col, Msg: fmt.Sprintf("graph declares %d vertices in a %s of %d bytes; spinecert reads at most %d vertices per byte plus %d (here %d), as isolated vertices take no room in this format", n, what, size, verticesPerByte, verticesGrace, lim)}
+	}
+	return nil
+}
+
 // graph6DataLen is the number of bytes R(x) takes for n vertices.
 func graph6DataLen(n uint64) uint64 { return (n*(n-1)/2 + 5) / 6 }
 
@@ -295,6 +320,9 @@ func parseSparse6(b []byte, col int) (*Graph, string, *textpos.Error) {
 		return nil, "", err
 	}
 	if err := checkVertices(n, col); err != nil {
+		return nil, "", err
+	}
+	if err := checkDeclared(n, int64(len(b)+1), "sparse6 line", col); err != nil {
 		return nil, "", err
 	}
 	data := b[w:]

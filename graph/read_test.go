@@ -507,6 +507,7 @@ func TestBadInputs(t *testing.T) {
 		{"dimacs_unknown_line.dimacs", FormatDIMACS, 3, "unexpected line type \"x\""},
 		{"dimacs_no_p.dimacs", FormatDIMACS, 0, "no problem line"},
 		{"dimacs_too_many_vertices.dimacs", FormatDIMACS, 1, "spinecert reads at most"},
+		{"dimacs_isolated_bomb.dimacs", FormatDIMACS, 1, "graph declares 67108864 vertices in a file of 18 bytes; spinecert reads at most 64 vertices per byte plus 1048576 (here 1049728)"},
 		{"graph6_truncated.g6", FormatGraph6, 2, "truncated graph6: n = 5 needs 2 data bytes after N(n), found 1"},
 		{"graph6_too_long.g6", FormatGraph6, 1, "graph6 too long"},
 		{"graph6_bad_char.g6", FormatGraph6, 1, "unexpected byte ' '"},
@@ -519,6 +520,7 @@ func TestBadInputs(t *testing.T) {
 		{"sparse6_incremental.s6", FormatSparse6, 2, "incremental sparse6"},
 		{"sparse6_out_of_range.s6", FormatSparse6, 1, "beyond n-1 = 3"},
 		{"sparse6_bad_char.s6", FormatSparse6, 1, "unexpected byte"},
+		{"sparse6_isolated_bomb.s6", FormatSparse6, 1, "graph declares 67108864 vertices in a sparse6 line of 9 bytes; spinecert reads at most 64 vertices per byte plus 1048576 (here 1049152)"},
 		{"digraph6.d6", FormatGraph6, 1, "digraph6"},
 		{"edgelist_three_labels.edges", FormatEdgeList, 2, "expected one or two vertex labels"},
 		{"edgelist_self_loop.edges", FormatEdgeList, 3, "self-loop at vertex \"b\""},
@@ -642,5 +644,20 @@ func TestByteOrderMark(t *testing.T) {
 		if len(res.Warnings) != 1 || !strings.Contains(res.Warnings[0], "g: ignored the UTF-8 byte-order mark") {
 			t.Errorf("%q: warnings %q", body, res.Warnings)
 		}
+	}
+}
+
+// A DIMACS file may declare 64 vertices per byte plus 2^20: "p edge N 0"
+// (17 bytes) reads with N = 64·17+2^20 isolated vertices and is refused,
+// at the column of N, with one more.
+func TestDeclaredVertexLimit(t *testing.T) {
+	const lim = 64*17 + 1<<20
+	res, err := Read(strings.NewReader(fmt.Sprintf("p edge %d 0\n", lim)), "at.dimacs", FormatDIMACS)
+	if err != nil || res.Graphs[0].N() != lim {
+		t.Fatalf("at the limit: %v", err)
+	}
+	_, err = Read(strings.NewReader(fmt.Sprintf("p edge %d 0\n", lim+1)), "over.dimacs", FormatDIMACS)
+	if err == nil || !strings.HasPrefix(err.Error(), "over.dimacs:1:8: graph declares 1049665 vertices in a file of 17 bytes") {
+		t.Fatalf("over the limit: %v", err)
 	}
 }

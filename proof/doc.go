@@ -15,7 +15,25 @@
 // negative literal) and a 0 byte. [DetectFormat] tells them apart: a proof
 // is binary when one of its first 1024 bytes is neither printable ASCII nor
 // white space. "rup" names DRAT text without deletions whose lemmas must all
-// be RUP. Proofs may be plain, gzip or zstd (dimacs.Decompress).
+// be RUP. Proofs may be plain, gzip or zstd (dimacs.Decompress, which
+// refuses more than 1000 decompressed bytes per compressed byte beyond the
+// first 64 MiB).
+//
+// # Size of a step
+//
+// Both readers stream a step literal by literal (LRAT hints are checked as
+// they are read, so no hint list is held) and refuse a step, DRAT addition
+// or deletion or LRAT lemma, of more than 2·V+16 literals as written,
+// repeats included, where V is the number of variables the formula and the
+// proof have mentioned before it (DRAT: the variables the checker keeps in
+// place, bounded by the formula's size, plus every other variable a step
+// named; LRAT: the same with the lemmas read). A clause without repeated
+// literals has at most two literals per variable, tautologies included, and
+// a lemma may introduce new variables (RAT allows it), each adding one; so a
+// lemma that repeats no literal and is no tautology is refused only when it
+// introduces more than V+16 new variables at once. The refusal is a read
+// error (a *textpos.Error at the literal that went over), not a rejection,
+// and it keeps the memory of one step in proportion to what was read before.
 //
 // LRAT text is specified by Cruz-Filipe, Heule, Hunt, Kaufmann,
 // Schneider-Kamp, "Efficient certified RAT verification" (CADE 2017): "id

@@ -247,6 +247,8 @@ func (k *dratChecker) readSteps(forward bool) (conflictStep int64, err error) {
 	}
 	sawEmpty := false
 	for {
+		k.pr.vars = k.dense + len(k.extVar)
+		k.pr.maxLits = stepLimit(k.pr.vars)
 		del, ext, rerr := k.pr.next()
 		if rerr == io.EOF {
 			break

@@ -42,6 +42,9 @@ type proofReader struct {
 	name   string
 	format string
 	lits   []int32
+	// maxLits, when positive, bounds the literals of one step (stepLimit);
+	// vars is the variable count it was computed from, for the message
+	maxLits, vars int
 	// text position (1-based) or binary byte offset (0-based)
 	line, col int64
 	off       int64
@@ -141,6 +144,8 @@ func (p *proofReader) nextText() (bool, []int32, error) {
 				return false, nil, err
 			}
 			continue
+		case c == 'd' && started:
+			return false, nil, p.textErr(line, col, "found 'd' after the literals of a step: the line looks like an LRAT deletion (\"ID d IDS 0\"), which DRAT does not have")
 		case c == 'd' && !started:
 			if p.format == RUP {
 				return false, nil, p.textErr(line, col, "deletion step in a proof read as %s (lemmas only)", RUP)
@@ -162,6 +167,9 @@ func (p *proofReader) nextText() (bool, []int32, error) {
 			}
 			if v == 0 {
 				return del, p.lits, nil
+			}
+			if p.maxLits > 0 && len(p.lits) >= p.maxLits {
+				return false, nil, p.textErr(line, col, "%s (the step starts at line %d)", stepLimitMsg(p.maxLits, p.vars), p.stepLine)
 			}
 			p.lits = append(p.lits, v)
 		default:
@@ -279,6 +287,9 @@ func (p *proofReader) nextBinary() (bool, []int32, error) {
 		l := int32(v)
 		if u&1 == 1 {
 			l = -l
+		}
+		if p.maxLits > 0 && len(p.lits) >= p.maxLits {
+			return false, nil, p.binErr(at, "%s (the step starts at byte %d)", stepLimitMsg(p.maxLits, p.vars), start)
 		}
 		p.lits = append(p.lits, l)
 	}

@@ -47,7 +47,7 @@ func (k *dratChecker) writeTrimmed(w io.Writer, conflictStep int64) error {
 // lemma's pivot first, the others by variable) and the closing 0 byte.
 func (k *dratChecker) appendBinaryClause(b []byte, c int) []byte {
 	ls := slices.Clone(k.lits(c))
-	slices.SortFunc(ls, func(x, y uint32) int { return cmp.Compare(k.extVar(x), k.extVar(y)) })
+	slices.SortFunc(ls, func(x, y uint32) int { return cmp.Compare(k.proofVar(x), k.proofVar(y)) })
 	first := uint32(0)
 	hasFirst := c >= k.nOrig && len(ls) > 0
 	if hasFirst {
@@ -77,8 +77,8 @@ func appendBinaryLit(b []byte, x int32) []byte {
 	return append(b, byte(u))
 }
 
-// extVar returns the variable of internal literal l as the proof names it.
-func (k *dratChecker) extVar(l uint32) int64 {
+// proofVar returns the variable of internal literal l as the proof names it.
+func (k *dratChecker) proofVar(l uint32) int64 {
 	x := int64(k.extLit(l))
 	return max(x, -x)
 }

@@ -8,17 +8,15 @@ package proof
 // Schneider-Kamp, "Efficient certified RAT verification", CADE 2017.
 
 import (
-	"bufio"
 	"context"
 	"errors"
 	"fmt"
 	"io"
 	"math"
+	"slices"
 	"strconv"
-	"strings"
 
 	"spinecert.dev/dimacs"
-	"spinecert.dev/textpos"
 )
 
 // LRATResult is the outcome of CheckLRAT.
@@ -117,84 +115,114 @@ func (s *lratState) hint(id int64) (bool, error) {
 	return false, nil
 }
 
-// run applies hints in order until a conflict; it reports whether one came.
-func (s *lratState) run(hints []int64) (bool, error) {
-	for _, h := range hints {
-		done, err := s.hint(h)
-		if err != nil || done {
-			return done, err
-		}
-	}
-	return false, nil
+// lemmaCheck checks one lemma while its hints are read, one at a time, so
+// that no hint list is held: the hints before the first negative one are
+// applied as they come, then each RAT group "-j hints" is checked on its own.
+type lemmaCheck struct {
+	s      *lratState
+	lits   []int32
+	done   bool // nothing more to check: a tautology or a conflict reached
+	rat    bool
+	group  int64 // clause of the open RAT group, 0 for none
+	gdone  bool  // the open group reached its conflict (or clashed)
+	groups map[int64]bool
+	base   int
 }
 
-// lemma checks that lits follows from the current clauses with hints.
-func (s *lratState) lemma(lits []int32, hints []int64) (rat bool, err error) {
-	defer s.reset(0)
+// begin assigns the negation of the lemma's literals.
+func (s *lratState) begin(lits []int32) *lemmaCheck {
+	m := &lemmaCheck{s: s, lits: lits}
 	for _, l := range lits {
 		if !s.set(-l) {
-			return false, nil // a tautology
+			m.done = true // a tautology
+			break
 		}
 	}
-	i := 0
-	for i < len(hints) && hints[i] > 0 {
-		i++
-	}
-	done, err := s.run(hints[:i])
-	if err != nil || done {
-		return false, err
-	}
-	if len(lits) == 0 {
-		return false, errors.New("the hints do not lead to a conflict")
-	}
-	p := lits[0]
-	groups := map[int64][]int64{}
-	for i < len(hints) {
-		j := -hints[i]
-		if j <= 0 {
-			return true, fmt.Errorf("expected a RAT hint (negative clause id), found %d", hints[i])
+	return m
+}
+
+// hint takes the next hint of the lemma.
+func (m *lemmaCheck) hint(h int64) error {
+	s := m.s
+	switch {
+	case m.done:
+		return nil
+	case h > 0 && m.group == 0:
+		done, err := s.hint(h)
+		m.done = done
+		return err
+	case h > 0:
+		if m.gdone {
+			return nil
 		}
-		k := i + 1
-		for k < len(hints) && hints[k] > 0 {
-			k++
+		done, err := s.hint(h)
+		if err != nil {
+			return fmt.Errorf("RAT hints for clause %d: %w", m.group, err)
 		}
-		if _, dup := groups[j]; dup {
-			return true, fmt.Errorf("two RAT hint groups for clause %d", j)
-		}
-		groups[j] = hints[i+1 : k]
-		i = k
+		m.gdone = done
+		return nil
 	}
-	for j := range groups {
-		if c, ok := s.cls[j]; !ok || !containsLit(c, -p) {
-			return true, fmt.Errorf("RAT hint -%d names no current clause containing %d", j, -p)
+	// -j opens the group of clause j
+	if err := m.closeGroup(); err != nil {
+		return err
+	}
+	if m.group == 0 {
+		if len(m.lits) == 0 {
+			return errors.New("the hints do not lead to a conflict")
+		}
+		m.rat, m.groups, m.base = true, map[int64]bool{}, len(s.undo)
+	}
+	j, p := -h, m.lits[0]
+	if m.groups[j] {
+		return fmt.Errorf("two RAT hint groups for clause %d", j)
+	}
+	c, ok := s.cls[j]
+	if !ok || !containsLit(c, -p) {
+		return fmt.Errorf("RAT hint -%d names no current clause containing %d", j, -p)
+	}
+	m.groups[j], m.group, m.gdone = true, j, false
+	for _, q := range c {
+		if q != -p && !s.set(-q) {
+			m.gdone = true // the resolvent is a tautology
+			break
 		}
 	}
-	base := len(s.undo)
-	for j, c := range s.cls {
-		if !containsLit(c, -p) {
-			continue
+	return nil
+}
+
+// closeGroup ends the open RAT group, which must have reached a conflict.
+func (m *lemmaCheck) closeGroup() error {
+	if m.group == 0 {
+		return nil
+	}
+	if !m.gdone {
+		return fmt.Errorf("the RAT hints for clause %d do not lead to a conflict", m.group)
+	}
+	m.s.reset(m.base)
+	return nil
+}
+
+// end is called after the last hint: it reports whether the lemma was
+// checked as RAT, and an error when it does not follow.
+func (m *lemmaCheck) end() (rat bool, err error) {
+	defer m.s.reset(0)
+	if m.done {
+		return false, nil
+	}
+	if err := m.closeGroup(); err != nil {
+		return true, err
+	}
+	if m.group == 0 {
+		if len(m.lits) == 0 {
+			return false, errors.New("the hints do not lead to a conflict")
 		}
-		g, ok := groups[j]
-		if !ok {
+		m.rat = true
+	}
+	p := m.lits[0]
+	for j, c := range m.s.cls {
+		if !m.groups[j] && containsLit(c, -p) {
 			return true, fmt.Errorf("no RAT hints for clause %d, which contains %d", j, -p)
 		}
-		clash := false
-		for _, q := range c {
-			if q != -p && !s.set(-q) {
-				clash = true
-				break
-			}
-		}
-		if !clash {
-			done, err := s.run(g)
-			if err != nil {
-				return true, fmt.Errorf("RAT hints for clause %d: %w", j, err)
-			}
-			if !done {
-				return true, fmt.Errorf("the RAT hints for clause %d do not lead to a conflict", j)
-			}
-		}
-		s.reset(base)
 	}
 	return true, nil
 }
@@ -223,77 +251,127 @@ func CheckLRAT(ctx context.Context, cnf *dimacs.CNF, r io.Reader, name string) (
 	}
 	last := int64(len(cnf.Clauses))
 	res := &LRATResult{}
-	br := bufio.NewReaderSize(dr, 1<<16)
-	var lineNo int64
-	parseErr := func(format string, args ...any) error {
-		return fmt.Errorf("proof: %w", &textpos.Error{File: name, Line: int(lineNo), Msg: fmt.Sprintf(format, args...)})
+	sc := newLRATScanner(dr, name)
+	reject := func(why string) (*LRATResult, error) {
+		res.FailedLine, res.FailedText, res.Reason = int64(sc.line), sc.lineText(), why
+		return res, fmt.Errorf("%w: %s:%d: %s", ErrRejected, name, sc.line, why)
 	}
-	reject := func(text, why string) (*LRATResult, error) {
-		res.FailedLine, res.FailedText, res.Reason = lineNo, text, why
-		return res, fmt.Errorf("%w: %s:%d: %s", ErrRejected, name, lineNo, why)
-	}
+	// variables mentioned so far: those below dense, and the others seen
+	far := map[int32]bool{}
+	var lits []int32
 	empty := false
 	for {
-		line, rerr := br.ReadString('\n')
-		if rerr != nil && !errors.Is(rerr, io.EOF) {
-			return nil, fmt.Errorf("proof: %s: %w", name, rerr)
+		more, err := sc.nextLine()
+		if err != nil {
+			return nil, err
 		}
-		if line == "" && rerr != nil {
+		if !more {
 			break
 		}
-		lineNo++
-		if lineNo&4095 == 0 && ctx.Err() != nil {
+		if sc.line&4095 == 0 && ctx.Err() != nil {
 			return nil, fmt.Errorf("proof: %w", ctx.Err())
 		}
-		f := strings.Fields(line)
-		if len(f) == 0 || strings.HasPrefix(f[0], "c") {
-			continue
+		id, perr := strconv.ParseInt(string(sc.tok), 10, 64)
+		if perr != nil || id <= 0 {
+			return nil, sc.errAt(sc.tokCol, "expected a positive clause id, found %q", sc.tok)
 		}
-		text := strings.TrimSpace(line)
-		id, err := strconv.ParseInt(f[0], 10, 64)
-		if err != nil || id <= 0 {
-			return nil, parseErr("expected a positive clause id, found %q", f[0])
+		ok, err := sc.token()
+		if err != nil {
+			return nil, err
 		}
-		if len(f) > 1 && f[1] == "d" {
-			ids, rest, err := lratInts(f[2:])
-			if err != nil || len(rest) != 0 {
-				return nil, parseErr("expected clause ids ending in 0 after 'd'")
-			}
-			for _, j := range ids {
-				if _, ok := s.cls[j]; !ok {
-					return reject(text, fmt.Sprintf("deletes clause %d, which does not exist", j))
+		if !ok {
+			return nil, sc.errAt(sc.col, "expected literals or 'd' after the clause id, found the end of the line")
+		}
+		if string(sc.tok) == "d" {
+			var fail string
+			for {
+				j, err := sc.int("a clause id or the 0 that ends the deletion")
+				if err != nil {
+					return nil, err
 				}
-				delete(s.cls, j)
-				res.Deleted++
+				if j == 0 {
+					break
+				}
+				if _, ok := s.cls[j]; !ok && fail == "" {
+					fail = fmt.Sprintf("deletes clause %d, which does not exist", j)
+				}
+				if fail == "" {
+					delete(s.cls, j)
+					res.Deleted++
+				}
+			}
+			if err := sc.endLine(); err != nil {
+				return nil, err
+			}
+			if fail != "" {
+				return reject(fail)
 			}
 			continue
 		}
-		nums, rest, err := lratInts(f[1:])
-		if err != nil {
-			return nil, parseErr("expected literals ending in 0")
-		}
-		hints, rest, err := lratInts(rest)
-		if err != nil || len(rest) != 0 {
-			return nil, parseErr("expected hints ending in 0 after the literals")
-		}
-		lits := make([]int32, len(nums))
-		for i, n := range nums {
-			if n > math.MaxInt32 || n < -math.MaxInt32 {
-				return nil, parseErr("literal %d out of range (variables are at most %d)", n, math.MaxInt32)
+		vars := s.dense - 1 + len(far)
+		limit := stepLimit(vars)
+		lits = lits[:0]
+		for first := true; ; first = false {
+			var n int64
+			if first {
+				if n, perr = strconv.ParseInt(string(sc.tok), 10, 64); perr != nil {
+					return nil, sc.errAt(sc.tokCol, "expected a literal or the 0 that ends the clause, found %q", sc.tok)
+				}
+			} else if n, err = sc.int("a literal or the 0 that ends the clause"); err != nil {
+				return nil, err
 			}
-			lits[i] = int32(n)
+			if n == 0 {
+				break
+			}
+			if n > math.MaxInt32 || n < -math.MaxInt32 {
+				return nil, sc.errAt(sc.tokCol, "literal %d out of range (variables are at most %d)", n, math.MaxInt32)
+			}
+			if len(lits) >= limit {
+				return nil, sc.errAt(sc.tokCol, "%s", stepLimitMsg(limit, vars))
+			}
+			lits = append(lits, int32(n))
 		}
+		// A failed check is reported once the line is read: a line that
+		// does not parse is an input error first.
+		var fail error
 		if id <= last {
-			return reject(text, fmt.Sprintf("clause id %d is not larger than the previous ones", id))
+			fail = fmt.Errorf("clause id %d is not larger than the previous ones", id)
 		}
-		rat, err := s.lemma(lits, hints)
+		m := s.begin(lits)
+		for {
+			h, err := sc.int("a hint or the 0 that ends the hints")
+			if err != nil {
+				s.reset(0)
+				return nil, err
+			}
+			if h == 0 {
+				break
+			}
+			if fail == nil {
+				fail = m.hint(h)
+			}
+		}
+		if err := sc.endLine(); err != nil {
+			s.reset(0)
+			return nil, err
+		}
+		rat, err := false, fail
+		if fail == nil {
+			rat, err = m.end()
+		}
+		s.reset(0)
 		if err != nil {
-			return reject(text, err.Error())
+			return reject(err.Error())
 		}
 		if rat {
 			res.RAT++
 		}
-		s.cls[id] = lits
+		for _, l := range lits {
+			if v := max(l, -l); int(v) >= s.dense {
+				far[v] = true
+			}
+		}
+		s.cls[id] = slices.Clone(lits)
 		last = id
 		res.Added++
 		if len(lits) == 0 {
@@ -302,24 +380,9 @@ func CheckLRAT(ctx context.Context, cnf *dimacs.CNF, r io.Reader, name string) (
 		}
 	}
 	if !empty {
-		return reject("", "the proof does not add the empty clause")
+		res.FailedLine, res.Reason = int64(sc.line), "the proof does not add the empty clause"
+		return res, fmt.Errorf("%w: %s:%d: %s", ErrRejected, name, sc.line, res.Reason)
 	}
 	res.Accepted = true
 	return res, nil
-}
-
-// lratInts reads integers up to a 0 and returns them and the tokens after it.
-func lratInts(f []string) ([]int64, []string, error) {
-	var out []int64
-	for i, t := range f {
-		n, err := strconv.ParseInt(t, 10, 64)
-		if err != nil {
-			return nil, nil, err
-		}
-		if n == 0 {
-			return out, f[i+1:], nil
-		}
-		out = append(out, n)
-	}
-	return nil, nil, errors.New("missing 0")
 }

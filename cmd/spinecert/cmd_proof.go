@@ -131,11 +131,24 @@ func runProof(cmd *cobra.Command, o *proofOptions) error {
 		return err
 	}
 	rejected := errors.Is(checkErr, proof.ErrRejected)
+	hint := ""
+	if checkErr != nil && format != proofLRAT && !detected {
+		if lrat, _ := looksLikeLRAT(o.proof); lrat {
+			hint = fmt.Sprintf("%s looks like LRAT, not %s: check it with --format lrat or --format auto", o.proof, format)
+		}
+	}
 	if checkErr != nil && !rejected {
+		if hint != "" {
+			return usageErr(fmt.Errorf("%w; %s", checkErr, hint))
+		}
 		return usageErr(checkErr)
 	}
 	if rejected {
 		rep.Error = checkErr.Error()
+		if hint != "" {
+			rep.Error += "; " + hint
+			fmt.Fprintf(cmd.ErrOrStderr(), "spinecert: note: %s\n", hint)
+		}
 	}
 	out := cmd.OutOrStdout()
 	if o.json {

@@ -42,6 +42,7 @@ func FindKuratowski(g *graph.Graph) (*planarcert.Kuratowski, error) {
 // breadth-first order at fail (or vertex 0 when fail is -1).
 func kuratowskiFrom(g *graph.Graph, fail int32) (*planarcert.Kuratowski, error) {
 	ks := newKurSearch(g, max(fail, 0))
+	ks.shrink()
 	ks.run()
 	return ks.readOff()
 }

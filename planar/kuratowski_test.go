@@ -136,3 +136,27 @@ func TestKuratowskiMutations(t *testing.T) {
 		t.Fatalf("repaired certificate: %v", err)
 	}
 }
+
+// Long obstructions: a grid with one diagonal across many columns, and
+// stacked triangulations with one extra edge, so that the tube found by
+// shrink is thin or wide; planarcert checks every certificate.
+func TestKuratowskiLong(t *testing.T) {
+	rng := rand.New(rand.NewPCG(3, 5))
+	for _, c := range []int{40, 300} {
+		r := 10
+		e := fixture.EdgePairs(fixture.Grid(r, c))
+		g := fixture.Numbered(r*c, append(e, [2]int{(r/2)*c + c/5, (r/2+1)*c + 4*c/5}))
+		plNonPlanarCert(t, g)
+	}
+	for i := 0; i < 20; i++ {
+		n := 20 + rng.IntN(2000)
+		e := fixture.RandomTriangulationEdges(rng, n)
+		for {
+			a, b := rng.IntN(n), rng.IntN(n)
+			if a != b && !plHasPair(e, a, b) {
+				plNonPlanarCert(t, fixture.Numbered(n, append(e, [2]int{a, b})))
+				break
+			}
+		}
+	}
+}

@@ -1,0 +1,37 @@
+package graph
+
+import "testing"
+
+// TestIndex looks up every label of graphs whose labels start with a run of
+// consecutive numbers (found by computation) followed by other labels (found
+// in a map), and labels that are not vertices.
+func TestIndex(t *testing.T) {
+	cases := []struct {
+		labels []string
+		absent []string
+	}{
+		{[]string{"0", "1", "2", "3"}, []string{"4", "-1", "01", "00", "", "a"}},
+		{[]string{"7", "8", "9", "10"}, []string{"6", "11", "0", "07", "+8"}},
+		{[]string{"0", "1", "2", "5", "12", "a", "b c", ""}, []string{"3", "4", "6", "13", "A", "02"}},
+		{[]string{"x", "y"}, []string{"0", "1", "z"}},
+		{[]string{"3", "999999999999999999", "9999999999999999999"}, []string{"4", "99999999999999999999"}},
+		{nil, []string{"0", ""}},
+	}
+	for _, c := range cases {
+		b := NewBuilder()
+		for _, l := range c.labels {
+			b.Vertex(l)
+		}
+		g, _ := b.Build()
+		for v, l := range g.Labels() {
+			if got, ok := g.Index(l); !ok || got != int32(v) {
+				t.Errorf("labels %q: Index(%q) = %d, %v; want %d, true", c.labels, l, got, ok, v)
+			}
+		}
+		for _, l := range c.absent {
+			if got, ok := g.Index(l); ok {
+				t.Errorf("labels %q: Index(%q) = %d, true; want false", c.labels, l, got)
+			}
+		}
+	}
+}

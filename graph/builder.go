@@ -13,7 +13,10 @@ type Builder struct {
 	labels []string
 	index  map[string]int32
 	num    []int32 // num[k] = 1 + vertex of label strconv.Itoa(k), 0 if absent
-	pairs  []uint64
+	// pending counts the vertices in num whose labels are not made yet
+	// (they are ""): makeLabels makes them all as slices of one string
+	pending int
+	pairs   []uint64
 }
 
 // NewBuilder returns an empty builder.
@@ -57,7 +60,41 @@ func (b *Builder) VertexBytes(label []byte) int32 {
 
 // Labels returns the labels added so far, in the order they were added.
 // The slice must not be modified.
-func (b *Builder) Labels() []string { return b.labels }
+func (b *Builder) Labels() []string {
+	b.makeLabels()
+	return b.labels
+}
+
+// makeLabels makes the pending decimal labels, as slices of one string.
+func (b *Builder) makeLabels() {
+	if b.pending == 0 {
+		return
+	}
+	digits := make([]byte, 0, 8*b.pending) // labels below FastNumbers have at most 8 digits
+	for k, v := range b.num {
+		if v != 0 && b.labels[v-1] == "" {
+			digits = strconv.AppendInt(digits, int64(k), 10)
+		}
+	}
+	all := string(digits)
+	for k, v := range b.num {
+		if v != 0 && b.labels[v-1] == "" {
+			w := decimalDigits(k)
+			b.labels[v-1], all = all[:w], all[w:]
+		}
+	}
+	b.pending = 0
+}
+
+// decimalDigits returns the number of digits of k ≥ 0.
+func decimalDigits(k int) int {
+	w := 1
+	for k >= 10 {
+		k /= 10
+		w++
+	}
+	return w
+}
 
 // VertexNumber is VertexBytes for the decimal label of k, without formatting
 // it first; k must be at least 0 and below FastNumbers.
@@ -71,7 +108,8 @@ func (b *Builder) VertexNumber(k int) int32 {
 			b.num = slices.Grow(b.num, size-len(b.num))[:size]
 		}
 		v := int32(len(b.labels))
-		b.labels = append(b.labels, strconv.Itoa(k))
+		b.labels = append(b.labels, "")
+		b.pending++
 		b.num[k] = v + 1
 		return v
 	}
@@ -84,6 +122,7 @@ func (b *Builder) N() int { return len(b.labels) }
 // A repeated edge is accepted here and merged (and counted) by Build.
 func (b *Builder) AddEdge(u, v int32) error {
 	if u == v {
+		b.makeLabels()
 		return fmt.Errorf("%w at vertex %q", ErrSelfLoop, b.labels[u])
 	}
 	if u < 0 || v < 0 || int(u) >= len(b.labels) || int(v) >= len(b.labels) {
@@ -105,12 +144,22 @@ type BuildReport struct {
 // Build sorts vertices into canonical label order, merges repeated edges and
 // returns the graph. The builder must not be used afterwards.
 func (b *Builder) Build() (*Graph, BuildReport) {
+	b.makeLabels()
 	n := len(b.labels)
-	order := make([]int32, n)
-	for i := range order {
-		order[i] = int32(i)
+	// Labels below FastNumbers come first in canonical order, by value:
+	// the table of numbers lists them so; the others are sorted.
+	order := make([]int32, 0, n)
+	for _, v := range b.num {
+		if v != 0 {
+			order = append(order, v-1)
+		}
 	}
-	slices.SortFunc(order, func(x, y int32) int { return CompareLabels(b.labels[x], b.labels[y]) })
+	numbers := len(order)
+	for _, v := range b.index {
+		order = append(order, v)
+	}
+	rest := order[numbers:]
+	slices.SortFunc(rest, func(x, y int32) int { return CompareLabels(b.labels[x], b.labels[y]) })
 	rank := make([]int32, n)
 	labels := make([]string, n)
 	for r, v := range order {

@@ -178,22 +178,36 @@ const identityTag = "spinecert-graph-identity-v1\x00"
 // edge set only, not on the input format or the order of the input.
 func (g *Graph) ID() string {
 	h := sha256.New()
-	var buf [16]byte
-	h.Write([]byte(identityTag))
-	binary.BigEndian.PutUint64(buf[:8], uint64(len(g.labels)))
-	h.Write(buf[:8])
+	// The hashed bytes are gathered in a buffer: one Write per label or
+	// edge would cost more than the hashing.
+	buf := make([]byte, 0, 64<<10)
+	put := func(x uint64) {
+		if len(buf)+8 > cap(buf) {
+			h.Write(buf)
+			buf = buf[:0]
+		}
+		buf = binary.BigEndian.AppendUint64(buf, x)
+	}
+	buf = append(buf, identityTag...)
+	put(uint64(len(g.labels)))
 	for _, l := range g.labels {
-		binary.BigEndian.PutUint64(buf[:8], uint64(len(l)))
-		h.Write(buf[:8])
-		h.Write([]byte(l))
+		put(uint64(len(l)))
+		if len(buf)+len(l) > cap(buf) {
+			h.Write(buf)
+			buf = buf[:0]
+		}
+		if len(l) > cap(buf) {
+			h.Write([]byte(l))
+		} else {
+			buf = append(buf, l...)
+		}
 	}
-	binary.BigEndian.PutUint64(buf[:8], uint64(len(g.edges)))
-	h.Write(buf[:8])
+	put(uint64(len(g.edges)))
 	for _, e := range g.edges {
-		binary.BigEndian.PutUint64(buf[:8], uint64(e.U))
-		binary.BigEndian.PutUint64(buf[8:], uint64(e.V))
-		h.Write(buf[:])
+		put(uint64(e.U))
+		put(uint64(e.V))
 	}
+	h.Write(buf)
 	return hex.EncodeToString(h.Sum(nil))
 }
 

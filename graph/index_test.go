@@ -1,6 +1,13 @@
 package graph
 
-import "testing"
+import (
+	"bytes"
+	"crypto/sha256"
+	"encoding/binary"
+	"encoding/hex"
+	"strings"
+	"testing"
+)
 
 // TestIndex looks up every label of graphs whose labels start with a run of
 // consecutive numbers (found by computation) followed by other labels (found
@@ -33,5 +40,38 @@ func TestIndex(t *testing.T) {
 				t.Errorf("labels %q: Index(%q) = %d, true; want false", c.labels, l, got)
 			}
 		}
+	}
+}
+
+// TestIDBuffered compares ID with the identity written out directly from its
+// definition (the tag, the number of labels, each label's length and bytes,
+// the number of edges, each edge's two ends, all integers as 8 bytes big
+// endian), for labels shorter and longer than ID's buffer.
+func TestIDBuffered(t *testing.T) {
+	long := strings.Repeat("x", 100<<10)
+	b := NewBuilder()
+	for _, l := range []string{"0", "1", "2", "a", long, "b"} {
+		b.Vertex(l)
+	}
+	for i := int32(0); i < 5; i++ {
+		_ = b.AddEdge(i, i+1)
+	}
+	g, _ := b.Build()
+	var want bytes.Buffer
+	put := func(x uint64) { _ = binary.Write(&want, binary.BigEndian, x) }
+	want.WriteString(identityTag)
+	put(uint64(g.N()))
+	for _, l := range g.Labels() {
+		put(uint64(len(l)))
+		want.WriteString(l)
+	}
+	put(uint64(g.M()))
+	for _, e := range g.Edges() {
+		put(uint64(e.U))
+		put(uint64(e.V))
+	}
+	sum := sha256.Sum256(want.Bytes())
+	if got := g.ID(); got != hex.EncodeToString(sum[:]) {
+		t.Errorf("ID() = %s, want %x", got, sum)
 	}
 }

@@ -10,13 +10,15 @@ import (
 // Labels that are canonical decimal integers below 1<<24 are interned
 // without hashing, which keeps large numbered inputs fast.
 type Builder struct {
+	// vals[v] is k ≥ 0 for the vertex v of label strconv.Itoa(k), and -1-i
+	// for the vertex of label others[i]; labels holds the labels of the
+	// first vertices, made by makeLabels when they are asked for
+	vals   []int32
+	others []string
 	labels []string
-	index  map[string]int32
-	num    []int32 // num[k] = 1 + vertex of label strconv.Itoa(k), 0 if absent
-	// pending counts the vertices in num whose labels are not made yet
-	// (they are ""): makeLabels makes them all as slices of one string
-	pending int
-	pairs   []uint64
+	index  map[string]int32 // the vertices of others
+	num    []int32          // num[k] = 1 + vertex of label strconv.Itoa(k), 0 if absent
+	pairs  []uint64
 }
 
 // NewBuilder returns an empty builder.
@@ -51,9 +53,10 @@ func (b *Builder) VertexBytes(label []byte) int32 {
 	if v, ok := b.index[string(label)]; ok {
 		return v
 	}
-	v := int32(len(b.labels))
+	v := int32(len(b.vals))
 	s := string(label)
-	b.labels = append(b.labels, s)
+	b.vals = append(b.vals, int32(-1-len(b.others)))
+	b.others = append(b.others, s)
 	b.index[s] = v
 	return v
 }
@@ -65,25 +68,29 @@ func (b *Builder) Labels() []string {
 	return b.labels
 }
 
-// makeLabels makes the pending decimal labels, as slices of one string.
+// makeLabels makes the labels of the vertices added since it last ran; the
+// decimal ones are slices of one string.
 func (b *Builder) makeLabels() {
-	if b.pending == 0 {
+	from := len(b.labels)
+	if from == len(b.vals) {
 		return
 	}
-	digits := make([]byte, 0, 8*b.pending) // labels below FastNumbers have at most 8 digits
-	for k, v := range b.num {
-		if v != 0 && b.labels[v-1] == "" {
+	digits := make([]byte, 0, 8*(len(b.vals)-from)) // numbers below FastNumbers have at most 8 digits
+	for _, k := range b.vals[from:] {
+		if k >= 0 {
 			digits = strconv.AppendInt(digits, int64(k), 10)
 		}
 	}
 	all := string(digits)
-	for k, v := range b.num {
-		if v != 0 && b.labels[v-1] == "" {
-			w := decimalDigits(k)
-			b.labels[v-1], all = all[:w], all[w:]
+	b.labels = slices.Grow(b.labels, len(b.vals)-from)
+	for _, k := range b.vals[from:] {
+		if k < 0 {
+			b.labels = append(b.labels, b.others[-1-k])
+			continue
 		}
+		w := decimalDigits(int(k))
+		b.labels, all = append(b.labels, all[:w]), all[w:]
 	}
-	b.pending = 0
 }
 
 // decimalDigits returns the number of digits of k ≥ 0.
@@ -107,26 +114,25 @@ func (b *Builder) VertexNumber(k int) int32 {
 			size := max(k+1, 2*len(b.num))
 			b.num = slices.Grow(b.num, size-len(b.num))[:size]
 		}
-		v := int32(len(b.labels))
-		b.labels = append(b.labels, "")
-		b.pending++
+		v := int32(len(b.vals))
+		b.vals = append(b.vals, int32(k))
 		b.num[k] = v + 1
 		return v
 	}
 }
 
 // N returns the number of vertices added so far.
-func (b *Builder) N() int { return len(b.labels) }
+func (b *Builder) N() int { return len(b.vals) }
 
 // AddEdge adds the edge {u, v} between vertices returned by Vertex.
 // A repeated edge is accepted here and merged (and counted) by Build.
 func (b *Builder) AddEdge(u, v int32) error {
+	if u < 0 || v < 0 || int(u) >= len(b.vals) || int(v) >= len(b.vals) {
+		return fmt.Errorf("graph: edge {%d, %d} names an unknown vertex", u, v)
+	}
 	if u == v {
 		b.makeLabels()
 		return fmt.Errorf("%w at vertex %q", ErrSelfLoop, b.labels[u])
-	}
-	if u < 0 || v < 0 || int(u) >= len(b.labels) || int(v) >= len(b.labels) {
-		return fmt.Errorf("graph: edge {%d, %d} names an unknown vertex", u, v)
 	}
 	if u > v {
 		u, v = v, u
@@ -167,7 +173,7 @@ func (b *Builder) Build() (*Graph, BuildReport) {
 		labels[r] = b.labels[v]
 	}
 	pairs := b.pairs
-	b.pairs, b.labels, b.index, b.num = nil, nil, nil, nil
+	b.pairs, b.labels, b.index, b.num, b.vals, b.others = nil, nil, nil, nil, nil, nil
 	for i, p := range pairs {
 		u, v := rank[p>>32], rank[p&0xffffffff]
 		if u > v {

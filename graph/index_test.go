@@ -75,3 +75,31 @@ func TestIDBuffered(t *testing.T) {
 		t.Errorf("ID() = %s, want %x", got, sum)
 	}
 }
+
+// TestBuilderLabels reads the labels of a builder while vertices are still
+// being added, numbers and other labels mixed, and builds the graph.
+func TestBuilderLabels(t *testing.T) {
+	b := NewBuilder()
+	for _, l := range []string{"5", "x", "0", "", "12345678"} {
+		b.Vertex(l)
+	}
+	if got, want := strings.Join(b.Labels(), ","), "5,x,0,,12345678"; got != want {
+		t.Errorf("Labels() = %q, want %q", got, want)
+	}
+	b.Vertex("16777216") // FastNumbers: hashed, not a table entry
+	b.Vertex("3")
+	b.Vertex("x")
+	if got, want := strings.Join(b.Labels(), ","), "5,x,0,,12345678,16777216,3"; got != want {
+		t.Errorf("Labels() = %q, want %q", got, want)
+	}
+	if err := b.AddEdge(1, 1); err == nil || !strings.Contains(err.Error(), `"x"`) {
+		t.Errorf("AddEdge(1, 1) = %v, want a self-loop at \"x\"", err)
+	}
+	if err := b.AddEdge(9, 9); err == nil {
+		t.Error("AddEdge(9, 9) accepted an unknown vertex")
+	}
+	g, _ := b.Build()
+	if got, want := strings.Join(g.Labels(), ","), "0,3,5,12345678,16777216,,x"; got != want {
+		t.Errorf("built labels %q, want %q", got, want)
+	}
+}

@@ -91,10 +91,19 @@ var (
 )
 
 // BenchmarkVerifyLargeProof verifies a bundle for bt(K9) >= 5 whose proof
-// (cadical, text) is about 87 MB.
+// (cadical, text) is about 87 MB. With SPINECERT_BENCH_BUNDLE=FILE it also
+// writes the bundle to FILE, for measuring "spinecert verify" as a process
+// (its peak memory: scripts/bench.sh).
 func BenchmarkVerifyLargeProof(b *testing.B) {
 	benchLarge(b)
-	largeOnce.Do(func() { largeText, largeBundle = textProofBundle(b, 9, 4) })
+	largeOnce.Do(func() {
+		largeText, largeBundle = textProofBundle(b, 9, 4)
+		if out := os.Getenv("SPINECERT_BENCH_BUNDLE"); out != "" {
+			if err := os.WriteFile(out, largeBundle, 0o666); err != nil {
+				b.Fatal(err)
+			}
+		}
+	})
 	b.ReportAllocs()
 	for b.Loop() {
 		if r := verifyBytes(largeBundle, VerifyOptions{}); !r.Verified {

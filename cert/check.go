@@ -166,7 +166,9 @@ func scanConflicts(g *graph.Graph, l *Layout, pos []int32, r *Report) {
 var parallelMin = 1 << 16
 
 // sortGroupsLongestFirst orders each run of edges with the same left end
-// by right end, descending.
+// by right end, descending. The edges of a run have different right ends
+// (the graph is simple), so the sort need not be stable; pdqsort also takes
+// the common case of a run in ascending order in linear time.
 func sortGroupsLongestFirst(page, left, right []int32) {
 	for i := 0; i < len(page); {
 		j := i + 1
@@ -174,7 +176,7 @@ func sortGroupsLongestFirst(page, left, right []int32) {
 			j++
 		}
 		if j-i > 1 {
-			slices.SortStableFunc(page[i:j], func(a, b int32) int { return int(right[b]) - int(right[a]) })
+			slices.SortFunc(page[i:j], func(a, b int32) int { return int(right[b]) - int(right[a]) })
 		}
 		i = j
 	}

@@ -424,12 +424,39 @@ func (s *jscan) label(c byte) (int32, error) {
 		}
 		return s.b.VertexBytes(b), nil
 	case c == '-' || (c >= '0' && c <= '9'):
+		if v, ok := s.fastNumber(c); ok {
+			return v, nil
+		}
 		if _, err := s.integer(c); err != nil {
 			return 0, err
 		}
 		return s.b.VertexBytes(s.buf), nil
 	}
 	return 0, s.errf("expected a vertex label (string or integer), found %q", c)
+}
+
+// fastNumber interns the label of a canonical decimal integer of at most 7
+// digits whose first byte c was read, when the whole number and the byte
+// after it are in the buffer and that byte ends a number; otherwise it
+// consumes nothing more and returns false, and the general parser takes over.
+func (s *jscan) fastNumber(c byte) (int32, bool) {
+	if c < '0' || c > '9' {
+		return 0, false
+	}
+	d, p := s.data, s.pos
+	n := int(c - '0')
+	for p < len(d) && p-s.pos < 6 && d[p] >= '0' && d[p] <= '9' {
+		n = n*10 + int(d[p]-'0')
+		p++
+	}
+	if p >= len(d) || (c == '0' && p > s.pos) {
+		return 0, false
+	}
+	if b := d[p]; (b >= '0' && b <= '9') || b == '.' || b == 'e' || b == 'E' {
+		return 0, false
+	}
+	s.pos = p
+	return s.b.VertexNumber(n), true
 }
 
 func (s *jscan) stringArray() ([]string, error) {

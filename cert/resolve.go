@@ -111,16 +111,34 @@ func Resolve(g *graph.Graph, raw *RawLayout) (*Layout, *Report) {
 }
 
 // edgeIndices returns, for every raw edge, the index of the graph edge it
-// names, or -1. Large layouts are looked up in two halves at once.
+// names, or -1. Large layouts are looked up in two halves at once. Layouts
+// often list edges in the graph's order, so the edge after the one found
+// last is tried before a search.
 func edgeIndices(g *graph.Graph, edges []RawEdge, toGraph []int32) []int32 {
 	out := make([]int32, len(edges))
+	ge := g.Edges()
 	look := func(from, to int) {
+		next := -1 // the edge after the one found last
 		for i := from; i < to; i++ {
 			re := edges[i]
 			u, v := toGraph[re.U], toGraph[re.V]
 			out[i] = -1
-			if u >= 0 && v >= 0 {
-				out[i] = int32(g.EdgeIndex(u, v))
+			if u < 0 || v < 0 {
+				continue
+			}
+			if u > v {
+				u, v = v, u
+			}
+			var e int
+			if next >= 0 && next < len(ge) && ge[next] == (graph.Edge{U: u, V: v}) {
+				e = next
+			} else {
+				e = g.EdgeIndex(u, v)
+			}
+			out[i] = int32(e)
+			next = e + 1
+			if e < 0 {
+				next = -1
 			}
 		}
 	}

@@ -10,9 +10,14 @@ import (
 // Labels that are canonical decimal integers below 1<<24 are interned
 // without hashing, which keeps large numbered inputs fast.
 type Builder struct {
+	// vals[v] is k ≥ 0 for the vertex v of label strconv.Itoa(k), and -1-i
+	// for the vertex of label others[i]; labels holds the labels of the
+	// first vertices, made by makeLabels when they are asked for
+	vals   []int32
+	others []string
 	labels []string
-	index  map[string]int32
-	num    []int32 // num[k] = 1 + vertex of label strconv.Itoa(k), 0 if absent
+	index  map[string]int32 // the vertices of others
+	num    []int32          // num[k] = 1 + vertex of label strconv.Itoa(k), 0 if absent
 	pairs  []uint64
 }
 
@@ -48,16 +53,55 @@ func (b *Builder) VertexBytes(label []byte) int32 {
 	if v, ok := b.index[string(label)]; ok {
 		return v
 	}
-	v := int32(len(b.labels))
+	v := int32(len(b.vals))
 	s := string(label)
-	b.labels = append(b.labels, s)
+	b.vals = append(b.vals, int32(-1-len(b.others)))
+	b.others = append(b.others, s)
 	b.index[s] = v
 	return v
 }
 
 // Labels returns the labels added so far, in the order they were added.
 // The slice must not be modified.
-func (b *Builder) Labels() []string { return b.labels }
+func (b *Builder) Labels() []string {
+	b.makeLabels()
+	return b.labels
+}
+
+// makeLabels makes the labels of the vertices added since it last ran; the
+// decimal ones are slices of one string.
+func (b *Builder) makeLabels() {
+	from := len(b.labels)
+	if from == len(b.vals) {
+		return
+	}
+	digits := make([]byte, 0, 8*(len(b.vals)-from)) // numbers below FastNumbers have at most 8 digits
+	for _, k := range b.vals[from:] {
+		if k >= 0 {
+			digits = strconv.AppendInt(digits, int64(k), 10)
+		}
+	}
+	all := string(digits)
+	b.labels = slices.Grow(b.labels, len(b.vals)-from)
+	for _, k := range b.vals[from:] {
+		if k < 0 {
+			b.labels = append(b.labels, b.others[-1-k])
+			continue
+		}
+		w := decimalDigits(int(k))
+		b.labels, all = append(b.labels, all[:w]), all[w:]
+	}
+}
+
+// decimalDigits returns the number of digits of k ≥ 0.
+func decimalDigits(k int) int {
+	w := 1
+	for k >= 10 {
+		k /= 10
+		w++
+	}
+	return w
+}
 
 // VertexNumber is VertexBytes for the decimal label of k, without formatting
 // it first; k must be at least 0 and below FastNumbers.
@@ -70,24 +114,25 @@ func (b *Builder) VertexNumber(k int) int32 {
 			size := max(k+1, 2*len(b.num))
 			b.num = slices.Grow(b.num, size-len(b.num))[:size]
 		}
-		v := int32(len(b.labels))
-		b.labels = append(b.labels, strconv.Itoa(k))
+		v := int32(len(b.vals))
+		b.vals = append(b.vals, int32(k))
 		b.num[k] = v + 1
 		return v
 	}
 }
 
 // N returns the number of vertices added so far.
-func (b *Builder) N() int { return len(b.labels) }
+func (b *Builder) N() int { return len(b.vals) }
 
 // AddEdge adds the edge {u, v} between vertices returned by Vertex.
 // A repeated edge is accepted here and merged (and counted) by Build.
 func (b *Builder) AddEdge(u, v int32) error {
-	if u == v {
-		return fmt.Errorf("%w at vertex %q", ErrSelfLoop, b.labels[u])
-	}
-	if u < 0 || v < 0 || int(u) >= len(b.labels) || int(v) >= len(b.labels) {
+	if u < 0 || v < 0 || int(u) >= len(b.vals) || int(v) >= len(b.vals) {
 		return fmt.Errorf("graph: edge {%d, %d} names an unknown vertex", u, v)
+	}
+	if u == v {
+		b.makeLabels()
+		return fmt.Errorf("%w at vertex %q", ErrSelfLoop, b.labels[u])
 	}
 	if u > v {
 		u, v = v, u
@@ -105,12 +150,22 @@ type BuildReport struct {
 // Build sorts vertices into canonical label order, merges repeated edges and
 // returns the graph. The builder must not be used afterwards.
 func (b *Builder) Build() (*Graph, BuildReport) {
+	b.makeLabels()
 	n := len(b.labels)
-	order := make([]int32, n)
-	for i := range order {
-		order[i] = int32(i)
+	// Labels below FastNumbers come first in canonical order, by value:
+	// the table of numbers lists them so; the others are sorted.
+	order := make([]int32, 0, n)
+	for _, v := range b.num {
+		if v != 0 {
+			order = append(order, v-1)
+		}
 	}
-	slices.SortFunc(order, func(x, y int32) int { return CompareLabels(b.labels[x], b.labels[y]) })
+	numbers := len(order)
+	for _, v := range b.index {
+		order = append(order, v)
+	}
+	rest := order[numbers:]
+	slices.SortFunc(rest, func(x, y int32) int { return CompareLabels(b.labels[x], b.labels[y]) })
 	rank := make([]int32, n)
 	labels := make([]string, n)
 	for r, v := range order {
@@ -118,7 +173,7 @@ func (b *Builder) Build() (*Graph, BuildReport) {
 		labels[r] = b.labels[v]
 	}
 	pairs := b.pairs
-	b.pairs, b.labels, b.index, b.num = nil, nil, nil, nil
+	b.pairs, b.labels, b.index, b.num, b.vals, b.others = nil, nil, nil, nil, nil, nil
 	for i, p := range pairs {
 		u, v := rank[p>>32], rank[p&0xffffffff]
 		if u > v {

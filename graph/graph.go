@@ -24,7 +24,10 @@ type Graph struct {
 	start  []int32 // edges with U == u are edges[start[u]:start[u+1]]
 
 	indexOnce sync.Once
-	index     map[string]int32
+	// labels[:dense] are the decimal labels base, base+1, …: Index computes
+	// their vertices; index holds the vertices of the other labels
+	dense, base int
+	index       map[string]int32
 
 	adjOnce sync.Once
 	adjOff  []int32
@@ -49,14 +52,52 @@ func (g *Graph) Edges() []Edge { return g.edges }
 
 // Index returns the vertex with the given label.
 func (g *Graph) Index(label string) (int32, bool) {
-	g.indexOnce.Do(func() {
-		g.index = make(map[string]int32, len(g.labels))
-		for i, l := range g.labels {
-			g.index[l] = int32(i)
-		}
-	})
+	g.indexOnce.Do(g.buildIndex)
+	if k, ok := decimalValue(label); ok && k >= g.base && k-g.base < g.dense {
+		return int32(k - g.base), true
+	}
 	v, ok := g.index[label]
 	return v, ok
+}
+
+// buildIndex finds the run of consecutive numbers that the labels start
+// with (labels are in canonical order: decimal labels first, by value) and
+// maps the labels after it.
+func (g *Graph) buildIndex() {
+	if len(g.labels) > 0 {
+		if k, ok := decimalValue(g.labels[0]); ok {
+			g.base = k
+			g.dense = 1
+			for g.dense < len(g.labels) {
+				if v, ok := decimalValue(g.labels[g.dense]); !ok || v != k+g.dense {
+					break
+				}
+				g.dense++
+			}
+		}
+	}
+	rest := g.labels[g.dense:]
+	g.index = make(map[string]int32, len(rest))
+	for i, l := range rest {
+		g.index[l] = int32(g.dense + i)
+	}
+}
+
+// decimalValue returns the value of a canonical decimal label of at most 18
+// digits (so that it fits an int).
+func decimalValue(s string) (int, bool) {
+	if len(s) == 0 || len(s) > 18 || (s[0] == '0' && len(s) > 1) {
+		return 0, false
+	}
+	n := 0
+	for i := 0; i < len(s); i++ {
+		c := s[i]
+		if c < '0' || c > '9' {
+			return 0, false
+		}
+		n = n*10 + int(c-'0')
+	}
+	return n, true
 }
 
 // EdgeIndex returns the index in Edges() of the edge {u, v}, or -1.
@@ -137,22 +178,36 @@ const identityTag = "spinecert-graph-identity-v1\x00"
 // edge set only, not on the input format or the order of the input.
 func (g *Graph) ID() string {
 	h := sha256.New()
-	var buf [16]byte
-	h.Write([]byte(identityTag))
-	binary.BigEndian.PutUint64(buf[:8], uint64(len(g.labels)))
-	h.Write(buf[:8])
+	// The hashed bytes are gathered in a buffer: one Write per label or
+	// edge would cost more than the hashing.
+	buf := make([]byte, 0, 64<<10)
+	put := func(x uint64) {
+		if len(buf)+8 > cap(buf) {
+			h.Write(buf)
+			buf = buf[:0]
+		}
+		buf = binary.BigEndian.AppendUint64(buf, x)
+	}
+	buf = append(buf, identityTag...)
+	put(uint64(len(g.labels)))
 	for _, l := range g.labels {
-		binary.BigEndian.PutUint64(buf[:8], uint64(len(l)))
-		h.Write(buf[:8])
-		h.Write([]byte(l))
+		put(uint64(len(l)))
+		if len(buf)+len(l) > cap(buf) {
+			h.Write(buf)
+			buf = buf[:0]
+		}
+		if len(l) > cap(buf) {
+			h.Write([]byte(l))
+		} else {
+			buf = append(buf, l...)
+		}
 	}
-	binary.BigEndian.PutUint64(buf[:8], uint64(len(g.edges)))
-	h.Write(buf[:8])
+	put(uint64(len(g.edges)))
 	for _, e := range g.edges {
-		binary.BigEndian.PutUint64(buf[:8], uint64(e.U))
-		binary.BigEndian.PutUint64(buf[8:], uint64(e.V))
-		h.Write(buf[:])
+		put(uint64(e.U))
+		put(uint64(e.V))
 	}
+	h.Write(buf)
 	return hex.EncodeToString(h.Sum(nil))
 }
 

@@ -24,10 +24,13 @@ type lratLog struct {
 	w       *bufio.Writer
 	forward bool
 	nOrig   int
-	// backward mode: hints per lemma (clause index - nOrig)
-	hintOff []int
+	// backward mode: the hints of lemma i (clause index - nOrig) are
+	// hintLen[i] numbers from hintAt[i]&0xffffffff in blocks[hintAt[i]>>32].
+	// Blocks are filled in turn and never grown, so the hints, which
+	// can take more memory than the proof, are never copied.
+	hintAt  []uint64
 	hintLen []int32
-	arena   []int32
+	blocks  [][]int32
 	final   []int32
 	line    []byte
 	lastID  int64
@@ -44,13 +47,39 @@ func (g *lratLog) setHints(c int, hints []int32) {
 		return
 	}
 	i := c - g.nOrig
-	for len(g.hintOff) <= i {
-		g.hintOff = append(g.hintOff, 0)
+	for len(g.hintAt) <= i {
+		g.hintAt = append(g.hintAt, 0)
 		g.hintLen = append(g.hintLen, 0)
 	}
-	g.hintOff[i] = len(g.arena)
+	last := len(g.blocks) - 1
+	if last < 0 || cap(g.blocks[last])-len(g.blocks[last]) < len(hints) {
+		size := hintBlockMin
+		if last >= 0 {
+			size = min(2*cap(g.blocks[last]), hintBlockMax)
+		}
+		g.blocks = append(g.blocks, make([]int32, 0, max(size, len(hints))))
+		last++
+	}
+	g.hintAt[i] = uint64(last)<<32 | uint64(len(g.blocks[last]))
 	g.hintLen[i] = int32(len(hints))
-	g.arena = append(g.arena, hints...)
+	g.blocks[last] = append(g.blocks[last], hints...)
+}
+
+// The blocks of hints start at hintBlockMin numbers and double up to
+// hintBlockMax (4 MiB); a longer list of hints gets a block of its own.
+const (
+	hintBlockMin = 1 << 12
+	hintBlockMax = 1 << 20
+)
+
+// hintsOf returns the hints kept for lemma i (backward mode).
+func (g *lratLog) hintsOf(i int) []int32 {
+	if i >= len(g.hintAt) || g.hintLen[i] == 0 {
+		return nil
+	}
+	at := g.hintAt[i]
+	off := int(at & 0xffffffff)
+	return g.blocks[at>>32][off : off+int(g.hintLen[i])]
 }
 
 func (g *lratLog) appendLits(k *dratChecker, c int) {
@@ -162,11 +191,7 @@ func (g *lratLog) writeBackward(k *dratChecker, conflictStep int64) error {
 			g.line = strconv.AppendInt(g.line[:0], g.lastID, 10)
 			g.line = append(g.line, ' ')
 			g.appendLits(k, c)
-			var hints []int32
-			if i := c - g.nOrig; i < len(g.hintOff) {
-				hints = g.arena[g.hintOff[i] : g.hintOff[i]+int(g.hintLen[i])]
-			}
-			g.appendHints(hints, id)
+			g.appendHints(g.hintsOf(c-g.nOrig), id)
 		case stepDelete:
 			j := id(int(s.c))
 			if j == 0 {

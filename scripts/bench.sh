@@ -17,6 +17,14 @@ timeit "$q" check "$work/kn.edges" "$work/kn.layout.json" >/dev/null
 echo "  reading only (go benchmark of the readers):"
 go test ./cert -run XXX -bench 'ReadLayoutJSON|ValidateComplete|CheckRaw' -benchtime 5x | grep Benchmark
 
+echo "== check on the fan plus a path (500,000 vertices, 999,997 edges, 1 page)"
+go run ./internal/benchgen -fan -n 500000 -graph "$work/fan.edges" -layout "$work/fan.layout.json"
+ls -l "$work/fan.edges" "$work/fan.layout.json" | awk '{print "  " $5 " bytes " $9}'
+echo "  spinecert check (read both files, match, validate):"
+timeit "$q" check "$work/fan.edges" "$work/fan.layout.json" >/dev/null
+echo "  the same work in one process (go benchmark):"
+go test ./cert -run XXX -bench 'CheckFan' -benchtime 5x | grep Benchmark
+
 if [ "${1:-}" = quick ]; then exit 0; fi
 
 echo "== package benchmarks"

@@ -2,6 +2,10 @@
 // figures (scripts/bench.sh): the complete graph K_n with the classical
 // ⌈n/2⌉-page stack layout (vertex order 0..n-1, edge {a, b} on page
 // ⌊((a+b) mod 2p)/2⌋+1 with p = ⌈n/2⌉), as an edge list and a layout file.
+// With -fan it writes instead the fan plus a path on n vertices, a sparse
+// graph with many vertices: edges i–(i+1) and 0–i, with the one-page layout
+// (vertices 0..n-1 on the spine in order, every edge on page 1; the edges
+// 0–i nest around the path edges, so no two cross).
 package main
 
 import (
@@ -16,8 +20,13 @@ func main() {
 	n := flag.Int("n", 4473, "number of vertices of K_n")
 	graph := flag.String("graph", "kn.edges", "edge list to write")
 	layout := flag.String("layout", "kn.layout.json", "layout to write")
+	fan := flag.Bool("fan", false, "write the fan plus a path on n vertices instead of K_n")
 	flag.Parse()
-	if err := write(*n, *graph, *layout); err != nil {
+	w := write
+	if *fan {
+		w = writeFan
+	}
+	if err := w(*n, *graph, *layout); err != nil {
 		fmt.Fprintln(os.Stderr, "benchgen:", err)
 		os.Exit(1)
 	}
@@ -66,6 +75,60 @@ func write(n int, graphPath, layoutPath string) error {
 			buf = append(buf, ']')
 			l.Write(buf)
 		}
+	}
+	l.WriteString("]}\n")
+	if err := g.Flush(); err != nil {
+		return err
+	}
+	return l.Flush()
+}
+
+// writeFan writes the fan plus a path on n vertices (edges i–(i+1) for
+// 0 ≤ i < n-1 and 0–i for 2 ≤ i < n: 2n-3 edges) and its one-page layout.
+func writeFan(n int, graphPath, layoutPath string) error {
+	gf, err := os.Create(graphPath)
+	if err != nil {
+		return err
+	}
+	defer gf.Close()
+	lf, err := os.Create(layoutPath)
+	if err != nil {
+		return err
+	}
+	defer lf.Close()
+	g, l := bufio.NewWriterSize(gf, 1<<20), bufio.NewWriterSize(lf, 1<<20)
+	l.WriteString("{\"kind\":\"stack\",\"pages\":1,\n\"spine\":[")
+	for v := 0; v < n; v++ {
+		if v > 0 {
+			l.WriteByte(',')
+		}
+		l.WriteString(strconv.Itoa(v))
+	}
+	l.WriteString("],\n\"edges\":[")
+	first := true
+	var buf []byte
+	edge := func(a, b int) {
+		buf = strconv.AppendInt(buf[:0], int64(a), 10)
+		buf = append(buf, ' ')
+		buf = strconv.AppendInt(buf, int64(b), 10)
+		buf = append(buf, '\n')
+		g.Write(buf)
+		if !first {
+			l.WriteByte(',')
+		}
+		first = false
+		buf = append(buf[:0], "\n["...)
+		buf = strconv.AppendInt(buf, int64(a), 10)
+		buf = append(buf, ',')
+		buf = strconv.AppendInt(buf, int64(b), 10)
+		buf = append(buf, ",1]"...)
+		l.Write(buf)
+	}
+	for i := 0; i+1 < n; i++ {
+		edge(i, i+1)
+	}
+	for i := 2; i < n; i++ {
+		edge(0, i)
 	}
 	l.WriteString("]}\n")
 	if err := g.Flush(); err != nil {

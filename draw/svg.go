@@ -77,46 +77,68 @@ const (
 
 func num(f float64) string { return strconv.FormatFloat(math.Round(f*10)/10, 'f', -1, 64) }
 
+// Drawn counts what a drawing shows of its layout.
+type Drawn struct {
+	// Vertices is the number of vertices drawn on the spine.
+	Vertices int `json:"vertices"`
+	// Full, Stubs, Leaving and Outside count the edges drawn in full, drawn
+	// as stubs, leaving the drawn part and not drawn (OmitLeaving), and
+	// with both ends outside it (not drawn); they add up to the edges.
+	Full    int `json:"full"`
+	Stubs   int `json:"stubs"`
+	Leaving int `json:"leaving_not_drawn"`
+	Outside int `json:"outside"`
+	// Text says what part is drawn, as the SVG does; empty when all is.
+	Text string `json:"text"`
+}
+
 // SVG writes an arc diagram of layout l of g to w.
 func SVG(w io.Writer, g *graph.Graph, l *cert.Layout, opts Options) error {
+	_, err := SVGPart(w, g, l, opts)
+	return err
+}
+
+// SVGPart is [SVG] that also returns what the drawing shows.
+func SVGPart(w io.Writer, g *graph.Graph, l *cert.Layout, opts Options) (Drawn, error) {
 	n, m := g.N(), g.M()
 	if len(l.Order) != n || len(l.Page) != m {
-		return fmt.Errorf("%w: %d spine vertices and %d edge pages for a graph with %d vertices and %d edges", ErrShape, len(l.Order), len(l.Page), n, m)
+		return Drawn{}, fmt.Errorf("%w: %d spine vertices and %d edge pages for a graph with %d vertices and %d edges", ErrShape, len(l.Order), len(l.Page), n, m)
 	}
 	pos := l.Positions(n)
 	for v, p := range pos {
 		if p < 0 {
-			return fmt.Errorf("%w: vertex %q is not on the spine", ErrShape, g.Label(int32(v)))
+			return Drawn{}, fmt.Errorf("%w: vertex %q is not on the spine", ErrShape, g.Label(int32(v)))
 		}
 	}
 	k := l.Pages()
 	for e, p := range l.Page {
 		if p < 1 || int(p) > k {
-			return fmt.Errorf("%w: edge %d is on page %d, outside 1..%d", ErrShape, e, p, k)
+			return Drawn{}, fmt.Errorf("%w: edge %d is on page %d, outside 1..%d", ErrShape, e, p, k)
 		}
 	}
 	hiE := make(map[int]bool, len(opts.HighlightEdges))
 	for _, e := range opts.HighlightEdges {
 		if e < 0 || e >= m {
-			return fmt.Errorf("draw: highlighted edge %d out of range 0..%d", e, m-1)
+			return Drawn{}, fmt.Errorf("draw: highlighted edge %d out of range 0..%d", e, m-1)
 		}
 		hiE[e] = true
 	}
 	hiV := make(map[int32]bool, len(opts.HighlightVertices))
 	for _, v := range opts.HighlightVertices {
 		if v < 0 || int(v) >= n {
-			return fmt.Errorf("draw: highlighted vertex %d out of range 0..%d", v, n-1)
+			return Drawn{}, fmt.Errorf("draw: highlighted vertex %d out of range 0..%d", v, n-1)
 		}
 		hiV[v] = true
 	}
 	vw, err := makeView(g, l.Order, pos, l.Page, k, opts)
 	if err != nil {
-		return err
+		return Drawn{}, err
 	}
 	geo := layoutGeometry(g, l, vw)
 	bw := bufio.NewWriter(w)
 	writeSVG(bw, g, l, vw, geo, opts, hiE, hiV)
-	return bw.Flush()
+	d := Drawn{Vertices: len(vw.order), Full: vw.full, Stubs: vw.stubs, Leaving: vw.leaving, Outside: vw.outside, Text: vw.what}
+	return d, bw.Flush()
 }
 
 func layoutGeometry(g *graph.Graph, l *cert.Layout, vw *view) *geometry {

@@ -2,6 +2,7 @@ package heuristic
 
 import (
 	"math/rand/v2"
+	"slices"
 
 	"spinecert.dev/graph"
 )
@@ -16,10 +17,16 @@ import (
 // is the new end. A Hamiltonian path is rotated the same way until its end
 // is a neighbour of its start. Rotations whose new end can be extended (or
 // closes the cycle) are preferred, the one reversing the fewest vertices
-// first; otherwise a rotation is chosen at random. The search gives up
+// first, then two rotations ahead; otherwise a rotation is chosen at
+// random. A vertex whose neighbours are all on the path (a hole) is put
+// between two of them consecutive on the path when there are such, rather
+// than walked into.
+//
+// The search starts from init, a path of g or, when its ends are adjacent,
+// a cycle, which is opened at a vertex with a neighbour off it. It gives up
 // (false) after maxRotations rotations. It is a heuristic: false says
 // nothing about g.
-func posaCycle(g *graph.Graph, start int32, rng *rand.Rand, maxRotations int) ([]int32, bool) {
+func posaCycle(g *graph.Graph, init []int32, rng *rand.Rand, maxRotations int) ([]int32, bool) {
 	n := g.N()
 	if n < 3 {
 		return nil, false
@@ -34,6 +41,17 @@ func posaCycle(g *graph.Graph, start int32, rng *rand.Rand, maxRotations int) ([
 	add := func(v int32) {
 		at[v] = int32(len(path))
 		path = append(path, v)
+		for _, w := range g.Neighbors(v) {
+			free[w]--
+		}
+	}
+	insertAt := func(v int32, i int) { // v goes to path[i], the rest shifts
+		path = append(path, 0)
+		copy(path[i+1:], path[i:])
+		path[i] = v
+		for j := i; j < len(path); j++ {
+			at[path[j]] = int32(j)
+		}
 		for _, w := range g.Neighbors(v) {
 			free[w]--
 		}
@@ -55,7 +73,26 @@ func posaCycle(g *graph.Graph, start int32, rng *rand.Rand, maxRotations int) ([
 		}
 		return g.HasEdge(e, path[0])
 	}
-	add(start)
+	if len(init) == 0 {
+		return nil, false
+	}
+	if k := len(init); k >= 3 && g.HasEdge(init[0], init[k-1]) {
+		// a cycle: open it so that it ends at a vertex with a neighbour
+		// off the cycle
+		on := make([]bool, n)
+		for _, v := range init {
+			on[v] = true
+		}
+		for i, v := range init {
+			if slices.ContainsFunc(g.Neighbors(v), func(w int32) bool { return !on[w] }) {
+				init = append(append([]int32(nil), init[i+1:]...), init[:i+1]...)
+				break
+			}
+		}
+	}
+	for _, v := range init {
+		add(v)
+	}
 	rotations := 0
 	for {
 		e := path[len(path)-1]
@@ -76,6 +113,22 @@ func posaCycle(g *graph.Graph, start int32, rng *rand.Rand, maxRotations int) ([
 					if rng.IntN(ties) == 0 {
 						best = w
 					}
+				}
+			}
+			if bestFree == 0 {
+				// best is a hole: all its neighbours are on the path.
+				// Walking into it ends the path; put it between two
+				// neighbours consecutive on the path instead, the pair
+				// nearest the end (the fewest vertices to shift).
+				slot := -1
+				for _, x := range g.Neighbors(best) {
+					if i := int(at[x]); i >= 0 && i+1 < len(path)-1 && i > slot && g.HasEdge(best, path[i+1]) {
+						slot = i
+					}
+				}
+				if slot >= 0 {
+					insertAt(best, slot+1)
+					continue
 				}
 			}
 			add(best)
@@ -101,6 +154,41 @@ func posaCycle(g *graph.Graph, start int32, rng *rand.Rand, maxRotations int) ([
 			}
 		}
 		if pick < 0 {
+			// Look two rotations ahead: rotating at x makes y, the vertex
+			// after x, the end, and the path after x runs backwards; a
+			// neighbour z of y at position j then has the successor
+			// path[j+1] if j < i and path[j-1] if j > i+2 (z = x or the
+			// vertex before y give no new end).
+			pi, pj := -1, -1
+			for _, x := range g.Neighbors(e) {
+				i := int(at[x])
+				if i < 0 || i >= last-1 || i <= pi {
+					continue
+				}
+				for _, z := range g.Neighbors(path[i+1]) {
+					j := int(at[z])
+					var s int32
+					switch {
+					case j < 0 || j == i || j == i+1 || j == i+2:
+						continue
+					case j < i:
+						s = path[j+1]
+					default:
+						s = path[j-1]
+					}
+					if good(s) {
+						pi, pj = i, j
+						break
+					}
+				}
+			}
+			if pi >= 0 {
+				z := path[pj]
+				reverse(pi + 1)
+				rotations++
+				reverse(int(at[z]) + 1)
+				continue
+			}
 			pick = fallback
 		}
 		if pick < 0 {

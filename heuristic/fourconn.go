@@ -45,7 +45,7 @@ func FourConnectedTwoPage(g *graph.Graph, seed int64) (*cert.Layout, string) {
 		if try < diskTries && n <= diskMaxVertices {
 			cyc, ok = r.growHamiltonian(int32(rng.IntN(n)))
 		} else {
-			cyc, ok = posaCycle(g, []int32{int32(rng.IntN(n))}, rng, posaRotationsPerVertex*n)
+			cyc, ok = posaCycle(g, int32(rng.IntN(n)), rng, posaRotationsPerVertex*n)
 		}
 		if !ok {
 			continue

@@ -2,7 +2,6 @@ package heuristic
 
 import (
 	"math/rand/v2"
-	"slices"
 
 	"spinecert.dev/graph"
 )
@@ -17,16 +16,10 @@ import (
 // is the new end. A Hamiltonian path is rotated the same way until its end
 // is a neighbour of its start. Rotations whose new end can be extended (or
 // closes the cycle) are preferred, the one reversing the fewest vertices
-// first, then two rotations ahead; otherwise a rotation is chosen at
-// random. (Putting a vertex whose neighbours are all on the path between
-// two of them consecutive on the path, instead of walking into it, was
-// tried and made the search slower on random 4-connected triangulations.)
-//
-// The search starts from init, a path of g or, when its ends are adjacent,
-// a cycle, which is opened at a vertex with a neighbour off it. It gives up
+// first; otherwise a rotation is chosen at random. The search gives up
 // (false) after maxRotations rotations. It is a heuristic: false says
 // nothing about g.
-func posaCycle(g *graph.Graph, init []int32, rng *rand.Rand, maxRotations int) ([]int32, bool) {
+func posaCycle(g *graph.Graph, start int32, rng *rand.Rand, maxRotations int) ([]int32, bool) {
 	n := g.N()
 	if n < 3 {
 		return nil, false
@@ -62,26 +55,7 @@ func posaCycle(g *graph.Graph, init []int32, rng *rand.Rand, maxRotations int) (
 		}
 		return g.HasEdge(e, path[0])
 	}
-	if len(init) == 0 {
-		return nil, false
-	}
-	if k := len(init); k >= 3 && g.HasEdge(init[0], init[k-1]) {
-		// a cycle: open it so that it ends at a vertex with a neighbour
-		// off the cycle
-		on := make([]bool, n)
-		for _, v := range init {
-			on[v] = true
-		}
-		for i, v := range init {
-			if slices.ContainsFunc(g.Neighbors(v), func(w int32) bool { return !on[w] }) {
-				init = append(append([]int32(nil), init[i+1:]...), init[:i+1]...)
-				break
-			}
-		}
-	}
-	for _, v := range init {
-		add(v)
-	}
+	add(start)
 	rotations := 0
 	for {
 		e := path[len(path)-1]
@@ -127,41 +101,6 @@ func posaCycle(g *graph.Graph, init []int32, rng *rand.Rand, maxRotations int) (
 			}
 		}
 		if pick < 0 {
-			// Look two rotations ahead: rotating at x makes y, the vertex
-			// after x, the end, and the path after x runs backwards; a
-			// neighbour z of y at position j then has the successor
-			// path[j+1] if j < i and path[j-1] if j > i+2 (z = x or the
-			// vertex before y give no new end).
-			pi, pj := -1, -1
-			for _, x := range g.Neighbors(e) {
-				i := int(at[x])
-				if i < 0 || i >= last-1 || i <= pi {
-					continue
-				}
-				for _, z := range g.Neighbors(path[i+1]) {
-					j := int(at[z])
-					var s int32
-					switch {
-					case j < 0 || j == i || j == i+1 || j == i+2:
-						continue
-					case j < i:
-						s = path[j+1]
-					default:
-						s = path[j-1]
-					}
-					if good(s) {
-						pi, pj = i, j
-						break
-					}
-				}
-			}
-			if pi >= 0 {
-				z := path[pj]
-				reverse(pi + 1)
-				rotations++
-				reverse(int(at[z]) + 1)
-				continue
-			}
 			pick = fallback
 		}
 		if pick < 0 {

@@ -64,8 +64,8 @@ func BenchmarkStacked(b *testing.B) {
 }
 
 // BenchmarkFourConnected: random triangulations without separating
-// triangles (fixture.RandomFourConnected), 2 pages when the disk growth
-// finds a Hamiltonian cycle (Whitney 1931; Bernhart and Kainen 1979):
+// triangles (fixture.RandomFourConnected), 2 pages when the disk growth or
+// the rotation-extension search finds a Hamiltonian cycle (Whitney 1931; Bernhart and Kainen 1979):
 //
 //	go test ./heuristic -run '^$' -bench 'FourConnected' -benchtime 1x -v
 func BenchmarkFourConnected(b *testing.B) {

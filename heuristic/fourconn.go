@@ -17,9 +17,10 @@ import (
 // Math. 32, 1931; W. T. Tutte, "A theorem on planar graphs", Trans. AMS 82,
 // 1956, for every 4-connected planar graph), and a Hamiltonian cycle of a
 // planar graph is the spine of a 2-page layout (Bernhart and Kainen 1979).
-// The cycle is found by growing a disk of faces, see growHamiltonian; that
-// search is a heuristic without a guarantee of its own, so it may fail
-// (nil) even though a cycle exists. The layout is built from the embedding
+// The cycle is found by growing a disk of faces (growHamiltonian) on small
+// graphs, and by rotation and extension (posaCycle); both are heuristics
+// without a guarantee of their own, so they may fail (nil) even though a
+// cycle exists. The layout is built from the embedding
 // as in HamiltonianTwoPage and checked there for crossings before it is
 // returned; callers still validate it (cert.Validate).
 func FourConnectedTwoPage(g *graph.Graph, seed int64) (*cert.Layout, string) {
@@ -36,8 +37,16 @@ func FourConnectedTwoPage(g *graph.Graph, seed int64) (*cert.Layout, string) {
 	}
 	r := newRotation(emb)
 	rng := rand.New(rand.NewPCG(uint64(seed), uint64(n)))
+	// The disk growth first, while it is cheap and usually succeeds; then
+	// rotation and extension (posaCycle) from random start vertices.
 	for try := 0; try < fourConnectedTries; try++ {
-		cyc, ok := r.growHamiltonian(int32(rng.IntN(n)))
+		var cyc []int32
+		ok := false
+		if try < diskTries && n <= diskMaxVertices {
+			cyc, ok = r.growHamiltonian(int32(rng.IntN(n)))
+		} else {
+			cyc, ok = posaCycle(g, int32(rng.IntN(n)), rng, posaRotationsPerVertex*n)
+		}
 		if !ok {
 			continue
 		}
@@ -46,11 +55,21 @@ func FourConnectedTwoPage(g *graph.Graph, seed int64) (*cert.Layout, string) {
 		}
 		return nil, "the cycle found does not give a 2-page layout (a bug)"
 	}
-	return nil, "the disk growth got stuck on every try"
+	return nil, "the disk growth and the rotation-extension search found no Hamiltonian cycle"
 }
 
-// fourConnectedTries is the number of start faces the disk growth tries.
-const fourConnectedTries = 8
+// The search budget of FourConnectedTwoPage: fourConnectedTries tries in
+// all, the first diskTries by disk growth when there are at most
+// diskMaxVertices vertices (above that it nearly always gets stuck: no
+// success on random 4-connected triangulations of 1000 vertices), the
+// others by rotation and extension with at most posaRotationsPerVertex·n
+// rotations each.
+const (
+	fourConnectedTries     = 8
+	diskTries              = 3
+	diskMaxVertices        = 300
+	posaRotationsPerVertex = 50
+)
 
 // countTriangles counts the triangles of g: every edge is directed from
 // the end of lower (degree, index) to the higher, and each triangle is

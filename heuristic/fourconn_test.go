@@ -65,3 +65,31 @@ func TestFourConnectedRefuses(t *testing.T) {
 		}
 	}
 }
+
+// TestFourConnectedLarge: random triangulations without separating
+// triangles on 10^3 to 10^4 vertices are Hamiltonian (Whitney 1931), so on 2
+// pages (Bernhart and Kainen 1979); the search must find such a layout, the
+// checker must accept it, and its spine must be a Hamiltonian cycle of the
+// graph (checked here edge by edge, the definition).
+func TestFourConnectedLarge(t *testing.T) {
+	sizes := []int{1000, 3000, 10000}
+	if testing.Short() {
+		sizes = sizes[:1]
+	}
+	for _, n := range sizes {
+		rng := rand.New(rand.NewPCG(uint64(n), 11))
+		g := fixture.RandomFourConnected(rng, n, 3*n).Graph()
+		l, why := FourConnectedTwoPage(g, 1)
+		if l == nil {
+			t.Fatalf("n=%d: no layout: %s", n, why)
+		}
+		if rep := cert.Validate(g, l); !rep.OK() || l.Pages() != 2 {
+			t.Fatalf("n=%d: %d pages, %v", n, l.Pages(), rep.Err())
+		}
+		for i, v := range l.Order {
+			if w := l.Order[(i+1)%n]; !g.HasEdge(v, w) {
+				t.Fatalf("n=%d: spine neighbours %d and %d are not adjacent", n, v, w)
+			}
+		}
+	}
+}

@@ -21,8 +21,9 @@ const (
 	// [StackedThreePage]).
 	MethodStacked = Method("planar-3-tree")
 	// MethodFourConnected: a Hamiltonian cycle of a triangulation without
-	// separating triangles grown face by face (see [FourConnectedTwoPage]),
-	// as the spine of a 2-page layout.
+	// separating triangles, grown face by face or found by rotation and
+	// extension (see [FourConnectedTwoPage]), as the spine of a 2-page
+	// layout.
 	MethodFourConnected = Method("4-connected")
 	// MethodHamiltonSearch: a bounded backtracking search for a
 	// Hamiltonian cycle of a planar graph (see [HamiltonianTwoPage]).

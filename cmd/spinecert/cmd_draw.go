@@ -4,6 +4,9 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"os"
+	"strconv"
+	"strings"
 
 	"github.com/spf13/cobra"
 
@@ -24,12 +27,51 @@ type drawOptions struct {
 
 	kuratowski     bool
 	kuratowskiCert string
+
+	window   string
+	vertices string
+	around   string
+	radius   int
+	leaving  string
+	win      *draw.Window // parsed --window
+}
+
+// validate checks the flags before any input is read.
+func (o *drawOptions) validate() error {
+	if o.output == "" {
+		return fmt.Errorf("missing -o FILE.svg")
+	}
+	if o.json && o.output == "-" {
+		return fmt.Errorf("--json prints the report on stdout: write the drawing with -o FILE.svg")
+	}
+	if o.kuratowski && o.kuratowskiCert != "" {
+		return errors.New("--kuratowski and --kuratowski-cert cannot be used together")
+	}
+	if o.window != "" {
+		from, to, ok := strings.Cut(o.window, ":")
+		a, errA := strconv.Atoi(from)
+		b, errB := strconv.Atoi(to)
+		if !ok || errA != nil || errB != nil || a < 1 || b < a {
+			return fmt.Errorf("--window %q: expected FROM:TO, spine positions with 1 <= FROM <= TO", o.window)
+		}
+		o.win = &draw.Window{From: a, To: b}
+	}
+	if o.vertices != "" && o.around != "" {
+		return errors.New("--vertices and --around cannot be used together")
+	}
+	if o.radius < 0 {
+		return fmt.Errorf("--radius %d: expected a distance >= 0", o.radius)
+	}
+	if o.leaving != "stub" && o.leaving != "omit" {
+		return fmt.Errorf("--leaving %q: expected stub or omit", o.leaving)
+	}
+	return nil
 }
 
 func newDrawCmd() *cobra.Command {
 	var o drawOptions
 	cmd := &cobra.Command{
-		Use:   "draw GRAPH LAYOUT -o FILE.svg [--kuratowski | --kuratowski-cert CERT]",
+		Use:   "draw GRAPH LAYOUT -o FILE.svg [--kuratowski | --kuratowski-cert CERT] [--window FROM:TO] [--vertices FILE | --around V]",
 		Short: "Draw a layout as an SVG arc diagram",
 		Long: `Draw a layout of a graph as an SVG arc diagram: the spine is a horizontal
 band with the vertex labels in spine order, every edge an arc; odd pages
@@ -47,6 +89,17 @@ vertices and path edges highlighted over the dimmed rest; the legend names
 K5 or K3,3. --kuratowski-cert CERT highlights the subdivision in a
 planarity certificate (spinecert planar -o CERT), checked before drawing.
 
+A large layout is drawn in part: --window FROM:TO keeps the vertices at
+spine positions FROM..TO (1-based), --vertices FILE the vertices whose
+labels FILE lists (whitespace-separated, # starts a comment), --around V
+the vertices within --radius R edges of vertex V (default 1); a window and
+a vertex set together keep the vertices in both. The drawn vertices stay
+in spine order, so their arcs cross and nest as in the whole layout. Edges
+with both ends drawn are drawn in full; edges leaving the drawn part are
+dotted stubs ending in the gap of the spine where the other end lies, or
+left out with --leaving omit. The SVG says what part is drawn, with the
+counts of what is drawn and left out.
+
 Exit status 0 means drawn; 1 that the certificate given with
 --kuratowski-cert is rejected by the checker (nothing is drawn); 2 bad
 usage, unreadable input, a layout that does not fit, or a planar graph or
@@ -56,14 +109,8 @@ checker.`,
 		Args: cobra.ExactArgs(2),
 		RunE: func(cmd *cobra.Command, args []string) error {
 			o.graphArg, o.layout = args[0], args[1]
-			if o.output == "" {
-				return usageErr(fmt.Errorf("missing -o FILE.svg"))
-			}
-			if o.json && o.output == "-" {
-				return usageErr(fmt.Errorf("--json prints the report on stdout: write the drawing with -o FILE.svg"))
-			}
-			if o.kuratowski && o.kuratowskiCert != "" {
-				return usageErr(errors.New("--kuratowski and --kuratowski-cert cannot be used together"))
+			if err := o.validate(); err != nil {
+				return usageErr(err)
 			}
 			return runDraw(cmd, &o)
 		},
@@ -74,6 +121,11 @@ checker.`,
 	cmd.Flags().BoolVar(&o.json, "json", false, "print one JSON object on stdout")
 	cmd.Flags().BoolVar(&o.kuratowski, "kuratowski", false, "find, check and highlight a subdivision of K5 or K3,3")
 	cmd.Flags().StringVar(&o.kuratowskiCert, "kuratowski-cert", "", "highlight the subdivision in the planarity certificate `CERT`, checked first")
+	cmd.Flags().StringVar(&o.window, "window", "", "draw only spine positions `FROM:TO` (1-based)")
+	cmd.Flags().StringVar(&o.vertices, "vertices", "", "draw only the vertices whose labels `FILE` lists")
+	cmd.Flags().StringVar(&o.around, "around", "", "draw only the vertices within --radius of vertex `V`")
+	cmd.Flags().IntVar(&o.radius, "radius", 1, "distance in edges for --around")
+	cmd.Flags().StringVar(&o.leaving, "leaving", "stub", "edges leaving the drawn part: stub or omit")
 	return cmd
 }
 
@@ -102,7 +154,13 @@ func runDraw(cmd *cobra.Command, o *drawOptions) error {
 	if title == "" {
 		title = fmt.Sprintf("%s: %s layout on %d page(s)", o.graphArg, l.Kind, l.Pages())
 	}
-	opts := draw.Options{Title: title}
+	if o.win != nil && o.win.To > g.N() {
+		return usageErr(fmt.Errorf("--window %s: the spine has %d positions", o.window, g.N()))
+	}
+	opts := draw.Options{Title: title, Window: o.win, OmitLeaving: o.leaving == "omit"}
+	if err := drawPart(g, o, &opts); err != nil {
+		return err
+	}
 	kind := ""
 	if k != nil {
 		kind = k.Kind.String()
@@ -110,8 +168,11 @@ func runDraw(cmd *cobra.Command, o *drawOptions) error {
 		opts.HighlightEdges = drawPathEdges(g, k)
 		opts.HighlightLabel = fmt.Sprintf("%s subdivision, checked", k.Kind)
 	}
+	var drawn draw.Drawn
 	err = writeFileAtomic(o.output, cmd.OutOrStdout(), func(w io.Writer) error {
-		return draw.SVG(w, g, l, opts)
+		var err error
+		drawn, err = draw.SVGPart(w, g, l, opts)
+		return err
 	})
 	if err != nil {
 		return err
@@ -126,8 +187,14 @@ func runDraw(cmd *cobra.Command, o *drawOptions) error {
 			Conflicts int64  `json:"conflicts"`
 			// Kuratowski is "K5" or "K3,3" when a checked subdivision is highlighted.
 			Kuratowski string `json:"kuratowski,omitempty"`
+			// Part says what part is drawn, when not all of it.
+			Part *draw.Drawn `json:"part,omitempty"`
 		}
-		return writeJSON(cmd.OutOrStdout(), result{g.ID(), o.layout, o.output, l.Kind.String(), l.Pages(), conflicts, kind})
+		var part *draw.Drawn
+		if drawn.Text != "" {
+			part = &drawn
+		}
+		return writeJSON(cmd.OutOrStdout(), result{g.ID(), o.layout, o.output, l.Kind.String(), l.Pages(), conflicts, kind, part})
 	}
 	stderr := cmd.ErrOrStderr()
 	if conflicts > 0 {
@@ -135,6 +202,11 @@ func runDraw(cmd *cobra.Command, o *drawOptions) error {
 	}
 	if o.output != "-" {
 		fmt.Fprintf(stderr, "drew %s layout on %d page(s) to %s\n", l.Kind, l.Pages(), o.output)
+	}
+	if drawn.Text != "" {
+		fmt.Fprintf(stderr, "%s\n", drawn.Text)
+	} else if g.M() > bigDrawing {
+		fmt.Fprintf(stderr, "spinecert: note: all %d edges drawn; --window FROM:TO, --vertices FILE or --around V draw a part\n", g.M())
 	}
 	if k != nil {
 		fmt.Fprintf(stderr, "highlighted a %s subdivision (checked): %d branch vertices, %d path edges\n", k.Kind, len(k.Branch), len(opts.HighlightEdges))
@@ -183,4 +255,38 @@ func drawPathEdges(g *graph.Graph, k *planarcert.Kuratowski) []int {
 		}
 	}
 	return out
+}
+
+// bigDrawing is the number of edges above which draw suggests drawing a part.
+const bigDrawing = 5000
+
+// drawPart sets the vertex set of --vertices or --around in opts.
+func drawPart(g *graph.Graph, o *drawOptions, opts *draw.Options) error {
+	switch {
+	case o.around != "":
+		v, ok := g.Index(o.around)
+		if !ok {
+			return usageErr(fmt.Errorf("--around %q: no such vertex in %s", o.around, o.graphArg))
+		}
+		opts.Vertices = draw.Around(g, v, o.radius)
+		opts.VerticesLabel = fmt.Sprintf("vertices within %d of %s", o.radius, o.around)
+	case o.vertices != "":
+		data, err := os.ReadFile(o.vertices)
+		if err != nil {
+			return usageErr(err)
+		}
+		opts.Vertices = []int32{}
+		for i, line := range strings.Split(string(data), "\n") {
+			line, _, _ = strings.Cut(line, "#")
+			for _, f := range strings.Fields(line) {
+				v, ok := g.Index(f)
+				if !ok {
+					return usageErr(fmt.Errorf("%s:%d: no vertex %q in %s", o.vertices, i+1, f, o.graphArg))
+				}
+				opts.Vertices = append(opts.Vertices, v)
+			}
+		}
+		opts.VerticesLabel = "the vertices listed in " + o.vertices
+	}
+	return nil
 }

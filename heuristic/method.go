@@ -2,6 +2,7 @@ package heuristic
 
 import (
 	"fmt"
+	"math/rand/v2"
 
 	"spinecert.dev/cert"
 	"spinecert.dev/graph"
@@ -154,6 +155,18 @@ func construct(g *graph.Graph, m Method, opts Options) (*cert.Layout, Report, st
 			if emb, ok := planar.Embed(g); ok {
 				if h, ok := HamiltonianTwoPage(g, emb, hamiltonBudget(g)); ok {
 					return h, Report{m, 2, theoremHamilton}, ""
+				}
+				// A triangulation with separating triangles may still be
+				// Hamiltonian: try rotation and extension from a few starts.
+				if g.M() == 3*g.N()-6 {
+					rng := rand.New(rand.NewPCG(uint64(opts.Seed), uint64(g.N())))
+					for try := 0; try < fourConnectedTries; try++ {
+						if cyc, ok := posaCycle(g, int32(rng.IntN(g.N())), rng, posaRotationsPerVertex*g.N()); ok {
+							if h, ok := cycleTwoPage(g, emb, cyc); ok {
+								return h, Report{m, 2, theoremHamilton}, ""
+							}
+						}
+					}
 				}
 			}
 		}

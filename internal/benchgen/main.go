@@ -22,70 +22,45 @@ func main() {
 	layout := flag.String("layout", "kn.layout.json", "layout to write")
 	fan := flag.Bool("fan", false, "write the fan plus a path on n vertices instead of K_n")
 	flag.Parse()
-	w := write
+	pages, edges := completeEdges(*n)
 	if *fan {
-		w = writeFan
+		pages, edges = fanEdges(*n)
 	}
-	if err := w(*n, *graph, *layout); err != nil {
+	if err := write(*n, pages, edges, *graph, *layout); err != nil {
 		fmt.Fprintln(os.Stderr, "benchgen:", err)
 		os.Exit(1)
 	}
 }
 
-func write(n int, graphPath, layoutPath string) error {
-	gf, err := os.Create(graphPath)
-	if err != nil {
-		return err
-	}
-	defer gf.Close()
-	lf, err := os.Create(layoutPath)
-	if err != nil {
-		return err
-	}
-	defer lf.Close()
-	g, l := bufio.NewWriterSize(gf, 1<<20), bufio.NewWriterSize(lf, 1<<20)
+// completeEdges lists the edges of K_n with their pages in the classical
+// ⌈n/2⌉-page layout.
+func completeEdges(n int) (int, func(edge func(a, b, page int))) {
 	p := (n + 1) / 2
-	fmt.Fprintf(l, "{\"kind\":\"stack\",\"pages\":%d,\n\"spine\":[", p)
-	for v := 0; v < n; v++ {
-		if v > 0 {
-			l.WriteByte(',')
-		}
-		l.WriteString(strconv.Itoa(v))
-	}
-	l.WriteString("],\n\"edges\":[")
-	first := true
-	var buf []byte
-	for a := 0; a < n; a++ {
-		for b := a + 1; b < n; b++ {
-			buf = strconv.AppendInt(buf[:0], int64(a), 10)
-			buf = append(buf, ' ')
-			buf = strconv.AppendInt(buf, int64(b), 10)
-			buf = append(buf, '\n')
-			g.Write(buf)
-			if !first {
-				l.WriteByte(',')
+	return p, func(edge func(a, b, page int)) {
+		for a := 0; a < n; a++ {
+			for b := a + 1; b < n; b++ {
+				edge(a, b, ((a+b)%(2*p))/2+1)
 			}
-			first = false
-			buf = append(buf[:0], "\n["...)
-			buf = strconv.AppendInt(buf, int64(a), 10)
-			buf = append(buf, ',')
-			buf = strconv.AppendInt(buf, int64(b), 10)
-			buf = append(buf, ',')
-			buf = strconv.AppendInt(buf, int64(((a+b)%(2*p))/2+1), 10)
-			buf = append(buf, ']')
-			l.Write(buf)
 		}
 	}
-	l.WriteString("]}\n")
-	if err := g.Flush(); err != nil {
-		return err
-	}
-	return l.Flush()
 }
 
-// writeFan writes the fan plus a path on n vertices (edges i–(i+1) for
-// 0 ≤ i < n-1 and 0–i for 2 ≤ i < n: 2n-3 edges) and its one-page layout.
-func writeFan(n int, graphPath, layoutPath string) error {
+// fanEdges lists the edges of the fan plus a path on n vertices (i–(i+1)
+// for 0 ≤ i < n-1 and 0–i for 2 ≤ i < n: 2n-3 edges), all on page 1.
+func fanEdges(n int) (int, func(edge func(a, b, page int))) {
+	return 1, func(edge func(a, b, page int)) {
+		for i := 0; i+1 < n; i++ {
+			edge(i, i+1, 1)
+		}
+		for i := 2; i < n; i++ {
+			edge(0, i, 1)
+		}
+	}
+}
+
+// write writes the edge list and the layout (vertices 0..n-1 on the spine
+// in order) of the edges that edges lists.
+func write(n, pages int, edges func(edge func(a, b, page int)), graphPath, layoutPath string) error {
 	gf, err := os.Create(graphPath)
 	if err != nil {
 		return err
@@ -97,7 +72,7 @@ func writeFan(n int, graphPath, layoutPath string) error {
 	}
 	defer lf.Close()
 	g, l := bufio.NewWriterSize(gf, 1<<20), bufio.NewWriterSize(lf, 1<<20)
-	l.WriteString("{\"kind\":\"stack\",\"pages\":1,\n\"spine\":[")
+	fmt.Fprintf(l, "{\"kind\":\"stack\",\"pages\":%d,\n\"spine\":[", pages)
 	for v := 0; v < n; v++ {
 		if v > 0 {
 			l.WriteByte(',')
@@ -107,7 +82,7 @@ func writeFan(n int, graphPath, layoutPath string) error {
 	l.WriteString("],\n\"edges\":[")
 	first := true
 	var buf []byte
-	edge := func(a, b int) {
+	edges(func(a, b, page int) {
 		buf = strconv.AppendInt(buf[:0], int64(a), 10)
 		buf = append(buf, ' ')
 		buf = strconv.AppendInt(buf, int64(b), 10)
@@ -121,15 +96,11 @@ func writeFan(n int, graphPath, layoutPath string) error {
 		buf = strconv.AppendInt(buf, int64(a), 10)
 		buf = append(buf, ',')
 		buf = strconv.AppendInt(buf, int64(b), 10)
-		buf = append(buf, ",1]"...)
+		buf = append(buf, ',')
+		buf = strconv.AppendInt(buf, int64(page), 10)
+		buf = append(buf, ']')
 		l.Write(buf)
-	}
-	for i := 0; i+1 < n; i++ {
-		edge(i, i+1)
-	}
-	for i := 2; i < n; i++ {
-		edge(0, i)
-	}
+	})
 	l.WriteString("]}\n")
 	if err := g.Flush(); err != nil {
 		return err

@@ -2,7 +2,6 @@ package draw
 
 import (
 	"bytes"
-	"encoding/xml"
 	"io"
 	"strconv"
 	"strings"
@@ -25,49 +24,30 @@ type drawing struct {
 func readDrawing(t *testing.T, data []byte) drawing {
 	t.Helper()
 	dr := drawing{full: map[int]bool{}, stubs: map[int]bool{}}
-	d := xml.NewDecoder(bytes.NewReader(data))
-	inPart := false
-	for {
-		tok, err := d.Token()
-		if err == io.EOF {
-			break
+	walkSVG(t, data, func(name string, attr map[string]string) func(string) {
+		if name == "path" {
+			e, err := strconv.Atoi(attr["data-edge"])
+			if err != nil {
+				t.Fatalf("arc without data-edge: %v", attr)
+			}
+			m := dr.full
+			if attr["data-stub"] == "1" {
+				m = dr.stubs
+			}
+			if dr.full[e] || dr.stubs[e] {
+				t.Fatalf("edge %d drawn twice", e)
+			}
+			m[e] = true
 		}
-		if err != nil {
-			t.Fatalf("not well-formed XML: %v", err)
+		if p, ok := attr["data-pos"]; ok && name == "text" {
+			v, _ := strconv.Atoi(p)
+			dr.pos = append(dr.pos, v)
 		}
-		switch tok := tok.(type) {
-		case xml.StartElement:
-			attr := map[string]string{}
-			for _, a := range tok.Attr {
-				attr[a.Name.Local] = a.Value
-			}
-			if tok.Name.Local == "path" {
-				e, err := strconv.Atoi(attr["data-edge"])
-				if err != nil {
-					t.Fatalf("arc without data-edge: %v", attr)
-				}
-				m := dr.full
-				if attr["data-stub"] == "1" {
-					m = dr.stubs
-				}
-				if dr.full[e] || dr.stubs[e] {
-					t.Fatalf("edge %d drawn twice", e)
-				}
-				m[e] = true
-			}
-			if p, ok := attr["data-pos"]; ok && tok.Name.Local == "text" {
-				v, _ := strconv.Atoi(p)
-				dr.pos = append(dr.pos, v)
-			}
-			inPart = attr["data-legend-part"] == "1"
-		case xml.CharData:
-			if inPart {
-				dr.part += string(tok)
-			}
-		case xml.EndElement:
-			inPart = false
+		if attr["data-legend-part"] == "1" {
+			return func(s string) { dr.part += s }
 		}
-	}
+		return nil
+	})
 	return dr
 }
 

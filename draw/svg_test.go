@@ -34,37 +34,58 @@ func completeLayout(g *graph.Graph, kind cert.Kind) *cert.Layout {
 	return l
 }
 
-// scan decodes the SVG with encoding/xml (well-formedness, XML 1.0) and
-// collects the arcs per edge and the pages named in the legend.
-func scan(t *testing.T, data []byte) (arcs map[int]int, legend map[int]bool, root string) {
+// walkSVG decodes an SVG with encoding/xml (well-formedness, XML 1.0) and
+// calls start for every element with its attributes by name; the character
+// data directly inside that element goes to the function start returns, if
+// any.
+func walkSVG(t *testing.T, data []byte, start func(name string, attr map[string]string) (text func(string))) {
 	t.Helper()
-	arcs, legend = map[int]int{}, map[int]bool{}
 	d := xml.NewDecoder(bytes.NewReader(data))
+	var text func(string)
 	for {
 		tok, err := d.Token()
 		if err == io.EOF {
-			break
+			return
 		}
 		if err != nil {
 			t.Fatalf("not well-formed XML: %v", err)
 		}
-		se, ok := tok.(xml.StartElement)
-		if !ok {
-			continue
-		}
-		if root == "" {
-			root = se.Name.Local
-		}
-		for _, a := range se.Attr {
-			v, _ := strconv.Atoi(a.Value)
-			switch {
-			case se.Name.Local == "path" && a.Name.Local == "data-edge":
-				arcs[v]++
-			case se.Name.Local == "text" && a.Name.Local == "data-legend-page":
-				legend[v] = true
+		switch tok := tok.(type) {
+		case xml.StartElement:
+			attr := map[string]string{}
+			for _, a := range tok.Attr {
+				attr[a.Name.Local] = a.Value
 			}
+			text = start(tok.Name.Local, attr)
+		case xml.CharData:
+			if text != nil {
+				text(string(tok))
+			}
+		case xml.EndElement:
+			text = nil
 		}
 	}
+}
+
+// scan collects the arcs per edge, the pages named in the legend, and the
+// name of the root element.
+func scan(t *testing.T, data []byte) (arcs map[int]int, legend map[int]bool, root string) {
+	t.Helper()
+	arcs, legend = map[int]int{}, map[int]bool{}
+	walkSVG(t, data, func(name string, attr map[string]string) func(string) {
+		if root == "" {
+			root = name
+		}
+		if v, ok := attr["data-edge"]; ok && name == "path" {
+			e, _ := strconv.Atoi(v)
+			arcs[e]++
+		}
+		if v, ok := attr["data-legend-page"]; ok && name == "text" {
+			p, _ := strconv.Atoi(v)
+			legend[p] = true
+		}
+		return nil
+	})
 	return arcs, legend, root
 }
 
@@ -160,39 +181,20 @@ func TestSVGHighlight(t *testing.T) {
 	}
 	edges, labels := map[int]bool{}, map[string]bool{}
 	legend := ""
-	d := xml.NewDecoder(bytes.NewReader(buf.Bytes()))
-	inLegend, inLabel := false, false
-	for {
-		tok, err := d.Token()
-		if err == io.EOF {
-			break
+	walkSVG(t, buf.Bytes(), func(name string, attr map[string]string) func(string) {
+		hi := attr["data-highlight"] == "1"
+		if hi && name == "path" {
+			e, _ := strconv.Atoi(attr["data-edge"])
+			edges[e] = true
 		}
-		if err != nil {
-			t.Fatalf("not well-formed XML: %v", err)
+		switch {
+		case hi && name == "text":
+			return func(s string) { labels[s] = true }
+		case attr["data-legend-highlight"] == "1":
+			return func(s string) { legend += s }
 		}
-		switch tok := tok.(type) {
-		case xml.StartElement:
-			attr := map[string]string{}
-			for _, a := range tok.Attr {
-				attr[a.Name.Local] = a.Value
-			}
-			if attr["data-highlight"] == "1" && tok.Name.Local == "path" {
-				e, _ := strconv.Atoi(attr["data-edge"])
-				edges[e] = true
-			}
-			inLabel = attr["data-highlight"] == "1" && tok.Name.Local == "text"
-			inLegend = attr["data-legend-highlight"] == "1"
-		case xml.CharData:
-			if inLabel {
-				labels[string(tok)] = true
-			}
-			if inLegend {
-				legend += string(tok)
-			}
-		case xml.EndElement:
-			inLabel, inLegend = false, false
-		}
-	}
+		return nil
+	})
 	if len(edges) != len(hiE) {
 		t.Fatalf("highlighted arcs %v, want %v", edges, hiE)
 	}

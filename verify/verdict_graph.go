@@ -48,7 +48,6 @@ type GraphVerdict struct {
 	// that CNF is (DecideOnDemand); it passed dimacs.CheckMembership.
 	Sub      *dimacs.Sub      `json:"-"`
 	Rounds   int              `json:"refine_rounds,omitempty"`
-	FullSize int64            `json:"full_clauses,omitempty"` // clauses of the whole on-demand formula
 	Results  []*Result        `json:"results"`
 	Checks   []ProofCheck     `json:"proof_checks,omitempty"`
 	Layout   *cert.Layout     `json:"-"` // a layout that passed cert.Validate (Satisfiable only)
@@ -276,7 +275,7 @@ func DecideOnDemand(ctx context.Context, g *graph.Graph, opt GraphOptions) (*Gra
 	if err != nil {
 		return nil, err
 	}
-	gv := &GraphVerdict{Options: f.Describe(), Rounds: ref.Rounds, FullSize: f.FullSize(), Encode: ref.Elapsed}
+	gv := &GraphVerdict{Options: f.Describe(), Rounds: ref.Rounds, Encode: ref.Elapsed}
 	switch {
 	case ref.Layout != nil:
 		gv.Layout = ref.Layout
@@ -300,7 +299,7 @@ func DecideOnDemand(ctx context.Context, g *graph.Graph, opt GraphOptions) (*Gra
 	v := gv.Verdict
 	switch v.Outcome {
 	case Unsatisfiable:
-		v.Checked = append(v.Checked, fmt.Sprintf("every clause of the sub-formula (%d of the formulation's %d) is a clause of the on-demand formulation %s (dimacs.CheckMembership)", len(cnf.Clauses), gv.FullSize, dimacs.OnDemandVersion))
+		v.Checked = append(v.Checked, fmt.Sprintf("every clause of the sub-formula (%d clauses) is a clause of the on-demand formulation %s (dimacs.CheckMembership)", len(cnf.Clauses), dimacs.OnDemandVersion))
 	case Satisfiable:
 		// gini found F′ unsatisfiable and another solver a model: the model
 		// still has to give a layout to count.

@@ -40,6 +40,7 @@ var allowed = map[string][]string{
 	"draw":              {"graph", "cert"},
 	"dimacs":            {"graph", "cert", "textpos"},
 	"proof":             {"dimacs", "textpos"},
+	"cube":              {"dimacs", "textpos"},
 	"verify":            {"graph", "cert", "dimacs", "proof"},
 	"pagenumber":        {"graph", "cert", "dimacs", "planar", "planar/planarcert", "toughcert", "heuristic", "proof", "verify"},
 	"archive":           {"graph", "cert", "dimacs", "planar/planarcert", "proof", "textpos"},

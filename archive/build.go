@@ -65,6 +65,9 @@ type RefutationInput struct {
 	// Sub, when not nil, is a sub-formula of the on-demand formulation that
 	// the proof refutes (instead of the default encoding).
 	Sub *dimacs.Sub
+	// Cubes, when not nil, splits the refutation of spinecert's own CNF
+	// into cubes (Proof, ProofFormat, ForeignCNF and Sub are then unused).
+	Cubes *CubesInput
 }
 
 func inputExt(f graph.Format) string {
@@ -254,6 +257,9 @@ func buildRefutation(ctx context.Context, ev *Evidence, enc Encoder, tmpDir stri
 	if subSrc != nil {
 		srcs = append(srcs, *subSrc)
 	}
+	if in.Cubes != nil && (in.Sub != nil || in.ForeignCNF != "") {
+		return nil, nil, fmt.Errorf("archive: a refutation by cubes splits spinecert's own encoding, not a sub-formula or a foreign CNF")
+	}
 	if in.Sub != nil {
 		ss, err := subFormula(r, in, target, opt)
 		if err != nil {
@@ -275,6 +281,18 @@ func buildRefutation(ctx context.Context, ev *Evidence, enc Encoder, tmpDir stri
 		return nil, nil, err
 	}
 	r.CNF = CNFEntry{SHA256: sum, Vars: cnf.Vars, Clauses: len(cnf.Clauses), Source: CNFOwn}
+	if in.Cubes != nil {
+		if ev.IncludeCNF {
+			srcs = append(srcs, BytesSource(memberCNF, text))
+			r.CNF.Member = memberCNF
+		}
+		r.Runs, r.Proofs = []Run{}, []Proof{}
+		cs, err := buildCubes(ctx, r, in.Cubes, cnf, tmpDir)
+		if err != nil {
+			return nil, nil, err
+		}
+		return r, append(srcs, cs...), nil
+	}
 	checkAgainst := cnf
 	if in.ForeignCNF != "" {
 		fsum, _, err := hashFile(in.ForeignCNF)
@@ -309,21 +327,32 @@ func buildRefutation(ctx context.Context, ev *Evidence, enc Encoder, tmpDir stri
 // checkAndStoreProof checks the refutation's proof against cnf (converting
 // a text DRAT proof to binary first), records it in r and returns its member.
 func checkAndStoreProof(ctx context.Context, r *Refutation, in *RefutationInput, checkAgainst *dimacs.CNF, tmpDir string) ([]Source, error) {
-	var srcs []Source
+	p, src, err := storeProof(ctx, checkAgainst, in.Proof, in.ProofFormat, "proofs/refutation", tmpDir)
+	if err != nil {
+		return nil, err
+	}
+	r.Proofs = []Proof{p}
+	return []Source{src}, nil
+}
+
+// storeProof checks the proof at path against cnf (converting a text DRAT
+// proof to binary first, and keeping the trimmed proof when it passes
+// again and is smaller) and returns its record and its member, named
+// stem plus the format's extension.
+func storeProof(ctx context.Context, checkAgainst *dimacs.CNF, path, format, stem, tmpDir string) (Proof, Source, error) {
 	var err error
-	format := in.ProofFormat
 	if format == "" || format == proof.RUP {
-		format, err = detectFormat(in.Proof)
+		format, err = detectFormat(path)
 		if err != nil {
-			return nil, err
+			return Proof{}, Source{}, err
 		}
 	}
-	proofPath, converted := in.Proof, ""
+	proofPath, converted := path, ""
 	if format == proof.DRAT {
 		// Store text proofs as binary DRAT: smaller, and compresses better.
-		bin, err := convertProof(in.Proof, tmpDir)
+		bin, err := convertProof(path, tmpDir)
 		if err != nil {
-			return nil, err
+			return Proof{}, Source{}, err
 		}
 		proofPath, format, converted = bin, proof.DRATBinary, proof.DRAT
 	}
@@ -331,14 +360,14 @@ func checkAndStoreProof(ctx context.Context, r *Refutation, in *RefutationInput,
 	if format == proof.DRATBinary {
 		tf, err := os.CreateTemp(tmpDir, "spinecert-trimmed-*.drat")
 		if err != nil {
-			return nil, fmt.Errorf("archive: %w", err)
+			return Proof{}, Source{}, fmt.Errorf("archive: %w", err)
 		}
 		trimmed = tf.Name()
 		tf.Close()
 	}
-	sum, out, err := checkProofFile(ctx, checkAgainst, proofPath, in.Proof, format, trimmed, tmpDir)
+	sum, out, err := checkProofFile(ctx, checkAgainst, proofPath, path, format, trimmed, tmpDir)
 	if err != nil {
-		return nil, err
+		return Proof{}, Source{}, err
 	}
 	checker := CheckerDRAT
 	if format == "lrat" {
@@ -348,24 +377,22 @@ func checkAndStoreProof(ctx context.Context, r *Refutation, in *RefutationInput,
 	if trimmed != "" && out.Core < out.Lemmas {
 		// The trimmed proof is kept only if the same checkers accept it
 		// again, from scratch, and it is smaller.
-		tsum, tout, err := checkProofFile(ctx, checkAgainst, trimmed, in.Proof+" (trimmed)", format, "", tmpDir)
+		tsum, tout, err := checkProofFile(ctx, checkAgainst, trimmed, path+" (trimmed)", format, "", tmpDir)
 		if err == nil && tout.OK() {
 			if ts, ps := fileSize(trimmed), fileSize(proofPath); ts >= 0 && ts < ps {
 				p.TrimmedFrom = &TrimmedFrom{Format: format, Size: ps, SHA256: sum, Lemmas: out.Lemmas, CoreLemmas: out.Core}
 				proofPath, p.SHA256 = trimmed, tsum
 			}
 		} else if cerr := ctx.Err(); cerr != nil {
-			return nil, cerr
+			return Proof{}, Source{}, cerr
 		}
 	}
-	src, err := FileSource("proofs/refutation."+proofExt(format), proofPath)
+	src, err := FileSource(stem+"."+proofExt(format), proofPath)
 	if err != nil {
-		return nil, err
+		return Proof{}, Source{}, err
 	}
-	srcs = append(srcs, src)
 	p.Member, p.Size = src.Name, src.Size
-	r.Proofs = []Proof{p}
-	return srcs, nil
+	return p, src, nil
 }
 
 // checkProofFile checks the proof in path against cnf with

@@ -120,6 +120,11 @@ type Refutation struct {
 	CNF       CNFEntry       `json:"cnf"`
 	Runs      []Run          `json:"runs"`
 	Proofs    []Proof        `json:"proofs"`
+	// Cubes, when present, splits the refutation: every cube's proof
+	// refutes the CNF with the cube's literals as units, and the cubes
+	// cover every assignment; Runs and Proofs are then empty. Manifests
+	// with cubes are not read by spinecert versions before it.
+	Cubes *CubeSplit `json:"cubes,omitempty"`
 }
 
 // SubgraphEntry is the subgraph a refutation is about: an edge list member
@@ -437,38 +442,16 @@ func (m *Manifest) Validate() error {
 				bad("refutation.runs[%d]: backend, an answer (sat, unsat, unknown) and seconds >= 0 are required", i)
 			}
 		}
-		if len(r.Proofs) == 0 {
+		switch {
+		case r.Cubes == nil && len(r.Proofs) == 0:
 			bad("refutation.proofs is empty")
+		case r.Cubes != nil && (len(r.Proofs) > 0 || len(r.Runs) > 0):
+			bad("refutation.proofs and refutation.runs must be empty when the refutation is split into cubes")
+		case r.Cubes != nil:
+			validateCubes(r.Cubes, bad, name, func(f string, p Proof) { validateProof(f, p, bad, name) })
 		}
 		for i, p := range r.Proofs {
-			f := fmt.Sprintf("refutation.proofs[%d]", i)
-			name(f+".member", p.Member)
-			if !strings.HasPrefix(p.Member, "proofs/") {
-				bad("%s.member %q is not under proofs/", f, p.Member)
-			}
-			if !slices.Contains(formats, p.Format) {
-				bad("%s.format %q is not drat, drat-binary or lrat", f, p.Format)
-			}
-			if p.Size < 0 {
-				bad("%s.size is negative", f)
-			}
-			if !isHex64(p.SHA256) {
-				bad("%s.sha256 %q is not 64 lowercase hex digits", f, p.SHA256)
-			}
-			if p.ConvertedFrom != "" && (p.ConvertedFrom != "drat" || p.Format != "drat-binary") {
-				bad("%s.converted_from %q: only drat text converted to drat-binary is recorded", f, p.ConvertedFrom)
-			}
-			if t := p.TrimmedFrom; t != nil {
-				if p.Format != "drat-binary" || t.Format != "drat-binary" {
-					bad("%s.trimmed_from: only drat-binary trimmed to drat-binary is recorded", f)
-				}
-				if t.Size < 0 || !isHex64(t.SHA256) || t.Lemmas < 0 || t.CoreLemmas < 0 || t.CoreLemmas > t.Lemmas {
-					bad("%s.trimmed_from: size, sha256 (64 lowercase hex digits), lemmas and core_lemmas (at most lemmas) are required", f)
-				}
-			}
-			if p.Checker == "" || !slices.Contains(results, p.Result) {
-				bad("%s: checker and result (verified or rejected) are required", f)
-			}
+			validateProof(fmt.Sprintf("refutation.proofs[%d]", i), p, bad, name)
 		}
 	}
 	if p := m.Planarity; p != nil {
@@ -554,4 +537,35 @@ func (c Claim) Validate() error {
 		return fmt.Errorf("%w: %s", ErrBadClaim, strings.Join(p, "; "))
 	}
 	return nil
+}
+
+// validateProof applies the rules of a proof record named f.
+func validateProof(f string, p Proof, bad func(string, ...any), name func(string, string)) {
+	name(f+".member", p.Member)
+	if !strings.HasPrefix(p.Member, "proofs/") {
+		bad("%s.member %q is not under proofs/", f, p.Member)
+	}
+	if !slices.Contains(formats, p.Format) {
+		bad("%s.format %q is not drat, drat-binary or lrat", f, p.Format)
+	}
+	if p.Size < 0 {
+		bad("%s.size is negative", f)
+	}
+	if !isHex64(p.SHA256) {
+		bad("%s.sha256 %q is not 64 lowercase hex digits", f, p.SHA256)
+	}
+	if p.ConvertedFrom != "" && (p.ConvertedFrom != "drat" || p.Format != "drat-binary") {
+		bad("%s.converted_from %q: only drat text converted to drat-binary is recorded", f, p.ConvertedFrom)
+	}
+	if t := p.TrimmedFrom; t != nil {
+		if p.Format != "drat-binary" || t.Format != "drat-binary" {
+			bad("%s.trimmed_from: only drat-binary trimmed to drat-binary is recorded", f)
+		}
+		if t.Size < 0 || !isHex64(t.SHA256) || t.Lemmas < 0 || t.CoreLemmas < 0 || t.CoreLemmas > t.Lemmas {
+			bad("%s.trimmed_from: size, sha256 (64 lowercase hex digits), lemmas and core_lemmas (at most lemmas) are required", f)
+		}
+	}
+	if p.Checker == "" || !slices.Contains(results, p.Result) {
+		bad("%s: checker and result (verified or rejected) are required", f)
+	}
 }

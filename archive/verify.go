@@ -10,9 +10,11 @@ import (
 	"os"
 	"slices"
 	"strings"
+	"sync"
 	"time"
 
 	"spinecert.dev/cert"
+	"spinecert.dev/cube"
 	"spinecert.dev/dimacs"
 	"spinecert.dev/graph"
 	"spinecert.dev/planar/planarcert"
@@ -95,6 +97,9 @@ type VerifyOptions struct {
 	// refuted claim when the stored proof cannot establish it (the encoder
 	// drifted or the CNF is foreign); it decides the CNF and returns a proof.
 	Resolve func(ctx context.Context, cnf *dimacs.CNF) (*Resolution, error)
+	// Jobs is the number of proofs of a refutation by cubes checked at
+	// once (0 = 1); each waiting proof is copied to a file in TempDir.
+	Jobs int
 }
 
 // VerifyFile verifies the bundle at path (see Verify).
@@ -125,8 +130,10 @@ func Verify(ctx context.Context, r io.Reader, name string, opt VerifyOptions) *R
 	if opt.Limits == (Limits{}) {
 		opt.Limits = DefaultLimits()
 	}
-	v := &verifier{ctx: ctx, opt: opt, rep: &Report{Bundle: name}, files: map[string][]byte{}, outcomes: map[string]proof.Outcome{}}
+	v := &verifier{ctx: ctx, opt: opt, rep: &Report{Bundle: name}, files: map[string][]byte{}, outcomes: map[string]proof.Outcome{},
+		sem: make(chan struct{}, max(1, opt.Jobs))}
 	c, err := Walk(ctx, r, name, opt.Limits, v.member)
+	v.wg.Wait()
 	v.finish(c, err)
 	v.rep.Seconds = time.Since(start).Seconds()
 	return v.rep
@@ -148,6 +155,14 @@ type verifier struct {
 	stored   *dimacs.CNF // a CNF stored in the bundle, checked only for information
 	layoutOK bool
 	outcomes map[string]proof.Outcome // proof member -> outcome against target or stored
+
+	// A refutation by cubes.
+	cubes   []cube.Cube
+	cubeIdx map[string]int // proof member -> 0-based cube (-1: the coverage proof)
+	coverOK bool           // coverage established by shape, or by its proof (see finishCubes)
+	mu      sync.Mutex     // guards outcomes while cube proofs are checked in parallel
+	wg      sync.WaitGroup
+	sem     chan struct{}
 }
 
 func (v *verifier) member(m Member, r io.Reader) error {
@@ -171,6 +186,9 @@ func (v *verifier) member(m Member, r io.Reader) error {
 	v.prepare()
 	if v.m == nil || v.m.Refutation == nil {
 		return nil
+	}
+	if v.m.Refutation.Cubes != nil {
+		return v.cubeMember(m, r)
 	}
 	i := slices.IndexFunc(v.m.Refutation.Proofs, func(p Proof) bool { return p.Member == m.Name })
 	if i < 0 {
@@ -220,6 +238,9 @@ func (v *verifier) prepare() {
 	}
 	if m.Refutation != nil {
 		v.prepareRefutation()
+		if m.Refutation.Cubes != nil {
+			v.prepareCubes()
+		}
 	}
 	if m.Planarity != nil {
 		v.checkPlanarity()
@@ -593,6 +614,9 @@ func (v *verifier) finishProofs() bool {
 	r := v.m.Refutation
 	if r == nil || v.g == nil {
 		return false
+	}
+	if r.Cubes != nil {
+		return v.finishCubes()
 	}
 	established := false
 	for _, p := range r.Proofs {

@@ -43,7 +43,11 @@ type RunOptions struct {
 	// model (a model settles satisfiability; their answers are then not
 	// needed, at the price of not seeing a contradicting one).
 	StopOnModel bool
-	Progress    func(Event) // may be nil
+	// Sequential runs the backends one after another instead of at once
+	// (one CPU per task, as on a cluster); with StopOnModel the backends
+	// after a model are not run (their results say so).
+	Sequential bool
+	Progress   func(Event) // may be nil
 }
 
 // progress serialises calls to a Progress callback.
@@ -103,8 +107,12 @@ func RunAll(ctx context.Context, cnf *dimacs.CNF, solvers []Solver, opt RunOptio
 	results := make([]*Result, len(solvers))
 	var wg sync.WaitGroup
 	for i, s := range solvers {
+		if opt.Sequential && ctx.Err() != nil {
+			results[i] = &Result{Backend: s.Name(), Detail: "not run: " + stopReason(ctx, 0)}
+			continue
+		}
 		wg.Add(1)
-		go func() {
+		run := func() {
 			defer wg.Done()
 			proof := ""
 			if opt.ProofDir != "" {
@@ -121,7 +129,12 @@ func RunAll(ctx context.Context, cnf *dimacs.CNF, solvers []Solver, opt RunOptio
 			if r.Answer == Sat && opt.StopOnModel {
 				cancel()
 			}
-		}()
+		}
+		if opt.Sequential {
+			run()
+		} else {
+			go run()
+		}
 	}
 	wg.Wait()
 	return results, nil

@@ -21,6 +21,7 @@ type GraphOptions struct {
 	ProofDir    string
 	Policy      Policy
 	StopOnModel bool        // see RunOptions
+	Sequential  bool        // see RunOptions
 	AllProofs   bool        // check every proof, not only as many as Policy needs
 	Progress    func(Event) // may be nil
 	// Obstruction, when not nil, first looks for a small subgraph H with no
@@ -217,7 +218,7 @@ func (gv *GraphVerdict) runPolicy(ctx context.Context, cnf *dimacs.CNF, opt Grap
 	} else {
 		gv.ProofDir = dir
 	}
-	gv.Results, err = RunAll(ctx, cnf, opt.Solvers, RunOptions{Limit: opt.Limit, ProofDir: dir, StopOnModel: opt.StopOnModel, Progress: opt.Progress})
+	gv.Results, err = RunAll(ctx, cnf, opt.Solvers, RunOptions{Limit: opt.Limit, ProofDir: dir, StopOnModel: opt.StopOnModel, Sequential: opt.Sequential, Progress: opt.Progress})
 	if err != nil {
 		return err
 	}

@@ -43,7 +43,8 @@ var allowed = map[string][]string{
 	"cube":              {"dimacs", "textpos"},
 	"verify":            {"graph", "cert", "dimacs", "proof"},
 	"pagenumber":        {"graph", "cert", "dimacs", "planar", "planar/planarcert", "toughcert", "heuristic", "proof", "verify"},
-	"archive":           {"graph", "cert", "dimacs", "planar/planarcert", "proof", "textpos"},
+	"archive":           {"graph", "cert", "cube", "dimacs", "planar/planarcert", "proof", "textpos"},
+	"cubejob":           {"graph", "cert", "cube", "dimacs", "proof", "verify", "archive", "textpos"},
 	"evidence":          {"graph", "cert", "dimacs", "planar", "planar/planarcert", "verify", "pagenumber", "archive"},
 }
 

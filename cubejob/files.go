@@ -1,0 +1,84 @@
+package cubejob
+
+import (
+	"crypto/sha256"
+	"encoding/hex"
+	"fmt"
+	"io"
+	"os"
+	"path/filepath"
+)
+
+// Names of the files of a work directory.
+const (
+	JobFile      = "job.json"     // the job manifest, written last
+	GraphFile    = "graph.txt"    // the claim's graph, spinecert's canonical edge list
+	SubgraphFile = "subgraph.txt" // the subgraph the CNF encodes, when there is one
+	CNFFile      = "formula.cnf"  // the CNF all cubes split
+	CubesFile    = "cubes.txt"    // the cubes, "a LIT … 0" per line
+	ResultsDir   = "results"      // one finished result per cube
+	FailuresDir  = "failures"     // the last failed attempt per cube, for --status
+	TmpDir       = "tmp"          // per-task scratch directories
+	SlurmDir     = "slurm"        // submissions, array scripts and task logs
+	RefutedFile  = "refuted.json" // a satisfiable cube: the claim is refuted
+	LayoutFile   = "layout.json"  // the layout decoded from that cube's model
+	mode         = os.FileMode(0o644)
+)
+
+// writeAtomic writes data to path through a temporary file in the same
+// directory that is synced and renamed over path, so a reader (or a task
+// killed half way) never sees part of it.
+func writeAtomic(path string, data []byte) error {
+	return writeAtomicFunc(path, func(w io.Writer) error {
+		_, err := w.Write(data)
+		return err
+	})
+}
+
+func writeAtomicFunc(path string, write func(io.Writer) error) (err error) {
+	f, err := os.CreateTemp(filepath.Dir(path), "."+filepath.Base(path)+".tmp-*")
+	if err != nil {
+		return fmt.Errorf("cubejob: %w", err)
+	}
+	defer func() {
+		if err != nil {
+			f.Close()
+			os.Remove(f.Name())
+		}
+	}()
+	if err = write(f); err != nil {
+		return fmt.Errorf("cubejob: writing %s: %w", path, err)
+	}
+	if err = f.Chmod(mode); err != nil {
+		return fmt.Errorf("cubejob: %w", err)
+	}
+	if err = f.Sync(); err != nil {
+		return fmt.Errorf("cubejob: %w", err)
+	}
+	if err = f.Close(); err != nil {
+		return fmt.Errorf("cubejob: %w", err)
+	}
+	if err = os.Rename(f.Name(), path); err != nil {
+		return fmt.Errorf("cubejob: %w", err)
+	}
+	return nil
+}
+
+func sha(data []byte) string {
+	h := sha256.Sum256(data)
+	return hex.EncodeToString(h[:])
+}
+
+func hashFile(path string) (string, int64, error) {
+	f, err := os.Open(path)
+	if err != nil {
+		return "", 0, err
+	}
+	defer f.Close()
+	h := sha256.New()
+	n, err := io.Copy(h, f)
+	if err != nil {
+		return "", 0, err
+	}
+	return hex.EncodeToString(h.Sum(nil)), n, nil
+}

@@ -74,7 +74,7 @@ func (w *Work) Evidence(ctx context.Context, opt GatherOptions) (*archive.Eviden
 		}
 		var unsat []string
 		for _, run := range r.Runs {
-			if run.Answer == verify.Unsat.String() && !slices.Contains(unsat, run.Backend) {
+			if run.Answer == strings.ToLower(verify.Unsat.String()) && !slices.Contains(unsat, run.Backend) {
 				unsat = append(unsat, run.Backend)
 			}
 		}
@@ -144,4 +144,30 @@ func (w *Work) Evidence(ctx context.Context, opt GatherOptions) (*archive.Eviden
 		Refutation: &archive.RefutationInput{Options: opts, Subgraph: w.Subgraph, Cubes: in},
 	}
 	return ev, cleanup, nil
+}
+
+// Bundle checks the work directory (Evidence), has archive.Build check
+// every proof again, and writes the bundle to out atomically. Nothing is
+// written unless every check passed.
+func (w *Work) Bundle(ctx context.Context, out string, opt GatherOptions, toolVersion string) (*archive.Manifest, error) {
+	tmp, err := os.MkdirTemp(opt.TempDir, "spinecert-gather-")
+	if err != nil {
+		return nil, fmt.Errorf("cubejob: %w", err)
+	}
+	defer os.RemoveAll(tmp)
+	opt.TempDir = tmp
+	ev, cleanup, err := w.Evidence(ctx, opt)
+	defer cleanup()
+	if err != nil {
+		return nil, err
+	}
+	ev.ToolVersion, ev.Tool = toolVersion, "spinecert gather"
+	m, srcs, err := archive.Build(ctx, ev, archive.CurrentEncoder{}, tmp)
+	if err != nil {
+		return nil, err
+	}
+	if err := archive.WriteFile(ctx, out, srcs); err != nil {
+		return nil, err
+	}
+	return m, nil
 }

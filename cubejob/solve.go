@@ -9,6 +9,7 @@ import (
 	"os"
 	"path/filepath"
 	"slices"
+	"strings"
 	"time"
 
 	"spinecert.dev/archive"
@@ -124,7 +125,7 @@ func (w *Work) SolveCube(ctx context.Context, i int, opt SolveOptions) (Outcome,
 		Proof:       ProofFile{File: proofName, Backend: check.Backend, Format: check.Format, Size: size, SHA256: sum, Lemmas: check.Lemmas, Core: check.Core},
 		WallSeconds: time.Since(start).Seconds(), Host: host, Task: opt.Task}
 	for _, x := range gv.Results {
-		r.Runs = append(r.Runs, archive.Run{Backend: x.Backend, Version: x.Version, Answer: x.Answer.String()})
+		r.Runs = append(r.Runs, archive.Run{Backend: x.Backend, Version: x.Version, Answer: strings.ToLower(x.Answer.String())})
 		r.CPUSeconds += cpuOf(x).Seconds()
 	}
 	data, err := json.MarshalIndent(r, "", "  ")

@@ -150,7 +150,6 @@ if [ "$restart" -eq 1 ] || [ -n "${restart_munge:-}" ] || ! alive "$munge_pid" m
 	# munged refuses to run as root without --force; run it as its own user.
 	runuser -u munge -- munged || fail "munged did not start"
 	for ((i = 0; i < 50; i++)); do munge_ok && break; sleep 0.1; done
-	munge_restarted=1
 fi
 munge_ok || fail "munge -n | unmunge does not work"
 
@@ -170,8 +169,8 @@ cleanup() { rm -f "$new_conf"; [ -z "$smoke_dir" ] || rm -rf "$smoke_dir"; }
 trap cleanup EXIT
 
 cat >"$new_conf" <<EOF
-$marker for a single-node test cluster; it rewrites
-# this file whenever the host, CPU count or memory changes.
+$marker for a single-node test cluster; each run
+# rewrites this file (and restarts the daemons) if it differs.
 ClusterName=spine
 # Everything talks over the loopback address, whatever the host name resolves to.
 SlurmctldHost=$host(127.0.0.1)
@@ -230,9 +229,9 @@ if ! cmp -s "$new_conf" "$conf"; then
 fi
 
 # --------------------------------------------------------- slurm daemons
-# Restart both daemons when the configuration changed or munged was restarted
-# (their munge connections would be stale), or when asked to.
-if [ "$conf_changed" -eq 1 ] || [ -n "${munge_restarted:-}" ] || [ "$restart" -eq 1 ]; then
+# Restart both daemons when the configuration or the munge key changed, or
+# when asked to. (A restarted munged with the same key needs nothing more.)
+if [ "$conf_changed" -eq 1 ] || [ -n "${restart_munge:-}" ] || [ "$restart" -eq 1 ]; then
 	stop slurmd "$slurmd_pid"
 	stop slurmctld "$ctld_pid"
 fi
@@ -330,4 +329,10 @@ EOF
 	fi
 fi
 
-say "node $host $(node_state), partition $partition, $cpus CPUs"
+# The smoke tasks may leave the node "completing" for a moment.
+for ((i = 0; i < 25; i++)); do
+	state=$(node_state)
+	[ "$state" = completing ] || break
+	sleep 0.2
+done
+say "node $host $state, partition $partition, $cpus CPUs"

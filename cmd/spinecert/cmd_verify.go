@@ -60,7 +60,7 @@ read at all.`,
 		},
 	}
 	o.solver.add(cmd)
-	cmd.Flags().IntVar(&o.jobs, "jobs", 0, "bundles checked at the same time (0 = one per CPU)")
+	cmd.Flags().IntVar(&o.jobs, "jobs", 0, "bundles, or proofs of a bundle split into cubes, checked at the same time (0 = one per CPU)")
 	cmd.Flags().BoolVar(&o.json, "json", false, "print one JSON object on stdout")
 	cmd.Flags().StringVar(&o.junit, "junit", "", "also write a JUnit XML report to FILE")
 	cmd.Flags().BoolVar(&o.resolve, "resolve", false, "when the encoder drifted, re-solve the current encoding to re-establish the claim")
@@ -90,6 +90,9 @@ func runVerify(cmd *cobra.Command, o *verifyOptions) error {
 	if jobs == 0 {
 		jobs = runtime.NumCPU()
 	}
+	// Several bundles share the jobs; one bundle split into cubes checks
+	// its cube proofs that many at a time.
+	opt.Jobs = max(1, jobs/len(o.bundles))
 	jobs = min(jobs, len(o.bundles))
 	reports := make([]*archive.Report, len(o.bundles))
 	next := make(chan int)

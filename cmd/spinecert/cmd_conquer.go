@@ -1,0 +1,282 @@
+package main
+
+import (
+	"errors"
+	"fmt"
+	"io"
+	"os"
+	"runtime"
+	"strings"
+	"time"
+
+	"github.com/spf13/cobra"
+
+	"spinecert.dev/cubejob"
+)
+
+type conquerOptions struct {
+	solver     solveSolverFlags
+	local      bool
+	jobs       int
+	slurm      bool
+	partition  string
+	timeLimit  string
+	mem        string
+	cpus       int
+	sbatchArgs []string
+	perTask    int
+	maxRunning int
+	wait       bool
+	status     bool
+	json       bool
+	arrayTask  int
+	submission int
+	dir        string
+}
+
+func newConquerCmd() *cobra.Command {
+	var o conquerOptions
+	cmd := &cobra.Command{
+		Use:   "conquer DIR [--local --jobs N | --slurm ...] [--status]",
+		Short: "Decide every cube of a work directory, here or as a Slurm job array",
+		Long: `Decide the cubes of a work directory made by "spinecert split". Each cube
+is decided as the CNF with the cube's literals as units, under the same
+policy as solve: UNSAT from two independent backends and a proof accepted
+by spinecert's DRAT checker and the LRAT re-check. Its result (the runs and
+that proof) is written atomically, after the checks passed; a cube with
+such a result is done and is never run again.
+
+--local (the default) runs the cubes on this machine, --jobs at a time (each
+cube's backends run one after another, so a cube uses one CPU). --slurm
+submits the cubes without a result as one Slurm job array with sbatch; each
+array task runs spinecert on its slice of cubes (--cubes-per-task) in the
+shared work directory. Re-running conquer after a time-out, a killed task or
+a failed node runs only the cubes without a result; while a job of the
+directory is still queued, --slurm refuses to submit again.
+
+A satisfiable cube ends the job: its model is decoded into a layout, checked
+directly, and written to DIR/layout.json; the claim is refuted (exit 1) and
+the other cubes are cancelled.
+
+--status shows the cubes done, running, queued and remaining, from the work
+directory and (when jobs were submitted) squeue.`,
+		Args: cobra.ExactArgs(1),
+		PreRunE: func(cmd *cobra.Command, args []string) error {
+			switch {
+			case o.local && o.slurm:
+				return usageErr(fmt.Errorf("give --local or --slurm, not both"))
+			case o.jobs < 0:
+				return usageErr(fmt.Errorf("--jobs must not be negative, got %d", o.jobs))
+			case o.perTask < 1:
+				return usageErr(fmt.Errorf("--cubes-per-task must be at least 1, got %d", o.perTask))
+			case o.cpus < 0 || o.maxRunning < 0:
+				return usageErr(fmt.Errorf("--cpus-per-task and --max-running must not be negative"))
+			case o.wait && !o.slurm:
+				return usageErr(fmt.Errorf("--wait goes with --slurm"))
+			case o.json && !o.status:
+				return usageErr(fmt.Errorf("--json goes with --status"))
+			case cmd.Flags().Changed("array-task") != cmd.Flags().Changed("submission"):
+				return usageErr(fmt.Errorf("--array-task and --submission go together"))
+			}
+			if !o.slurm {
+				for _, f := range []string{"partition", "time", "mem", "cpus-per-task", "sbatch-arg", "cubes-per-task", "max-running"} {
+					if cmd.Flags().Changed(f) {
+						return usageErr(fmt.Errorf("--%s goes with --slurm", f))
+					}
+				}
+			}
+			_, err := o.solver.build()
+			return err
+		},
+		RunE: func(cmd *cobra.Command, args []string) error {
+			o.dir = args[0]
+			return runConquer(cmd, &o)
+		},
+	}
+	o.solver.add(cmd)
+	fl := cmd.Flags()
+	fl.BoolVar(&o.local, "local", false, "run the cubes on this machine (the default)")
+	fl.IntVar(&o.jobs, "jobs", 0, "--local: cubes decided at the same time (0 = one per CPU)")
+	fl.BoolVar(&o.slurm, "slurm", false, "submit the cubes as one Slurm job array (sbatch)")
+	fl.StringVar(&o.partition, "partition", "", "--slurm: the partition (default: the cluster's)")
+	fl.StringVar(&o.timeLimit, "time", "", "--slurm: time limit of each array task, as sbatch --time takes it")
+	fl.StringVar(&o.mem, "mem", "", "--slurm: memory of each array task, as sbatch --mem takes it")
+	fl.IntVar(&o.cpus, "cpus-per-task", 0, "--slurm: CPUs of each array task")
+	fl.StringArrayVar(&o.sbatchArgs, "sbatch-arg", nil, "--slurm: one more sbatch argument (repeatable)")
+	fl.IntVar(&o.perTask, "cubes-per-task", 1, "--slurm: cubes each array task decides")
+	fl.IntVar(&o.maxRunning, "max-running", 0, "--slurm: array tasks running at once (0 = as the scheduler allows)")
+	fl.BoolVar(&o.wait, "wait", false, "--slurm: wait until the job array has left the queue, then show the status")
+	fl.BoolVar(&o.status, "status", false, "show the cubes done, running, queued and remaining, and do nothing else")
+	fl.BoolVar(&o.json, "json", false, "--status: print one JSON object")
+	fl.IntVar(&o.arrayTask, "array-task", 0, "run one array task of a submission (used by the job array)")
+	fl.IntVar(&o.submission, "submission", 0, "the submission of --array-task")
+	_ = fl.MarkHidden("array-task")
+	_ = fl.MarkHidden("submission")
+	return cmd
+}
+
+func runConquer(cmd *cobra.Command, o *conquerOptions) error {
+	ctx := cmd.Context()
+	w, err := cubejob.Open(o.dir)
+	if err != nil {
+		return usageErr(err)
+	}
+	out := cmd.OutOrStdout()
+	if o.status {
+		return conquerStatus(cmd, w, o)
+	}
+	solvers, err := o.solver.build()
+	if err != nil {
+		return err
+	}
+	sopt := cubejob.SolveOptions{Solvers: solvers, Limit: o.solver.timeLimit, Task: "local"}
+	report := func(e cubejob.Event) {
+		switch e.Outcome {
+		case cubejob.Done:
+			fmt.Fprintf(out, "cube %d: refuted, proof checked\n", e.Cube+1)
+		case cubejob.Failed:
+			fmt.Fprintf(out, "cube %d: undecided: %s\n", e.Cube+1, e.Detail)
+		}
+	}
+	if cmd.Flags().Changed("array-task") {
+		sopt.Task = fmt.Sprintf("slurm %s_%s", os.Getenv("SLURM_ARRAY_JOB_ID"), os.Getenv("SLURM_ARRAY_TASK_ID"))
+		sum, err := w.ArrayTask(ctx, o.submission, o.arrayTask, sopt, report)
+		return conquerEnd(ctx, out, w, sum, err, false)
+	}
+	if o.slurm {
+		return conquerSlurm(cmd, w, o)
+	}
+	jobs := o.jobs
+	if jobs == 0 {
+		jobs = runtime.NumCPU()
+	}
+	rem := w.Remaining()
+	fmt.Fprintf(out, "%d of %d cubes to decide, %d at a time\n", len(rem), len(w.Cubes), jobs)
+	sum, err := w.RunCubes(ctx, rem, jobs, sopt, report)
+	return conquerEnd(ctx, out, w, sum, err, true)
+}
+
+// conquerEnd prints the outcome of a run of cubes and maps it to the exit status.
+func conquerEnd(ctx contextT, out io.Writer, w *cubejob.Work, sum cubejob.Summary, err error, hint bool) error {
+	if ierr := interruption(ctx); ierr != nil {
+		fmt.Fprintf(out, "interrupted: %d cubes done in this run; the others run again at the next conquer\n", sum.Done)
+		return ierr
+	}
+	if err != nil {
+		return err
+	}
+	switch {
+	case errors.Is(sum.Refuted, cubejob.ErrRefuted):
+		fmt.Fprintf(out, "the claim is refuted: %v\n", sum.Refuted)
+		return refuted(nil)
+	case sum.Refuted != nil:
+		return undecided(sum.Refuted)
+	}
+	left := len(w.Remaining())
+	fmt.Fprintf(out, "%d cubes done in this run, %d undecided; %d of %d cubes remain\n", sum.Done, sum.Failed, left, len(w.Cubes))
+	if left > 0 {
+		return undecided(fmt.Errorf("%d cubes without a result: run conquer again (a larger --time-limit may help)", left))
+	}
+	if hint {
+		fmt.Fprintf(out, "every cube is refuted; next: spinecert gather %s -o NAME%s\n", w.Dir, ".spinecert.tar.zst")
+	}
+	return nil
+}
+
+func conquerSlurm(cmd *cobra.Command, w *cubejob.Work, o *conquerOptions) error {
+	ctx := cmd.Context()
+	out := cmd.OutOrStdout()
+	exe, err := os.Executable()
+	if err != nil {
+		return fmt.Errorf("conquer: the path of spinecert: %w", err)
+	}
+	taskArgs := []string{"--solvers", o.solver.solvers, "--time-limit", o.solver.timeLimit.String()}
+	for _, c := range o.solver.solverCmd {
+		taskArgs = append(taskArgs, "--solver-cmd", c)
+	}
+	s, err := w.Submit(ctx, cubejob.SlurmOptions{Partition: o.partition, Time: o.timeLimit, Mem: o.mem, CPUsPerTask: o.cpus,
+		Extra: o.sbatchArgs, PerTask: o.perTask, MaxRunning: o.maxRunning, Executable: exe, TaskArgs: taskArgs})
+	switch {
+	case errors.Is(err, cubejob.ErrRefuted):
+		fmt.Fprintf(out, "the claim is refuted: %v\n", err)
+		return refuted(nil)
+	case errors.Is(err, cubejob.ErrBusy):
+		return undecided(err)
+	case err != nil:
+		return err
+	case s == nil:
+		fmt.Fprintf(out, "every cube already has a result; next: spinecert gather %s -o NAME.spinecert.tar.zst\n", w.Dir)
+		return nil
+	}
+	fmt.Fprintf(out, "submitted job %s: %d array tasks for %d cubes (submission %d)\n", s.SlurmID, s.Tasks(), len(s.Cubes), s.Seq)
+	if !o.wait {
+		fmt.Fprintf(out, "follow it with: spinecert conquer %s --status\n", w.Dir)
+		return nil
+	}
+	for {
+		states, err := w.Queue(ctx, []*cubejob.Submission{s}, "")
+		if err != nil {
+			return err
+		}
+		if len(states) == 0 {
+			break
+		}
+		select {
+		case <-ctx.Done():
+			fmt.Fprintf(out, "interrupted while waiting; job %s goes on (scancel %s stops it)\n", s.SlurmID, s.SlurmID)
+			return interruption(ctx)
+		case <-time.After(time.Second):
+		}
+	}
+	return conquerStatus(cmd, w, o)
+}
+
+// conquerStatusJSON is the --status --json output.
+type conquerStatusJSON struct {
+	Dir        string   `json:"dir"`
+	Total      int      `json:"total"`
+	Done       int      `json:"done"`
+	Running    int      `json:"running"`
+	Queued     int      `json:"queued"`
+	Remaining  int      `json:"remaining"`
+	Failed     int      `json:"failed"`
+	Refuted    bool     `json:"refuted"`
+	CPUSeconds float64  `json:"cpu_seconds"`
+	Tasks      []string `json:"tasks,omitempty"`
+	Queue      string   `json:"queue_error,omitempty"`
+}
+
+func conquerStatus(cmd *cobra.Command, w *cubejob.Work, o *conquerOptions) error {
+	out := cmd.OutOrStdout()
+	st := w.Status(cmd.Context(), "")
+	if o.json {
+		j := conquerStatusJSON{Dir: w.Dir, Total: st.Total, Done: st.Done, Running: st.Running, Queued: st.Queued,
+			Remaining: st.Remaining, Failed: st.Failed, Refuted: st.Refuted != nil, CPUSeconds: st.CPU}
+		for _, t := range st.Tasks {
+			j.Tasks = append(j.Tasks, t.ID+" "+t.State)
+		}
+		if st.QueueErr != nil {
+			j.Queue = st.QueueErr.Error()
+		}
+		return writeJSON(out, j)
+	}
+	fmt.Fprintf(out, "%s: %d cubes of the claim: %s has no %d-page %s layout\n", w.Dir, st.Total, shortID(w.Job.Claim.GraphID), w.Job.Claim.Pages, w.Job.Claim.Kind)
+	fmt.Fprintf(out, "done %d, running %d, queued %d, remaining %d (undecided at the last attempt: %d)\n", st.Done, st.Running, st.Queued, st.Remaining, st.Failed)
+	if st.Done > 0 {
+		fmt.Fprintf(out, "solver CPU time of the done cubes: %.1f s\n", st.CPU)
+	}
+	if st.Refuted != nil {
+		fmt.Fprintf(out, "cube %d is satisfiable: a %d-page layout is in %s (checked when it was found)\n", st.Refuted.Cube, st.Refuted.Pages, w.Dir+"/"+st.Refuted.Layout)
+	}
+	if len(st.Tasks) > 0 {
+		var parts []string
+		for _, t := range st.Tasks {
+			parts = append(parts, t.ID+" "+strings.ToLower(t.State))
+		}
+		fmt.Fprintf(out, "in the queue: %s\n", strings.Join(parts, ", "))
+	}
+	if st.QueueErr != nil {
+		fmt.Fprintf(out, "the queue could not be read: %v\n", st.QueueErr)
+	}
+	return nil
+}

@@ -1,0 +1,168 @@
+package main
+
+import (
+	"fmt"
+	"os"
+	"strings"
+
+	"github.com/spf13/cobra"
+
+	"spinecert.dev/cube"
+	"spinecert.dev/cubejob"
+	"spinecert.dev/graph"
+	"spinecert.dev/verify"
+)
+
+type splitOptions struct {
+	graph    graphFlags
+	claim    encodeClaimFlags
+	solver   solveSolverFlags
+	cubes    int
+	depth    int
+	rule     string
+	cands    int
+	cubeFile string
+	out      string
+	name     string
+	input    string
+}
+
+func newSplitCmd() *cobra.Command {
+	var o splitOptions
+	cmd := &cobra.Command{
+		Use:   "split GRAPH --pages K (--cubes N | --depth D | --cube-file FILE) -o DIR",
+		Short: "Split a claim into cubes in a work directory, for conquer and gather",
+		Long: `Split the claim "GRAPH has no K-page layout" into cubes and write a work
+directory: the graph, the CNF (spinecert's encoding, as encode writes it),
+the cubes (one "a LIT … 0" line each), and job.json, which records the
+claim, the encoder and options, and the SHA-256 of every file.
+
+The cubes are the leaves of a complete binary decision tree grown by a split
+rule (--rule lookahead: the variable whose two branches propagate most;
+occurrence: the most frequent free variable), so they are disjoint and cover
+every assignment by shape. --cube-file takes cubes made elsewhere; they must
+be pairwise disjoint, and their coverage is proved at gather time.
+
+With --subgraph (auto for graphs of more than 100 vertices) the claim is
+first narrowed to a small subgraph with no layout (as solve does); the job
+then refutes the subgraph, and so the graph.
+
+Then run "spinecert conquer DIR" (on this machine or on Slurm) and
+"spinecert gather DIR -o NAME" for one bundle that verify re-checks.`,
+		Args: cobra.ExactArgs(1),
+		PreRunE: func(cmd *cobra.Command, args []string) error {
+			set := 0
+			for _, f := range []string{"cubes", "depth", "cube-file"} {
+				if cmd.Flags().Changed(f) {
+					set++
+				}
+			}
+			switch {
+			case set != 1:
+				return usageErr(fmt.Errorf("give exactly one of --cubes N, --depth D and --cube-file FILE"))
+			case cmd.Flags().Changed("cubes") && (o.cubes < 1 || o.cubes > cube.MaxCubes):
+				return usageErr(fmt.Errorf("--cubes must be between 1 and %d, got %d", cube.MaxCubes, o.cubes))
+			case cmd.Flags().Changed("depth") && (o.depth < 0 || o.depth > 20):
+				return usageErr(fmt.Errorf("--depth must be between 0 and 20, got %d", o.depth))
+			case o.out == "":
+				return usageErr(fmt.Errorf("-o DIR is required"))
+			case o.rule != cube.RuleLookahead && o.rule != cube.RuleOccurrence:
+				return usageErr(fmt.Errorf("--rule %q: expected %s", o.rule, strings.Join(cube.Rules, " or ")))
+			case o.cands < 1:
+				return usageErr(fmt.Errorf("--candidates must be at least 1"))
+			}
+			if _, err := o.claim.options(cmd); err != nil {
+				return err
+			}
+			_, err := o.solver.build()
+			return err
+		},
+		RunE: func(cmd *cobra.Command, args []string) error {
+			o.input = args[0]
+			return runSplit(cmd, &o)
+		},
+	}
+	o.graph.add(cmd)
+	o.claim.add(cmd)
+	o.solver.add(cmd)
+	fl := cmd.Flags()
+	fl.IntVar(&o.cubes, "cubes", 0, "number of cubes")
+	fl.IntVar(&o.depth, "depth", 0, "depth of the decision tree: 2^D cubes")
+	fl.StringVar(&o.rule, "rule", cube.RuleLookahead, "split rule: "+strings.Join(cube.Rules, " or "))
+	fl.IntVar(&o.cands, "candidates", 32, "lookahead: variables scored at each node")
+	fl.StringVar(&o.cubeFile, "cube-file", "", `cubes made elsewhere ("a LIT … 0" per line) instead of a split`)
+	fl.StringVarP(&o.out, "output", "o", "", "the work directory to create (must not exist, or be empty)")
+	fl.StringVar(&o.name, "name", "", "a label of the graph for people (recorded, not checked)")
+	return cmd
+}
+
+func runSplit(cmd *cobra.Command, o *splitOptions) error {
+	ctx := cmd.Context()
+	g, err := o.graph.load(cmd, o.input)
+	if err != nil {
+		return err
+	}
+	opts, err := o.claim.options(cmd)
+	if err != nil {
+		return err
+	}
+	if opts.Kind.String() == "mixed" {
+		return usageErr(fmt.Errorf("split: --kind mixed is not supported; split stack or queue claims"))
+	}
+	copt := cubejob.CreateOptions{Graph: g, Name: o.name, Encoding: opts, ToolVersion: version,
+		Split: cube.SplitOptions{Cubes: o.cubes, Rule: o.rule, Candidates: o.cands}}
+	if cmd.Flags().Changed("depth") {
+		copt.Split.Cubes = 1 << o.depth
+	}
+	if o.cubeFile != "" {
+		if copt.Cubes, err = cube.ReadFile(o.cubeFile, cube.ReadOptions{}); err != nil {
+			return usageErr(err)
+		}
+	}
+	solvers, err := o.solver.build()
+	if err != nil {
+		return err
+	}
+	if obs := o.solver.obstruction(g, solvers); obs != nil {
+		ob, err := verify.FindObstruction(ctx, g, opts, *obs)
+		if err != nil {
+			if ierr := interruption(ctx); ierr != nil {
+				return ierr
+			}
+			return err
+		}
+		if ob != nil && ob.Graph != nil && ob.Graph.N() < g.N() {
+			if err := graph.CheckSubgraph(ob.Graph, g); err != nil {
+				return err
+			}
+			copt.Subgraph = ob.Graph
+		}
+	}
+	w, stats, err := cubejob.Create(ctx, o.out, copt)
+	if err != nil {
+		if ierr := interruption(ctx); ierr != nil {
+			os.RemoveAll(o.out)
+			return ierr
+		}
+		return usageErr(err)
+	}
+	out := cmd.OutOrStdout()
+	fmt.Fprintf(out, "work directory %s: %d cubes (%s, %s) of the claim: %s has no %d-page %s layout\n",
+		o.out, len(w.Cubes), w.Job.Cubes.Rule, w.Job.Cubes.Shape, shortID(g.ID()), opts.Pages, opts.Kind)
+	if w.Subgraph != nil {
+		fmt.Fprintf(out, "the CNF encodes a subgraph with no layout found by the quick solver: n=%d, m=%d of n=%d, m=%d\n", w.Subgraph.N(), w.Subgraph.M(), g.N(), g.M())
+	}
+	fmt.Fprintf(out, "CNF: %d variables, %d clauses (SHA-256 %s)\n", w.CNF.Vars, len(w.CNF.Clauses), w.Job.CNF.SHA256)
+	if stats != nil {
+		fmt.Fprintf(out, "split: depth up to %d, %d cubes already refuted by unit propagation\n", stats.MaxDepth, stats.Closed)
+	}
+	fmt.Fprintf(out, "next: spinecert conquer %s\n", o.out)
+	return nil
+}
+
+func shortID(id string) string {
+	if len(id) > 12 {
+		return id[:12]
+	}
+	return id
+}

@@ -101,27 +101,24 @@ func (w *Work) Queue(ctx context.Context, subs []*Submission, squeue string) ([]
 	if squeue == "" {
 		squeue = "squeue"
 	}
-	var ids []string
-	for _, s := range subs {
-		if s.SlurmID != "" {
-			ids = append(ids, s.SlurmID)
-		}
-	}
-	if len(ids) == 0 {
-		return nil, nil
-	}
-	out, err := exec.CommandContext(ctx, squeue, "-h", "-r", "-j", strings.Join(ids, ","), "-o", "%i %T").Output()
-	if err != nil {
-		var ee *exec.ExitError
-		if errors.As(err, &ee) && strings.Contains(string(ee.Stderr), "Invalid job id") {
-			return nil, nil // every job has left the queue
-		}
-		return nil, fmt.Errorf("cubejob: %s: %w", squeue, err)
-	}
 	var states []TaskState
-	for _, line := range strings.Split(strings.TrimSpace(string(out)), "\n") {
-		if f := strings.Fields(line); len(f) == 2 {
-			states = append(states, TaskState{ID: f[0], State: f[1]})
+	for _, s := range subs {
+		if s.SlurmID == "" {
+			continue
+		}
+		// One job at a time: squeue fails for a job that has left the queue.
+		out, err := exec.CommandContext(ctx, squeue, "-h", "-r", "-j", s.SlurmID, "-o", "%i %T").Output()
+		if err != nil {
+			var ee *exec.ExitError
+			if errors.As(err, &ee) && strings.Contains(string(ee.Stderr), "Invalid job id") {
+				continue // the job has left the queue
+			}
+			return nil, fmt.Errorf("cubejob: %s: %w", squeue, err)
+		}
+		for _, line := range strings.Split(strings.TrimSpace(string(out)), "\n") {
+			if f := strings.Fields(line); len(f) == 2 {
+				states = append(states, TaskState{ID: f[0], State: f[1]})
+			}
 		}
 	}
 	return states, nil

@@ -149,7 +149,9 @@ func cpuOf(r *verify.Result) time.Duration {
 }
 
 func (w *Work) storeLayout(i int, v *verify.Verdict, opt SolveOptions) (Outcome, string, error) {
-	l, err := w.Encoding.Decode(v.Model)
+	model := make([]bool, len(v.Model)+1) // the encoder counts variables from 1
+	copy(model[1:], v.Model)
+	l, err := w.Encoding.Decode(model)
 	if err != nil {
 		return Failed, "", fmt.Errorf("cubejob: cube %d: the model of %s does not decode to a layout: %w", i+1, v.ModelFrom, err)
 	}

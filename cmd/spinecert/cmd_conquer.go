@@ -11,6 +11,7 @@ import (
 
 	"github.com/spf13/cobra"
 
+	"spinecert.dev/archive"
 	"spinecert.dev/cubejob"
 )
 
@@ -135,13 +136,13 @@ func runConquer(cmd *cobra.Command, o *conquerOptions) error {
 		case cubejob.Done:
 			fmt.Fprintf(out, "cube %d: refuted, proof checked\n", e.Cube+1)
 		case cubejob.Failed:
-			fmt.Fprintf(out, "cube %d: undecided: %s\n", e.Cube+1, e.Detail)
+			fmt.Fprintf(out, "cube %d: %s\n", e.Cube+1, e.Detail)
 		}
 	}
 	if cmd.Flags().Changed("array-task") {
 		sopt.Task = fmt.Sprintf("slurm %s_%s", os.Getenv("SLURM_ARRAY_JOB_ID"), os.Getenv("SLURM_ARRAY_TASK_ID"))
 		sum, err := w.ArrayTask(ctx, o.submission, o.arrayTask, sopt, report)
-		return conquerEnd(ctx, out, w, sum, err, false)
+		return conquerEnd(ctx, out, w, sum, err, true)
 	}
 	if o.slurm {
 		return conquerSlurm(cmd, w, o)
@@ -153,11 +154,11 @@ func runConquer(cmd *cobra.Command, o *conquerOptions) error {
 	rem := w.Remaining()
 	fmt.Fprintf(out, "%d of %d cubes to decide, %d at a time\n", len(rem), len(w.Cubes), jobs)
 	sum, err := w.RunCubes(ctx, rem, jobs, sopt, report)
-	return conquerEnd(ctx, out, w, sum, err, true)
+	return conquerEnd(ctx, out, w, sum, err, false)
 }
 
 // conquerEnd prints the outcome of a run of cubes and maps it to the exit status.
-func conquerEnd(ctx contextT, out io.Writer, w *cubejob.Work, sum cubejob.Summary, err error, hint bool) error {
+func conquerEnd(ctx contextT, out io.Writer, w *cubejob.Work, sum cubejob.Summary, err error, task bool) error {
 	if ierr := interruption(ctx); ierr != nil {
 		fmt.Fprintf(out, "interrupted: %d cubes done in this run; the others run again at the next conquer\n", sum.Done)
 		return ierr
@@ -172,14 +173,19 @@ func conquerEnd(ctx contextT, out io.Writer, w *cubejob.Work, sum cubejob.Summar
 	case sum.Refuted != nil:
 		return undecided(sum.Refuted)
 	}
+	if task {
+		fmt.Fprintf(out, "this array task: %d cubes done, %d already done before, %d undecided\n", sum.Done, sum.Skipped, sum.Failed)
+		if sum.Failed > 0 {
+			return undecided(fmt.Errorf("%d cubes of this array task are undecided", sum.Failed))
+		}
+		return nil
+	}
 	left := len(w.Remaining())
 	fmt.Fprintf(out, "%d cubes done in this run, %d undecided; %d of %d cubes remain\n", sum.Done, sum.Failed, left, len(w.Cubes))
 	if left > 0 {
 		return undecided(fmt.Errorf("%d cubes without a result: run conquer again (a larger --time-limit may help)", left))
 	}
-	if hint {
-		fmt.Fprintf(out, "every cube is refuted; next: spinecert gather %s -o NAME%s\n", w.Dir, ".spinecert.tar.zst")
-	}
+	fmt.Fprintf(out, "every cube is refuted; next: spinecert gather %s -o NAME%s\n", w.Dir, archive.Suffix)
 	return nil
 }
 

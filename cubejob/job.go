@@ -255,20 +255,9 @@ func Open(dir string) (*Work, error) {
 	if err != nil {
 		return nil, fmt.Errorf("cubejob: %w", err)
 	}
-	job := &Job{}
-	dec := json.NewDecoder(bytes.NewReader(jobText))
-	dec.DisallowUnknownFields()
-	if err := dec.Decode(job); err != nil {
-		return nil, bad(JobFile, "%v", err)
-	}
-	if dec.More() {
-		return nil, bad(JobFile, "data after the JSON object")
-	}
-	if err := textpos.CheckJSONKeys(jobText, jobPath, job); err != nil {
-		return nil, fmt.Errorf("%w: %w", ErrBadWork, err)
-	}
-	if job.Format != JobFormat || job.FormatVersion != JobVersion {
-		return nil, bad(JobFile, "format %q version %d, expected %q version %d", job.Format, job.FormatVersion, JobFormat, JobVersion)
+	job, err := parseJob(jobText, jobPath)
+	if err != nil {
+		return nil, err
 	}
 	w := &Work{Dir: dir, Job: job, ID: sha(jobText)}
 	readGraph := func(file, wantSum string) (*graph.Graph, error) {
@@ -343,4 +332,31 @@ func Open(dir string) (*Work, error) {
 		return nil, bad(CubesFile, "%d cubes, %s records %d", len(w.Cubes), JobFile, job.Cubes.Count)
 	}
 	return w, nil
+}
+
+// parseJob reads job.json strictly: one JSON object of the schema, no
+// unknown, repeated or case-variant keys, nothing after it, this format.
+func parseJob(data []byte, path string) (*Job, error) {
+	bad := func(format string, args ...any) error {
+		return fmt.Errorf("%w: %s: %s", ErrBadWork, path, fmt.Sprintf(format, args...))
+	}
+	job := &Job{}
+	dec := json.NewDecoder(bytes.NewReader(data))
+	dec.DisallowUnknownFields()
+	if err := dec.Decode(job); err != nil {
+		return nil, bad("%v", err)
+	}
+	if dec.More() {
+		return nil, bad("data after the JSON object")
+	}
+	if err := textpos.CheckJSONKeys(data, path, job); err != nil {
+		return nil, fmt.Errorf("%w: %w", ErrBadWork, err)
+	}
+	if job.Format != JobFormat || job.FormatVersion != JobVersion {
+		return nil, bad("format %q version %d, expected %q version %d", job.Format, job.FormatVersion, JobFormat, JobVersion)
+	}
+	if job.Claim.Pages < 1 || job.Cubes.Count < 1 || job.Claim.Vertices < 0 || job.Claim.Edges < 0 {
+		return nil, bad("the claim needs at least 1 page and the job at least 1 cube")
+	}
+	return job, nil
 }

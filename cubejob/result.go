@@ -80,13 +80,8 @@ func (w *Work) ReadResult(i int, hash bool) (*Result, error) {
 	bad := func(format string, args ...any) error {
 		return fmt.Errorf("%w: cube %d (%s): %s", ErrBadWork, i+1, path, fmt.Sprintf(format, args...))
 	}
-	r := &Result{}
-	dec := json.NewDecoder(bytes.NewReader(data))
-	dec.DisallowUnknownFields()
-	if err := dec.Decode(r); err != nil {
-		return nil, bad("%v", err)
-	}
-	if err := textpos.CheckJSONKeys(data, path, r); err != nil {
+	r, err := parseResult(data, path)
+	if err != nil {
 		return nil, fmt.Errorf("%w: cube %d: %w", ErrBadWork, i+1, err)
 	}
 	switch {
@@ -170,4 +165,24 @@ func refutedErr(w *Work, rec *RefutedRecord) error {
 	}
 	return fmt.Errorf("%w: cube %d is satisfiable: %s found a %d-page %s layout, checked directly when it was found (%s)",
 		ErrRefuted, rec.Cube, rec.Backend, rec.Pages, w.Job.Claim.Kind, filepath.Join(w.Dir, rec.Layout))
+}
+
+// parseResult reads a result file strictly (see parseJob).
+func parseResult(data []byte, path string) (*Result, error) {
+	r := &Result{}
+	dec := json.NewDecoder(bytes.NewReader(data))
+	dec.DisallowUnknownFields()
+	if err := dec.Decode(r); err != nil {
+		return nil, fmt.Errorf("%s: %v", path, err)
+	}
+	if dec.More() {
+		return nil, fmt.Errorf("%s: data after the JSON object", path)
+	}
+	if err := textpos.CheckJSONKeys(data, path, r); err != nil {
+		return nil, err
+	}
+	if r.Proof.Size < 0 || r.Cube < 1 {
+		return nil, fmt.Errorf("%s: a cube number of at least 1 and a proof size of at least 0 are required", path)
+	}
+	return r, nil
 }

@@ -100,6 +100,18 @@ type VerifyOptions struct {
 	// Jobs is the number of proofs of a refutation by cubes checked at
 	// once (0 = 1); each waiting proof is copied to a file in TempDir.
 	Jobs int
+	// CubeOutcome, when not nil, may supply the outcome of a cube's proof
+	// check made elsewhere (by a Slurm array task of this spinecert, from
+	// its record); it is given the 0-based cube and the SHA-256 of the
+	// proof member, and the proof is then not checked again here.
+	CubeOutcome func(cube int, proofSHA256 string) (proof.Outcome, bool)
+	// CubeFilter, when not nil, limits the cube proofs checked here to the
+	// cubes it accepts (an array task's slice); the others count as not
+	// checked.
+	CubeFilter func(cube int) bool
+	// CubeChecked, when not nil, is called after each cube proof checked
+	// here, possibly from several goroutines at once.
+	CubeChecked func(cube int, proofSHA256 string, out proof.Outcome)
 }
 
 // VerifyFile verifies the bundle at path (see Verify).
@@ -157,12 +169,13 @@ type verifier struct {
 	outcomes map[string]proof.Outcome // proof member -> outcome against target or stored
 
 	// A refutation by cubes.
-	cubes   []cube.Cube
-	cubeIdx map[string]int // proof member -> 0-based cube (-1: the coverage proof)
-	coverOK bool           // coverage established by shape, or by its proof (see finishCubes)
-	mu      sync.Mutex     // guards outcomes while cube proofs are checked in parallel
-	wg      sync.WaitGroup
-	sem     chan struct{}
+	cubes     []cube.Cube
+	cubeIdx   map[string]int // proof member -> 0-based cube (-1: the coverage proof)
+	coverOK   bool           // coverage established by shape, or by its proof (see finishCubes)
+	elsewhere int            // cube outcomes taken from CubeOutcome
+	mu        sync.Mutex     // guards outcomes while cube proofs are checked in parallel
+	wg        sync.WaitGroup
+	sem       chan struct{}
 }
 
 func (v *verifier) member(m Member, r io.Reader) error {

@@ -17,6 +17,7 @@ import (
 	"spinecert.dev/graph"
 	"spinecert.dev/internal/fixture"
 	"spinecert.dev/internal/fixture/backends"
+	"spinecert.dev/proof"
 	"spinecert.dev/verify"
 )
 
@@ -315,5 +316,57 @@ func writeResult(t *testing.T, w *Work, i int, r *Result) {
 	}
 	if err := os.WriteFile(w.resultPath(i), data, 0o644); err != nil {
 		t.Fatal(err)
+	}
+}
+
+func TestVerifyJobRecords(t *testing.T) {
+	w := newWork(t, fixture.Complete(7), 3, 8, nil)
+	runAll(t, w)
+	out, err := bundle(t, w)
+	if err != nil {
+		t.Fatal(err)
+	}
+	j, err := NewVerifyJob(filepath.Join(t.TempDir(), "v"), out, 8, 4)
+	if err != nil {
+		t.Fatal(err)
+	}
+	// One array task's slice: only its cubes are checked, and recorded.
+	var checked []int
+	rep := archive.VerifyFile(context.Background(), out, archive.VerifyOptions{
+		CubeFilter:  func(i int) bool { return j.InSlice(1, i) },
+		CubeChecked: func(i int, sum string, o proof.Outcome) { checked = append(checked, i); j.Record(i, sum, o, "test") },
+	})
+	slices.Sort(checked)
+	if rep.Verified || !slices.Equal(checked, []int{4, 5, 6, 7}) {
+		t.Fatalf("task 1 checked %v (verified %v), want cubes 4 to 7 and no verdict", checked, rep.Verified)
+	}
+	// The other slice, then a verify that takes every outcome from the records.
+	archive.VerifyFile(context.Background(), out, archive.VerifyOptions{
+		CubeFilter:  func(i int) bool { return j.InSlice(0, i) },
+		CubeChecked: func(i int, sum string, o proof.Outcome) { j.Record(i, sum, o, "test") },
+	})
+	used := 0
+	rep = archive.VerifyFile(context.Background(), out, archive.VerifyOptions{CubeOutcome: func(i int, sum string) (proof.Outcome, bool) {
+		o, ok := j.Outcome(i, sum)
+		if ok {
+			used++
+		}
+		return o, ok
+	}})
+	if !rep.Verified || used != 8 {
+		t.Fatalf("verified %v with %d records, want 8", rep.Verified, used)
+	}
+	// A record of another proof is not taken; a record of a rejection is.
+	if _, ok := j.Outcome(0, strings.Repeat("0", 64)); ok {
+		t.Fatal("a record for another proof was taken")
+	}
+	rep = archive.VerifyFile(context.Background(), out, archive.VerifyOptions{CubeOutcome: func(i int, sum string) (proof.Outcome, bool) {
+		if i == 2 {
+			return proof.Outcome{Detail: "rejected by an array task"}, true
+		}
+		return j.Outcome(i, sum)
+	}})
+	if rep.Verified {
+		t.Fatal("a bundle verified though a record says cube 3's proof was rejected")
 	}
 }

@@ -98,27 +98,38 @@ type TaskState struct {
 // Queue asks squeue for the array tasks of the submissions that are still
 // queued or running. Without squeue it returns an error.
 func (w *Work) Queue(ctx context.Context, subs []*Submission, squeue string) ([]TaskState, error) {
-	if squeue == "" {
-		squeue = "squeue"
-	}
 	var states []TaskState
 	for _, s := range subs {
 		if s.SlurmID == "" {
 			continue
 		}
-		// One job at a time: squeue fails for a job that has left the queue.
-		out, err := exec.CommandContext(ctx, squeue, "-h", "-r", "-j", s.SlurmID, "-o", "%i %T").Output()
+		st, err := JobStates(ctx, s.SlurmID, squeue)
 		if err != nil {
-			var ee *exec.ExitError
-			if errors.As(err, &ee) && strings.Contains(string(ee.Stderr), "Invalid job id") {
-				continue // the job has left the queue
-			}
-			return nil, fmt.Errorf("cubejob: %s: %w", squeue, err)
+			return nil, err
 		}
-		for _, line := range strings.Split(strings.TrimSpace(string(out)), "\n") {
-			if f := strings.Fields(line); len(f) == 2 {
-				states = append(states, TaskState{ID: f[0], State: f[1]})
-			}
+		states = append(states, st...)
+	}
+	return states, nil
+}
+
+// JobStates asks squeue for the array tasks of one job still in the
+// queue; a job that has left it has none.
+func JobStates(ctx context.Context, id, squeue string) ([]TaskState, error) {
+	if squeue == "" {
+		squeue = "squeue"
+	}
+	out, err := exec.CommandContext(ctx, squeue, "-h", "-r", "-j", id, "-o", "%i %T").Output()
+	if err != nil {
+		var ee *exec.ExitError
+		if errors.As(err, &ee) && strings.Contains(string(ee.Stderr), "Invalid job id") {
+			return nil, nil // the job has left the queue
+		}
+		return nil, fmt.Errorf("cubejob: %s: %w", squeue, err)
+	}
+	var states []TaskState
+	for _, line := range strings.Split(strings.TrimSpace(string(out)), "\n") {
+		if f := strings.Fields(line); len(f) == 2 {
+			states = append(states, TaskState{ID: f[0], State: f[1]})
 		}
 	}
 	return states, nil
@@ -167,29 +178,30 @@ func (w *Work) Submit(ctx context.Context, opt SlurmOptions) (*Submission, error
 	}
 	script := filepath.Join(dir, SlurmDir, fmt.Sprintf("submit-%03d.sh", s.Seq))
 	args := append([]string{opt.Executable, "conquer", dir, "--array-task", "${SLURM_ARRAY_TASK_ID}", "--submission", strconv.Itoa(s.Seq)}, opt.TaskArgs...)
-	var b bytes.Buffer
-	fmt.Fprintf(&b, "#!/bin/sh\n# spinecert conquer: one array task of submission %d of the work directory %s\n", s.Seq, dir)
-	b.WriteString("exec")
-	for _, a := range args {
-		if a == "${SLURM_ARRAY_TASK_ID}" {
-			b.WriteString(` "${SLURM_ARRAY_TASK_ID}"`)
-		} else {
-			b.WriteString(" " + shellQuote(a))
-		}
-	}
-	b.WriteString("\n")
-	if err := writeAtomic(script, b.Bytes()); err != nil {
+	if err := writeScript(script, fmt.Sprintf("spinecert conquer: one array task of submission %d of the work directory %s", s.Seq, dir), args); err != nil {
 		return nil, err
 	}
-	if err := os.Chmod(script, 0o755); err != nil {
-		return nil, fmt.Errorf("cubejob: %w", err)
+	id, err := submitArray(ctx, opt, script, "spinecert-"+short(w.ID)[:8], s.Tasks(),
+		filepath.Join(dir, SlurmDir, fmt.Sprintf("submit-%03d-%%A_%%a.out", s.Seq)), dir)
+	if err != nil {
+		os.Remove(w.submissionPath(s.Seq))
+		return nil, err
 	}
-	array := fmt.Sprintf("0-%d", s.Tasks()-1)
+	s.SlurmID = id
+	if err := w.writeSubmission(s); err != nil {
+		return nil, err
+	}
+	return s, nil
+}
+
+// submitArray runs sbatch for a job array of tasks array tasks running
+// script, and returns the job ID.
+func submitArray(ctx context.Context, opt SlurmOptions, script, name string, tasks int, output, chdir string) (string, error) {
+	array := fmt.Sprintf("0-%d", tasks-1)
 	if opt.MaxRunning > 0 {
 		array += "%" + strconv.Itoa(opt.MaxRunning)
 	}
-	sargs := []string{"--parsable", "--job-name", "spinecert-" + short(w.ID)[:8], "--array", array,
-		"--output", filepath.Join(dir, SlurmDir, fmt.Sprintf("submit-%03d-%%A_%%a.out", s.Seq)), "--chdir", dir}
+	sargs := []string{"--parsable", "--job-name", name, "--array", array, "--output", output, "--chdir", chdir}
 	if opt.Partition != "" {
 		sargs = append(sargs, "--partition", opt.Partition)
 	}
@@ -212,18 +224,36 @@ func (w *Work) Submit(ctx context.Context, opt SlurmOptions) (*Submission, error
 	cmd.Stderr = &stderr
 	out, err := cmd.Output()
 	if err != nil {
-		os.Remove(w.submissionPath(s.Seq))
-		return nil, fmt.Errorf("cubejob: sbatch: %w: %s", err, strings.TrimSpace(stderr.String()))
+		return "", fmt.Errorf("cubejob: sbatch: %w: %s", err, strings.TrimSpace(stderr.String()))
 	}
 	id, _, _ := strings.Cut(strings.TrimSpace(string(out)), ";")
 	if _, err := strconv.Atoi(id); err != nil {
-		return nil, fmt.Errorf("cubejob: sbatch printed %q, expected a job ID", strings.TrimSpace(string(out)))
+		return "", fmt.Errorf("cubejob: sbatch printed %q, expected a job ID", strings.TrimSpace(string(out)))
 	}
-	s.SlurmID = id
-	if err := w.writeSubmission(s); err != nil {
-		return nil, err
+	return id, nil
+}
+
+// writeScript writes an array task script that execs args, with the
+// literal ${SLURM_ARRAY_TASK_ID} left for the shell to expand.
+func writeScript(path, comment string, args []string) error {
+	var b bytes.Buffer
+	fmt.Fprintf(&b, "#!/bin/sh\n# %s\n", comment)
+	b.WriteString("exec")
+	for _, a := range args {
+		if a == "${SLURM_ARRAY_TASK_ID}" {
+			b.WriteString(` "${SLURM_ARRAY_TASK_ID}"`)
+		} else {
+			b.WriteString(" " + shellQuote(a))
+		}
 	}
-	return s, nil
+	b.WriteString("\n")
+	if err := writeAtomic(path, b.Bytes()); err != nil {
+		return err
+	}
+	if err := os.Chmod(path, 0o755); err != nil {
+		return fmt.Errorf("cubejob: %w", err)
+	}
+	return nil
 }
 
 func (w *Work) writeSubmission(s *Submission) error {

@@ -20,13 +20,7 @@ type conquerOptions struct {
 	local      bool
 	jobs       int
 	slurm      bool
-	partition  string
-	timeLimit  string
-	mem        string
-	cpus       int
-	sbatchArgs []string
-	perTask    int
-	maxRunning int
+	sl         slurmFlags
 	wait       bool
 	status     bool
 	json       bool
@@ -68,10 +62,6 @@ directory and (when jobs were submitted) squeue.`,
 				return usageErr(fmt.Errorf("give --local or --slurm, not both"))
 			case o.jobs < 0:
 				return usageErr(fmt.Errorf("--jobs must not be negative, got %d", o.jobs))
-			case o.perTask < 1:
-				return usageErr(fmt.Errorf("--cubes-per-task must be at least 1, got %d", o.perTask))
-			case o.cpus < 0 || o.maxRunning < 0:
-				return usageErr(fmt.Errorf("--cpus-per-task and --max-running must not be negative"))
 			case o.wait && !o.slurm:
 				return usageErr(fmt.Errorf("--wait goes with --slurm"))
 			case o.json && !o.status:
@@ -79,12 +69,8 @@ directory and (when jobs were submitted) squeue.`,
 			case cmd.Flags().Changed("array-task") != cmd.Flags().Changed("submission"):
 				return usageErr(fmt.Errorf("--array-task and --submission go together"))
 			}
-			if !o.slurm {
-				for _, f := range []string{"partition", "time", "mem", "cpus-per-task", "sbatch-arg", "cubes-per-task", "max-running"} {
-					if cmd.Flags().Changed(f) {
-						return usageErr(fmt.Errorf("--%s goes with --slurm", f))
-					}
-				}
+			if err := o.sl.check(cmd, o.slurm); err != nil {
+				return err
 			}
 			_, err := o.solver.build()
 			return err
@@ -99,13 +85,7 @@ directory and (when jobs were submitted) squeue.`,
 	fl.BoolVar(&o.local, "local", false, "run the cubes on this machine (the default)")
 	fl.IntVar(&o.jobs, "jobs", 0, "--local: cubes decided at the same time (0 = one per CPU)")
 	fl.BoolVar(&o.slurm, "slurm", false, "submit the cubes as one Slurm job array (sbatch)")
-	fl.StringVar(&o.partition, "partition", "", "--slurm: the partition (default: the cluster's)")
-	fl.StringVar(&o.timeLimit, "time", "", "--slurm: time limit of each array task, as sbatch --time takes it")
-	fl.StringVar(&o.mem, "mem", "", "--slurm: memory of each array task, as sbatch --mem takes it")
-	fl.IntVar(&o.cpus, "cpus-per-task", 0, "--slurm: CPUs of each array task")
-	fl.StringArrayVar(&o.sbatchArgs, "sbatch-arg", nil, "--slurm: one more sbatch argument (repeatable)")
-	fl.IntVar(&o.perTask, "cubes-per-task", 1, "--slurm: cubes each array task decides")
-	fl.IntVar(&o.maxRunning, "max-running", 0, "--slurm: array tasks running at once (0 = as the scheduler allows)")
+	o.sl.add(cmd)
 	fl.BoolVar(&o.wait, "wait", false, "--slurm: wait until the job array has left the queue, then show the status")
 	fl.BoolVar(&o.status, "status", false, "show the cubes done, running, queued and remaining, and do nothing else")
 	fl.BoolVar(&o.json, "json", false, "--status: print one JSON object")
@@ -192,16 +172,11 @@ func conquerEnd(ctx contextT, out io.Writer, w *cubejob.Work, sum cubejob.Summar
 func conquerSlurm(cmd *cobra.Command, w *cubejob.Work, o *conquerOptions) error {
 	ctx := cmd.Context()
 	out := cmd.OutOrStdout()
-	exe, err := os.Executable()
+	sopt, err := o.sl.options(o.solver.taskArgs())
 	if err != nil {
-		return fmt.Errorf("conquer: the path of spinecert: %w", err)
+		return err
 	}
-	taskArgs := []string{"--solvers", o.solver.solvers, "--time-limit", o.solver.timeLimit.String()}
-	for _, c := range o.solver.solverCmd {
-		taskArgs = append(taskArgs, "--solver-cmd", c)
-	}
-	s, err := w.Submit(ctx, cubejob.SlurmOptions{Partition: o.partition, Time: o.timeLimit, Mem: o.mem, CPUsPerTask: o.cpus,
-		Extra: o.sbatchArgs, PerTask: o.perTask, MaxRunning: o.maxRunning, Executable: exe, TaskArgs: taskArgs})
+	s, err := w.Submit(ctx, sopt)
 	switch {
 	case errors.Is(err, cubejob.ErrRefuted):
 		fmt.Fprintf(out, "the claim is refuted: %v\n", err)

@@ -13,17 +13,22 @@ import (
 	"github.com/spf13/cobra"
 
 	"spinecert.dev/archive"
+	"spinecert.dev/cubejob"
 	"spinecert.dev/dimacs"
+	"spinecert.dev/proof"
 	"spinecert.dev/verify"
 )
 
 type verifyOptions struct {
-	solver  solveSolverFlags
-	jobs    int
-	json    bool
-	junit   string
-	resolve bool
-	bundles []string
+	solver    solveSolverFlags
+	slurmDir  string
+	sl        slurmFlags
+	slurmTask int
+	jobs      int
+	json      bool
+	junit     string
+	resolve   bool
+	bundles   []string
 }
 
 func newVerifyCmd() *cobra.Command {
@@ -56,6 +61,15 @@ read at all.`,
 			if o.jobs < 0 {
 				return usageErr(fmt.Errorf("--jobs must be positive"))
 			}
+			if err := o.sl.check(cmd, o.slurmDir != ""); err != nil {
+				return err
+			}
+			if o.slurmDir != "" && len(args) != 1 {
+				return usageErr(fmt.Errorf("--slurm verifies one bundle at a time"))
+			}
+			if o.slurmDir != "" && cmd.Flags().Changed("slurm-task") {
+				return runVerifyTask(cmd, &o)
+			}
 			return runVerify(cmd, &o)
 		},
 	}
@@ -64,6 +78,10 @@ read at all.`,
 	cmd.Flags().BoolVar(&o.json, "json", false, "print one JSON object on stdout")
 	cmd.Flags().StringVar(&o.junit, "junit", "", "also write a JUnit XML report to FILE")
 	cmd.Flags().BoolVar(&o.resolve, "resolve", false, "when the encoder drifted, re-solve the current encoding to re-establish the claim")
+	cmd.Flags().StringVar(&o.slurmDir, "slurm", "", "hand the cube proof checks of a bundle split into cubes to a Slurm job array working in DIR (shared by the nodes), then verify with their records")
+	o.sl.add(cmd)
+	cmd.Flags().IntVar(&o.slurmTask, "slurm-task", 0, "check one array task's slice of cube proofs (used by the job array)")
+	_ = cmd.Flags().MarkHidden("slurm-task")
 	return cmd
 }
 
@@ -93,6 +111,13 @@ func runVerify(cmd *cobra.Command, o *verifyOptions) error {
 	// Several bundles share the jobs; one bundle split into cubes checks
 	// its cube proofs that many at a time.
 	opt.Jobs = max(1, jobs/len(o.bundles))
+	if o.slurmDir != "" {
+		j, err := verifySubmit(cmd, o)
+		if err != nil {
+			return err
+		}
+		opt.CubeOutcome = j.Outcome
+	}
 	jobs = min(jobs, len(o.bundles))
 	reports := make([]*archive.Report, len(o.bundles))
 	next := make(chan int)
@@ -308,4 +333,73 @@ func firstLine(msgs []string) string {
 		return "rejected"
 	}
 	return msgs[0]
+}
+
+// verifySubmit hands the cube proof checks of the one bundle to a Slurm
+// job array and waits for it to leave the queue.
+func verifySubmit(cmd *cobra.Command, o *verifyOptions) (*cubejob.VerifyJob, error) {
+	ctx := cmd.Context()
+	m, _, err := showRead(o.bundles[0], cmd)
+	if err != nil {
+		return nil, err
+	}
+	if m.Refutation == nil || m.Refutation.Cubes == nil {
+		return nil, usageErr(fmt.Errorf("%s: the refutation is not split into cubes; verify it without --slurm", o.bundles[0]))
+	}
+	j, err := cubejob.NewVerifyJob(o.slurmDir, o.bundles[0], m.Refutation.Cubes.Count, o.sl.perTask)
+	if err != nil {
+		return nil, err
+	}
+	sopt, err := o.sl.options(nil)
+	if err != nil {
+		return nil, err
+	}
+	if err := j.Submit(ctx, sopt); err != nil {
+		return nil, err
+	}
+	fmt.Fprintf(cmd.ErrOrStderr(), "verify: job %s: %d array tasks check the proofs of %d cubes; waiting\n", j.SlurmID, j.Tasks(), j.Cubes)
+	if err := j.Wait(ctx, ""); err != nil {
+		if ierr := interruption(ctx); ierr != nil {
+			return nil, ierr
+		}
+		return nil, err
+	}
+	return j, nil
+}
+
+// runVerifyTask checks one array task's slice of cube proofs and records
+// each outcome for the verify that submitted the array.
+func runVerifyTask(cmd *cobra.Command, o *verifyOptions) error {
+	j, err := cubejob.OpenVerifyJob(o.slurmDir)
+	if err != nil {
+		return usageErr(err)
+	}
+	if o.slurmTask < 0 || o.slurmTask >= j.Tasks() {
+		return usageErr(fmt.Errorf("--slurm-task %d: the job has array tasks 0 to %d", o.slurmTask, j.Tasks()-1))
+	}
+	task := fmt.Sprintf("slurm %s_%d", os.Getenv("SLURM_ARRAY_JOB_ID"), o.slurmTask)
+	var mu sync.Mutex
+	var recErr error
+	checked := 0
+	opt := archive.VerifyOptions{
+		CubeFilter: func(i int) bool { return j.InSlice(o.slurmTask, i) },
+		CubeChecked: func(i int, sum string, out proof.Outcome) {
+			err := j.Record(i, sum, out, task)
+			mu.Lock()
+			defer mu.Unlock()
+			checked++
+			if err != nil && recErr == nil {
+				recErr = err
+			}
+		},
+	}
+	archive.VerifyFile(cmd.Context(), j.Bundle, opt)
+	if err := interruption(cmd.Context()); err != nil {
+		return err
+	}
+	if recErr != nil {
+		return recErr
+	}
+	fmt.Fprintf(cmd.OutOrStdout(), "array task %d: checked %d cube proofs of %s\n", o.slurmTask, checked, j.Bundle)
+	return nil
 }

@@ -134,6 +134,25 @@ func TestSlurmSplitConquerGatherVerify(t *testing.T) {
 	if !strings.Contains(out, "holds — every check passed") || !strings.Contains(out, "all 16 cubes refuted") {
 		t.Fatalf("verify printed:\n%s", out)
 	}
+	// The cube proof checks handed to a job array: every record is used.
+	vdir := filepath.Join(t.TempDir(), "verify")
+	out = mustRunBin(t, bin, "verify", bundle, "--slurm", vdir, "--cubes-per-task", "4")
+	if !strings.Contains(out, "holds — every check passed") || !strings.Contains(out, "16 of them checked by Slurm array tasks") {
+		t.Fatalf("verify --slurm printed:\n%s", out)
+	}
+	// Each record names its bundle, its cube and its proof, and what both checkers said.
+	rec := filepath.Join(vdir, "checks", "000003.json")
+	data, err := os.ReadFile(rec)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var r cubejob.CheckRecord
+	if err := json.Unmarshal(data, &r); err != nil {
+		t.Fatal(err)
+	}
+	if !r.DRAT || !r.LRAT || r.Cube != 3 {
+		t.Fatalf("record %+v", r)
+	}
 }
 
 // TestSlurmKilledTaskIsRunAgain kills one array task while it decides its

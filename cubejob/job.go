@@ -93,8 +93,28 @@ type Work struct {
 	Graph    *graph.Graph
 	Subgraph *graph.Graph     // nil when the CNF encodes Graph itself
 	Encoding *dimacs.Encoding // of Subgraph, or of Graph
-	CNF      *dimacs.CNF
+	CNF      *dimacs.CNF      // nil when opened ForStatus
 	Cubes    []cube.Cube
+	opts     dimacs.Options
+}
+
+// encode builds the encoding of the claim and checks that its CNF is the
+// one the job records.
+func (w *Work) encode() error {
+	enc, err := dimacs.Encode(w.Target(), w.opts)
+	if err != nil {
+		return fmt.Errorf("cubejob: %w", err)
+	}
+	cnf := enc.CNF()
+	_, sum, err := archive.CNFText(cnf)
+	if err != nil {
+		return err
+	}
+	if sum != w.Job.CNF.SHA256 || cnf.Vars != w.Job.CNF.Vars || len(cnf.Clauses) != w.Job.CNF.Clauses {
+		return fmt.Errorf("%w: %s: the claim encodes to a CNF with SHA-256 %s, the job records %s", ErrBadWork, filepath.Join(w.Dir, JobFile), sum, w.Job.CNF.SHA256)
+	}
+	w.Encoding, w.CNF = enc, cnf
+	return nil
 }
 
 // Target is the graph the CNF encodes.
@@ -226,18 +246,36 @@ func Create(ctx context.Context, dir string, opt CreateOptions) (*Work, *cube.Sp
 	if err := writeAtomic(filepath.Join(dir, JobFile), jobText); err != nil {
 		return nil, nil, err
 	}
-	return &Work{Dir: dir, Job: job, ID: sha(jobText), Graph: opt.Graph, Subgraph: opt.Subgraph, Encoding: enc, CNF: cnf, Cubes: cubes}, stats, nil
+	return &Work{Dir: dir, Job: job, ID: sha(jobText), Graph: opt.Graph, Subgraph: opt.Subgraph, Encoding: enc, CNF: cnf, Cubes: cubes, opts: opt.Encoding}, stats, nil
 }
 
 // maxJobSize bounds job.json.
 const maxJobSize = 1 << 20
 
-// Open reads and checks a work directory: job.json strictly, the graph
-// against the claimed identity, the subgraph against the graph, the CNF
-// re-encoded by this spinecert's encoder against the recorded SHA-256, and
-// the cubes file against its SHA-256, count and shape. Any mismatch wraps
-// ErrBadWork and names the file.
-func Open(dir string) (*Work, error) {
+// OpenMode says how much of the CNF Open prepares.
+type OpenMode int
+
+const (
+	// ForCheck encodes the claim again with this spinecert's encoder and
+	// compares the CNF with the recorded SHA-256 (gather).
+	ForCheck OpenMode = iota
+	// ForSolving reads formula.cnf, whose SHA-256 must be the recorded
+	// one; the encoding, needed only to decode a model, is built (and
+	// compared) when a cube is satisfiable. Results made from it are
+	// checked again against the re-encoded claim at gather time.
+	ForSolving
+	// ForStatus reads no CNF (Work.CNF is nil).
+	ForStatus
+)
+
+// Open reads and checks a work directory for gathering (OpenAs ForCheck).
+func Open(dir string) (*Work, error) { return OpenAs(dir, ForCheck) }
+
+// OpenAs reads and checks a work directory: job.json strictly, the graph
+// against the claimed identity, the subgraph against the graph, the CNF as
+// mode says, and the cubes file against its SHA-256 and count. Any
+// mismatch wraps ErrBadWork and names the file.
+func OpenAs(dir string, mode OpenMode) (*Work, error) {
 	bad := func(file, format string, args ...any) error {
 		return fmt.Errorf("%w: %s: %s", ErrBadWork, filepath.Join(dir, file), fmt.Sprintf(format, args...))
 	}
@@ -304,19 +342,27 @@ func Open(dir string) (*Work, error) {
 	if job.Encoder.Version != dimacs.EncoderVersion {
 		return nil, bad(JobFile, "made with encoder %s, this spinecert has %s: split the claim again", job.Encoder.Version, dimacs.EncoderVersion)
 	}
-	if w.Encoding, err = dimacs.Encode(w.Target(), opts); err != nil {
-		return nil, fmt.Errorf("cubejob: %w", err)
-	}
-	w.CNF = w.Encoding.CNF()
-	_, sum, err := archive.CNFText(w.CNF)
-	if err != nil {
-		return nil, err
-	}
-	if sum != job.CNF.SHA256 || w.CNF.Vars != job.CNF.Vars || len(w.CNF.Clauses) != job.CNF.Clauses {
-		return nil, bad(JobFile, "the claim encodes to a CNF with SHA-256 %s, the job records %s", sum, job.CNF.SHA256)
-	}
-	if fsum, _, err := hashFile(filepath.Join(dir, CNFFile)); err != nil || fsum != sum {
-		return nil, bad(CNFFile, "not the CNF of the claim (SHA-256 %s, expected %s; %v)", fsum, sum, err)
+	w.opts = opts
+	switch mode {
+	case ForCheck:
+		if err := w.encode(); err != nil {
+			return nil, err
+		}
+		if fsum, _, err := hashFile(filepath.Join(dir, CNFFile)); err != nil || fsum != job.CNF.SHA256 {
+			return nil, bad(CNFFile, "not the CNF of the claim (SHA-256 %s, expected %s; %v)", fsum, job.CNF.SHA256, err)
+		}
+	case ForSolving:
+		path := filepath.Join(dir, CNFFile)
+		fsum, _, err := hashFile(path)
+		if err != nil || fsum != job.CNF.SHA256 {
+			return nil, bad(CNFFile, "not the CNF the job records (SHA-256 %s, expected %s; %v)", fsum, job.CNF.SHA256, err)
+		}
+		if w.CNF, err = dimacs.ReadCNFFile(path, dimacs.ReadOptions{}); err != nil {
+			return nil, fmt.Errorf("%w: %w", ErrBadWork, err)
+		}
+		if w.CNF.Vars != job.CNF.Vars || len(w.CNF.Clauses) != job.CNF.Clauses {
+			return nil, bad(CNFFile, "%d variables and %d clauses, the job records %d and %d", w.CNF.Vars, len(w.CNF.Clauses), job.CNF.Vars, job.CNF.Clauses)
+		}
 	}
 	cubeText, err := os.ReadFile(filepath.Join(dir, CubesFile))
 	if err != nil {
@@ -325,7 +371,7 @@ func Open(dir string) (*Work, error) {
 	if got := sha(cubeText); got != job.Cubes.SHA256 {
 		return nil, bad(CubesFile, "SHA-256 %s, %s records %s", got, JobFile, job.Cubes.SHA256)
 	}
-	if w.Cubes, err = cube.Read(bytes.NewReader(cubeText), filepath.Join(dir, CubesFile), cube.ReadOptions{Vars: w.CNF.Vars}); err != nil {
+	if w.Cubes, err = cube.Read(bytes.NewReader(cubeText), filepath.Join(dir, CubesFile), cube.ReadOptions{Vars: job.CNF.Vars}); err != nil {
 		return nil, fmt.Errorf("%w: %w", ErrBadWork, err)
 	}
 	if len(w.Cubes) != job.Cubes.Count {

@@ -55,6 +55,9 @@ func (w *Work) SolveCube(ctx context.Context, i int, opt SolveOptions) (Outcome,
 	if i < 0 || i >= len(w.Cubes) {
 		return Failed, "", fmt.Errorf("cubejob: there is no cube %d (the job has %d)", i+1, len(w.Cubes))
 	}
+	if w.CNF == nil {
+		return Failed, "", fmt.Errorf("cubejob: the work directory was opened without its CNF")
+	}
 	if _, err := w.ReadResult(i, false); err == nil {
 		return Skipped, "", nil
 	}
@@ -149,6 +152,11 @@ func cpuOf(r *verify.Result) time.Duration {
 }
 
 func (w *Work) storeLayout(i int, v *verify.Verdict, opt SolveOptions) (Outcome, string, error) {
+	if w.Encoding == nil {
+		if err := w.encode(); err != nil {
+			return Failed, "", err
+		}
+	}
 	model := make([]bool, len(v.Model)+1) // the encoder counts variables from 1
 	copy(model[1:], v.Model)
 	l, err := w.Encoding.Decode(model)

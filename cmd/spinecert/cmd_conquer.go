@@ -98,7 +98,11 @@ directory and (when jobs were submitted) squeue.`,
 
 func runConquer(cmd *cobra.Command, o *conquerOptions) error {
 	ctx := cmd.Context()
-	w, err := cubejob.Open(o.dir)
+	mode := cubejob.ForSolving
+	if o.status || (o.slurm && !cmd.Flags().Changed("array-task")) {
+		mode = cubejob.ForStatus // the array tasks read the CNF themselves
+	}
+	w, err := cubejob.OpenAs(o.dir, mode)
 	if err != nil {
 		return usageErr(err)
 	}

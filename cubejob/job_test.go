@@ -136,7 +136,15 @@ func TestResumeRunsOnlyCubesWithoutAResult(t *testing.T) {
 }
 
 func TestSatisfiableCubeRefutesTheClaim(t *testing.T) {
-	w := newWork(t, fixture.Complete(7), 4, 8, nil)
+	// Opened for solving, as conquer opens it: the encoding that decodes
+	// the model is built only then.
+	w, err := OpenAs(newWork(t, fixture.Complete(7), 4, 8, nil).Dir, ForSolving)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if w.Encoding != nil {
+		t.Fatal("opened for solving, the work directory was encoded")
+	}
 	sum, err := w.RunCubes(context.Background(), w.Remaining(), 2, solveOpts(t), nil)
 	if err != nil {
 		t.Fatal(err)
@@ -273,6 +281,20 @@ func TestBadWork(t *testing.T) {
 		os.WriteFile(p, append(data, []byte("7 8\n")...), 0o644)
 		if _, err := Open(w.Dir); !errors.Is(err, ErrBadWork) || !strings.Contains(err.Error(), GraphFile) {
 			t.Fatalf("err = %v, want ErrBadWork naming %s", err, GraphFile)
+		}
+	})
+	t.Run("a changed formula", func(t *testing.T) {
+		w := newWork(t, g, 3, 4, nil)
+		p := filepath.Join(w.Dir, CNFFile)
+		data, _ := os.ReadFile(p)
+		os.WriteFile(p, append(data, []byte("1 0\n")...), 0o644)
+		for _, mode := range []OpenMode{ForCheck, ForSolving} {
+			if _, err := OpenAs(w.Dir, mode); !errors.Is(err, ErrBadWork) || !strings.Contains(err.Error(), CNFFile) {
+				t.Fatalf("mode %d: err = %v, want ErrBadWork naming %s", mode, err, CNFFile)
+			}
+		}
+		if _, err := OpenAs(w.Dir, ForStatus); err != nil {
+			t.Fatalf("the status does not read the CNF: %v", err)
 		}
 	})
 	t.Run("a job manifest with a repeated key", func(t *testing.T) {

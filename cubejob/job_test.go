@@ -392,3 +392,25 @@ func TestVerifyJobRecords(t *testing.T) {
 		t.Fatal("a bundle verified though a record says cube 3's proof was rejected")
 	}
 }
+
+func TestCleanScratch(t *testing.T) {
+	w := newWork(t, fixture.Complete(7), 3, 2, nil)
+	tmp := filepath.Join(w.Dir, TmpDir)
+	// pid 1 is alive on any Linux host; a huge pid is not.
+	names := []string{scratchHost() + "-1-cube-000001-a", scratchHost() + "-2147483646-cube-000001-b", "elsewhere-42-cube-000002-c", "unrelated"}
+	for _, n := range names {
+		if err := os.MkdirAll(filepath.Join(tmp, n), 0o755); err != nil {
+			t.Fatal(err)
+		}
+	}
+	if got := w.CleanScratch(false); got != 1 {
+		t.Fatalf("removed %d, want only the dead local task's", got)
+	}
+	if got := w.CleanScratch(true); got != 1 {
+		t.Fatalf("removed %d, want the other host's too", got)
+	}
+	left, _ := os.ReadDir(tmp)
+	if len(left) != 2 {
+		t.Fatalf("%d entries left, want the live task's and the unrelated one", len(left))
+	}
+}

@@ -30,6 +30,7 @@ type Summary struct {
 // after each cube, from one goroutine at a time.
 func (w *Work) RunCubes(ctx context.Context, indices []int, jobs int, opt SolveOptions, report func(Event)) (Summary, error) {
 	jobs = max(1, jobs)
+	w.CleanScratch(false)
 	ctx, cancel := context.WithCancel(ctx)
 	defer cancel()
 	var (

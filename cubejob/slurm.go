@@ -158,6 +158,7 @@ func (w *Work) Submit(ctx context.Context, opt SlurmOptions) (*Submission, error
 	if len(states) > 0 {
 		return nil, fmt.Errorf("%w: array task %s is %s; wait for it, or cancel it with scancel", ErrBusy, states[0].ID, strings.ToLower(states[0].State))
 	}
+	w.CleanScratch(true) // nothing of the directory is in the queue
 	remaining := w.Remaining()
 	if len(remaining) == 0 {
 		return nil, nil

@@ -62,7 +62,7 @@ func (w *Work) SolveCube(ctx context.Context, i int, opt SolveOptions) (Outcome,
 		return Skipped, "", nil
 	}
 	start := time.Now()
-	tmp, err := os.MkdirTemp(filepath.Join(w.Dir, TmpDir), fmt.Sprintf("cube-%06d-*", i+1))
+	tmp, err := os.MkdirTemp(filepath.Join(w.Dir, TmpDir), fmt.Sprintf("%s-%d-cube-%06d-", scratchHost(), os.Getpid(), i+1))
 	if err != nil {
 		return Failed, "", fmt.Errorf("cubejob: %w", err)
 	}

@@ -240,6 +240,10 @@ func TestSlurmKilledTaskIsRunAgain(t *testing.T) {
 		}
 	}
 	checkResults(t, dir, 16)
+	// The killed task's scratch space went when the cubes were submitted again.
+	if left, _ := os.ReadDir(filepath.Join(dir, cubejob.TmpDir)); len(left) != 0 {
+		t.Fatalf("scratch directories left: %v", left)
+	}
 	bundle := filepath.Join(t.TempDir(), "k7"+".spinecert.tar.zst")
 	mustRunBin(t, bin, "gather", dir, "-o", bundle)
 	if out := mustRunBin(t, bin, "verify", bundle); !strings.Contains(out, "all 16 cubes refuted") {

@@ -213,7 +213,21 @@ func conquerSlurm(cmd *cobra.Command, w *cubejob.Work, o *conquerOptions) error 
 		case <-time.After(time.Second):
 		}
 	}
-	return conquerStatus(cmd, w, o)
+	if err := conquerStatus(cmd, w, o); err != nil {
+		return err
+	}
+	st := w.Status(ctx, "")
+	switch {
+	case st.Refuted != nil && w.Subgraph == nil:
+		fmt.Fprintf(out, "the claim is refuted: cube %d is satisfiable; the layout is in %s\n", st.Refuted.Cube, w.Dir+"/"+st.Refuted.Layout)
+		return refuted(nil)
+	case st.Refuted != nil:
+		return undecided(fmt.Errorf("cube %d is satisfiable: the subgraph has a layout, so this job cannot refute the graph", st.Refuted.Cube))
+	case st.Remaining > 0:
+		return undecided(fmt.Errorf("%d cubes without a result: run conquer again (a larger --time-limit may help; the task logs are in %s)", st.Remaining, w.Dir+"/slurm"))
+	}
+	fmt.Fprintf(out, "every cube is refuted; next: spinecert gather %s -o NAME%s\n", w.Dir, archive.Suffix)
+	return nil
 }
 
 // conquerStatusJSON is the --status --json output.

@@ -153,6 +153,16 @@ func TestSlurmSplitConquerGatherVerify(t *testing.T) {
 	if !r.DRAT || !r.LRAT || r.Cube != 3 {
 		t.Fatalf("record %+v", r)
 	}
+
+	// K7 has a 4-page layout: an array task finds it, checks it and
+	// refutes the claim (exit 1); the layout passes check.
+	sat := filepath.Join(t.TempDir(), "sat")
+	mustRunBin(t, bin, "split", k7File(t), "--pages", "4", "--cubes", "8", "-o", sat)
+	out, code := runBin(t, bin, "conquer", sat, "--slurm", "--wait", "--cubes-per-task", "2")
+	if code != 1 || !strings.Contains(out, "the claim is refuted: cube") {
+		t.Fatalf("conquer --slurm of a false claim: exit %d\n%s", code, out)
+	}
+	mustRunBin(t, bin, "check", k7File(t), filepath.Join(sat, cubejob.LayoutFile), "--pages", "4")
 }
 
 // TestSlurmKilledTaskIsRunAgain kills one array task while it decides its

@@ -78,6 +78,9 @@ func cubeMember(i int) string { return fmt.Sprintf("proofs/cube-%06d", i+1) }
 // first, then every cube's proof against cnf ∧ cube with the same
 // checkers as any proof, Jobs at a time.
 func buildCubes(ctx context.Context, r *Refutation, in *CubesInput, cnf *dimacs.CNF, tmpDir string) ([]Source, error) {
+	if len(in.Cubes) > MaxCubes {
+		return nil, fmt.Errorf("archive: %d cubes; a bundle holds at most %d (split the claim into fewer cubes)", len(in.Cubes), MaxCubes)
+	}
 	if len(in.Entries) != len(in.Cubes) {
 		return nil, fmt.Errorf("archive: %d cube proofs for %d cubes", len(in.Entries), len(in.Cubes))
 	}
@@ -159,8 +162,8 @@ func validateCubes(cs *CubeSplit, bad func(string, ...any), name func(string, st
 	if !isHex64(cs.SHA256) {
 		bad("refutation.cubes.sha256 %q is not 64 lowercase hex digits", cs.SHA256)
 	}
-	if cs.Count < 1 || cs.Count > cube.MaxCubes {
-		bad("refutation.cubes.count is %d, expected 1 to %d", cs.Count, cube.MaxCubes)
+	if cs.Count < 1 || cs.Count > MaxCubes {
+		bad("refutation.cubes.count is %d, expected 1 to %d", cs.Count, MaxCubes)
 	}
 	if len(cs.Entries) != cs.Count {
 		bad("refutation.cubes has %d entries for %d cubes", len(cs.Entries), cs.Count)

@@ -45,8 +45,9 @@ const (
 	CNFSub = "on-demand"
 )
 
-// maxManifestSize bounds the manifest member.
-const maxManifestSize = 1 << 20
+// maxManifestSize bounds the manifest member: a few KiB, and under 1 KiB
+// per cube of a refutation split into cubes.
+const maxManifestSize = 1<<20 + MaxCubes<<10
 
 // Manifest is the contents of manifest.json, schema version 1. Every field
 // is required unless marked omitempty. No wall-clock time is recorded

@@ -15,15 +15,19 @@ import (
 	"github.com/klauspost/compress/zstd"
 )
 
+// MaxCubes is the most cubes a refutation split into cubes may have in
+// one bundle: each has its proof member and its manifest entry.
+const MaxCubes = 1 << 16
+
 // Size limits of the reader. A bundle beyond them is rejected as bad.
 const (
-	MaxMemberSize = 4 << 30  // bytes in one member
-	MaxTotalSize  = 16 << 30 // decompressed bytes in the whole bundle
-	MaxMembers    = 256      // members, SHA256SUMS included
-	MaxRatio      = 1000     // decompressed bytes per compressed byte ...
-	RatioGrace    = 64 << 20 // ... once this many bytes are decompressed
-	maxSumsSize   = 64 << 10
-	maxZeroTail   = 1 << 20 // zero bytes accepted after the end-of-archive blocks
+	MaxMemberSize = 4 << 30          // bytes in one member
+	MaxTotalSize  = 16 << 30         // decompressed bytes in the whole bundle
+	MaxMembers    = MaxCubes + 256   // members, SHA256SUMS included (a proof per cube)
+	MaxRatio      = 1000             // decompressed bytes per compressed byte ...
+	RatioGrace    = 64 << 20         // ... once this many bytes are decompressed
+	maxSumsSize   = 128 * MaxMembers // one line of at most 128 bytes per member
+	maxZeroTail   = 1 << 20          // zero bytes accepted after the end-of-archive blocks
 	maxWindow     = 64 << 20
 )
 

@@ -180,6 +180,9 @@ func Create(ctx context.Context, dir string, opt CreateOptions) (*Work, *cube.Sp
 			rule = cube.RuleLookahead
 		}
 	}
+	if len(cubes) > archive.MaxCubes {
+		return nil, nil, fmt.Errorf("cubejob: %d cubes; a bundle holds at most %d", len(cubes), archive.MaxCubes)
+	}
 	shape := ShapeTree
 	if err := cube.CheckTree(cubes); err != nil {
 		if errors.Is(err, cube.ErrOverlap) {

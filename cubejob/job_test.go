@@ -414,3 +414,26 @@ func TestCleanScratch(t *testing.T) {
 		t.Fatalf("%d entries left, want the live task's and the unrelated one", len(left))
 	}
 }
+
+// TestManyCubes gathers a job of more cubes than a bundle once held
+// members (256) and verifies the bundle.
+func TestManyCubes(t *testing.T) {
+	if testing.Short() {
+		t.Skip("300 cubes")
+	}
+	w := newWork(t, fixture.Complete(7), 3, 300, nil)
+	if len(w.Cubes) != 300 {
+		t.Fatalf("%d cubes", len(w.Cubes))
+	}
+	opt := SolveOptions{Solvers: []verify.Solver{verify.Gini{}, backends.Gophersat(t)}}
+	if _, err := w.RunCubes(context.Background(), w.Remaining(), 2, opt, nil); err != nil {
+		t.Fatal(err)
+	}
+	out, err := bundle(t, w)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if rep := archive.VerifyFile(context.Background(), out, archive.VerifyOptions{Jobs: 2}); !rep.Verified {
+		t.Fatalf("not verified: %+v", rep.Failures())
+	}
+}

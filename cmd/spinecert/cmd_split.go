@@ -7,6 +7,7 @@ import (
 
 	"github.com/spf13/cobra"
 
+	"spinecert.dev/archive"
 	"spinecert.dev/cube"
 	"spinecert.dev/cubejob"
 	"spinecert.dev/graph"
@@ -60,10 +61,10 @@ Then run "spinecert conquer DIR" (on this machine or on Slurm) and
 			switch {
 			case set != 1:
 				return usageErr(fmt.Errorf("give exactly one of --cubes N, --depth D and --cube-file FILE"))
-			case cmd.Flags().Changed("cubes") && (o.cubes < 1 || o.cubes > cube.MaxCubes):
-				return usageErr(fmt.Errorf("--cubes must be between 1 and %d, got %d", cube.MaxCubes, o.cubes))
-			case cmd.Flags().Changed("depth") && (o.depth < 0 || o.depth > 20):
-				return usageErr(fmt.Errorf("--depth must be between 0 and 20, got %d", o.depth))
+			case cmd.Flags().Changed("cubes") && (o.cubes < 1 || o.cubes > archive.MaxCubes):
+				return usageErr(fmt.Errorf("--cubes must be between 1 and %d (the most one bundle holds), got %d", archive.MaxCubes, o.cubes))
+			case cmd.Flags().Changed("depth") && (o.depth < 0 || 1<<o.depth > archive.MaxCubes):
+				return usageErr(fmt.Errorf("--depth must be between 0 and 16 (2^16 cubes are the most one bundle holds), got %d", o.depth))
 			case o.out == "":
 				return usageErr(fmt.Errorf("-o DIR is required"))
 			case o.rule != cube.RuleLookahead && o.rule != cube.RuleOccurrence:

@@ -118,6 +118,18 @@ func runShow(cmd *cobra.Command, o *showOptions) error {
 			}
 			fmt.Fprintf(w, "proof:    %s, %s%s, %d bytes, SHA-256 %s: %s by %s when bundled\n", p.Member, p.Format, conv, p.Size, p.SHA256, p.Result, p.Checker)
 		}
+		if cs := r.Cubes; cs != nil {
+			var size int64
+			verified := 0
+			for _, e := range cs.Entries {
+				size += e.Proof.Size
+				if e.Proof.Result == archive.ResultVerified {
+					verified++
+				}
+			}
+			fmt.Fprintf(w, "cubes:    %d in %s (SHA-256 %s), coverage by %s\n", cs.Count, cs.Member, cs.SHA256, cs.Coverage.Method)
+			fmt.Fprintf(w, "proofs:   one per cube under proofs/cube-NNNNNN, %d bytes in all; %d of %d recorded as verified when bundled\n", size, verified, len(cs.Entries))
+		}
 	}
 	if p := m.Planarity; p != nil {
 		fmt.Fprintf(w, "planar:   %v (certificate %s)\n", p.Planar, p.Member)

@@ -23,6 +23,8 @@ import (
 //     and Kainen 1979). The bundle's refutation rests on a 37-vertex subgraph;
 //     the on-demand bundle refutes a sub-formula of the on-demand formulation
 //     of that subgraph, whose membership verify checks;
+//   - the Petersen graph needs at least 3 pages, as above, by a refutation
+//     split into 16 cubes (spinecert split, conquer and gather);
 //   - queue number of K3,3 = 2: 1-queue graphs are planar (Heath and
 //     Rosenberg, "Laying out graphs using queues", SIAM J. Comput. 21,
 //     1992), K3,3 is not (derived, as in REFERENCES).
@@ -40,6 +42,7 @@ func TestPublishedBundles(t *testing.T) {
 		{"k33-queue.spinecert.tar.zst", "k33.txt", "queue", Exact, 2},
 		{"kleetope-1001.spinecert.tar.zst", "kleetope-1001.txt", "stack", AtLeast, 3},
 		{"kleetope-1001-on-demand.spinecert.tar.zst", "kleetope-1001.txt", "stack", AtLeast, 3},
+		{"petersen-cubes.spinecert.tar.zst", "petersen.txt", "stack", AtLeast, 3},
 	}
 	dir := filepath.Join("..", "testdata", "bundles")
 	for _, w := range want {

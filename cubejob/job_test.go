@@ -437,3 +437,30 @@ func TestManyCubes(t *testing.T) {
 		t.Fatalf("not verified: %+v", rep.Failures())
 	}
 }
+
+func TestCheckIdle(t *testing.T) {
+	w := newWork(t, fixture.Complete(7), 3, 2, nil)
+	if err := w.CheckIdle(context.Background(), "squeue-absent-here"); err != nil {
+		t.Fatalf("no submission: %v", err)
+	}
+	if err := w.writeSubmission(&Submission{Seq: 1, Job: w.ID, PerTask: 1, Cubes: []int{1, 2}, SlurmID: "7"}); err != nil {
+		t.Fatal(err)
+	}
+	// A scheduler that still lists the job: busy.
+	fake := filepath.Join(t.TempDir(), "squeue")
+	os.WriteFile(fake, []byte("#!/bin/sh\necho '7_0 RUNNING'\necho '7_1 PENDING'\n"), 0o755)
+	if err := w.CheckIdle(context.Background(), fake); !errors.Is(err, ErrBusy) {
+		t.Fatalf("err = %v, want ErrBusy", err)
+	}
+	if st := w.Status(context.Background(), fake); st.Running != 1 || st.Queued != 1 || st.Remaining != 0 {
+		t.Fatalf("status %+v, want one cube running and one queued", st)
+	}
+	// One that says the job has left the queue, and none at all: idle.
+	gone := filepath.Join(t.TempDir(), "squeue")
+	os.WriteFile(gone, []byte("#!/bin/sh\necho 'slurm_load_jobs error: Invalid job id specified' >&2\nexit 1\n"), 0o755)
+	for _, q := range []string{gone, "squeue-absent-here"} {
+		if err := w.CheckIdle(context.Background(), q); err != nil {
+			t.Fatalf("%s: %v", q, err)
+		}
+	}
+}

@@ -89,6 +89,28 @@ func (w *Work) ReadSubmission(seq int) (*Submission, error) {
 	return s, nil
 }
 
+// CheckIdle returns an error wrapping ErrBusy while a job array of the
+// work directory is still queued or running (so that its cubes are not
+// run twice at once), and nil when none was submitted or all have left
+// the queue.
+func (w *Work) CheckIdle(ctx context.Context, squeue string) error {
+	subs, err := w.Submissions()
+	if err != nil || len(subs) == 0 {
+		return err
+	}
+	states, err := w.Queue(ctx, subs, squeue)
+	if errors.Is(err, exec.ErrNotFound) {
+		return nil // no scheduler here: nothing of this directory can be queued on this machine
+	}
+	if err != nil {
+		return err
+	}
+	if len(states) > 0 {
+		return fmt.Errorf("%w: array task %s is %s; wait for it, or cancel it with scancel", ErrBusy, states[0].ID, strings.ToLower(states[0].State))
+	}
+	return nil
+}
+
 // TaskState is the scheduler's view of one array task.
 type TaskState struct {
 	ID    string // JOBID_TASK
@@ -147,16 +169,12 @@ func (w *Work) Submit(ctx context.Context, opt SlurmOptions) (*Submission, error
 		}
 		return nil, refutedErr(w, rec)
 	}
+	if err := w.CheckIdle(ctx, opt.Squeue); err != nil {
+		return nil, err
+	}
 	subs, err := w.Submissions()
 	if err != nil {
 		return nil, err
-	}
-	states, err := w.Queue(ctx, subs, opt.Squeue)
-	if err != nil {
-		return nil, err
-	}
-	if len(states) > 0 {
-		return nil, fmt.Errorf("%w: array task %s is %s; wait for it, or cancel it with scancel", ErrBusy, states[0].ID, strings.ToLower(states[0].State))
 	}
 	w.CleanScratch(true) // nothing of the directory is in the queue
 	remaining := w.Remaining()

@@ -131,6 +131,9 @@ func runConquer(cmd *cobra.Command, o *conquerOptions) error {
 	if o.slurm {
 		return conquerSlurm(cmd, w, o)
 	}
+	if err := w.CheckIdle(ctx, ""); err != nil {
+		return undecided(err)
+	}
 	jobs := o.jobs
 	if jobs == 0 {
 		jobs = runtime.NumCPU()

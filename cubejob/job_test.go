@@ -464,3 +464,14 @@ func TestCheckIdle(t *testing.T) {
 		}
 	}
 }
+
+func TestSubmitWithoutSlurm(t *testing.T) {
+	w := newWork(t, fixture.Complete(7), 3, 2, nil)
+	_, err := w.Submit(context.Background(), SlurmOptions{Executable: "/bin/true", Sbatch: "sbatch-absent-here", Squeue: "squeue-absent-here"})
+	if err == nil || !strings.Contains(err.Error(), "is not on PATH: --slurm runs on a machine of a Slurm cluster") {
+		t.Fatalf("err = %v", err)
+	}
+	if _, err := w.ReadSubmission(1); err == nil {
+		t.Fatal("a failed submission left its record")
+	}
+}

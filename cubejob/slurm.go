@@ -242,6 +242,9 @@ func submitArray(ctx context.Context, opt SlurmOptions, script, name string, tas
 	var stderr bytes.Buffer
 	cmd.Stderr = &stderr
 	out, err := cmd.Output()
+	if errors.Is(err, exec.ErrNotFound) {
+		return "", fmt.Errorf("cubejob: %s is not on PATH: --slurm runs on a machine of a Slurm cluster (scripts/cluster-up.sh brings up a test cluster with Debian's slurm-wlm)", sbatch)
+	}
 	if err != nil {
 		return "", fmt.Errorf("cubejob: sbatch: %w: %s", err, strings.TrimSpace(stderr.String()))
 	}

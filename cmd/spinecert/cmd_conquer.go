@@ -126,7 +126,7 @@ func runConquer(cmd *cobra.Command, o *conquerOptions) error {
 	if cmd.Flags().Changed("array-task") {
 		sopt.Task = fmt.Sprintf("slurm %s_%s", os.Getenv("SLURM_ARRAY_JOB_ID"), os.Getenv("SLURM_ARRAY_TASK_ID"))
 		sum, err := w.ArrayTask(ctx, o.submission, o.arrayTask, sopt, report)
-		return conquerEnd(ctx, out, w, sum, err, true)
+		return conquerEnd(ctx, out, cmd.ErrOrStderr(), w, sum, err, true)
 	}
 	if o.slurm {
 		return conquerSlurm(cmd, w, o)
@@ -141,13 +141,13 @@ func runConquer(cmd *cobra.Command, o *conquerOptions) error {
 	rem := w.Remaining()
 	fmt.Fprintf(out, "%d of %d cubes to decide, %d at a time\n", len(rem), len(w.Cubes), jobs)
 	sum, err := w.RunCubes(ctx, rem, jobs, sopt, report)
-	return conquerEnd(ctx, out, w, sum, err, false)
+	return conquerEnd(ctx, out, cmd.ErrOrStderr(), w, sum, err, false)
 }
 
 // conquerEnd prints the outcome of a run of cubes and maps it to the exit status.
-func conquerEnd(ctx contextT, out io.Writer, w *cubejob.Work, sum cubejob.Summary, err error, task bool) error {
+func conquerEnd(ctx contextT, out, errOut io.Writer, w *cubejob.Work, sum cubejob.Summary, err error, task bool) error {
 	if ierr := interruption(ctx); ierr != nil {
-		fmt.Fprintf(out, "interrupted: %d cubes done in this run; the others run again at the next conquer\n", sum.Done)
+		fmt.Fprintf(errOut, "conquer: %d cubes done in this run; the others run again at the next conquer\n", sum.Done)
 		return ierr
 	}
 	if err != nil {
@@ -211,7 +211,7 @@ func conquerSlurm(cmd *cobra.Command, w *cubejob.Work, o *conquerOptions) error 
 		}
 		select {
 		case <-ctx.Done():
-			fmt.Fprintf(out, "interrupted while waiting; job %s goes on (scancel %s stops it)\n", s.SlurmID, s.SlurmID)
+			fmt.Fprintf(cmd.ErrOrStderr(), "conquer: stopped waiting; job %s goes on (scancel %s stops it)\n", s.SlurmID, s.SlurmID)
 			return interruption(ctx)
 		case <-time.After(time.Second):
 		}

@@ -58,6 +58,18 @@ func TestCubeBundleTampering(t *testing.T) {
 			p := m.Refutation.Cubes.Entries[4].Proof.Member
 			files[p] = files[p][:len(files[p])/2]
 		}, "cube 5", "cube "},
+		{"one proof named for two cubes", func(m *Manifest, files map[string][]byte) {
+			cs := m.Refutation.Cubes
+			delete(files, cs.Entries[1].Proof.Member)
+			cs.Entries[1].Proof = cs.Entries[0].Proof
+			var kept []MemberEntry
+			for _, e := range m.Members {
+				if _, ok := files[e.Name]; ok {
+					kept = append(kept, e)
+				}
+			}
+			m.Members = kept
+		}, "manifest", "name the same member"},
 		{"a cube's literal negated", func(m *Manifest, files map[string][]byte) {
 			cs := m.Refutation.Cubes
 			text := string(files[cs.Member])

@@ -23,12 +23,12 @@ const (
 )
 
 // Rules lists the split rules.
-var Rules = []string{RuleLookahead, RuleOccurrence}
+var Rules = []string{RuleOccurrence, RuleLookahead}
 
 // SplitOptions controls Split.
 type SplitOptions struct {
 	Cubes      int    // the number of cubes wanted (at least 1)
-	Rule       string // RuleLookahead (default) or RuleOccurrence
+	Rule       string // RuleOccurrence (default) or RuleLookahead
 	Candidates int    // variables scored per node by RuleLookahead (0 = 32)
 }
 
@@ -55,7 +55,10 @@ func Split(ctx context.Context, cnf *dimacs.CNF, opt SplitOptions) ([]Cube, *Spl
 	}
 	switch opt.Rule {
 	case "":
-		opt.Rule = RuleLookahead
+		// The default by measurement (README, "Speed"): on the claim
+		// where splitting paid, it gave the smaller total and the
+		// smaller largest cube at 16, 64 and 256 cubes.
+		opt.Rule = RuleOccurrence
 	case RuleLookahead, RuleOccurrence:
 	default:
 		return nil, nil, fmt.Errorf("cube: unknown split rule %q (expected %s or %s)", opt.Rule, RuleLookahead, RuleOccurrence)

@@ -177,7 +177,7 @@ func Create(ctx context.Context, dir string, opt CreateOptions) (*Work, *cube.Sp
 		}
 		rule = opt.Split.Rule
 		if rule == "" {
-			rule = cube.RuleLookahead
+			rule = cube.RuleOccurrence
 		}
 	}
 	if len(cubes) > archive.MaxCubes {

@@ -421,7 +421,12 @@ func TestManyCubes(t *testing.T) {
 	if testing.Short() {
 		t.Skip("300 cubes")
 	}
-	w := newWork(t, fixture.Complete(7), 3, 300, nil)
+	w, _, err := Create(context.Background(), filepath.Join(t.TempDir(), "work"), CreateOptions{
+		Graph: fixture.Complete(7), Encoding: dimacs.Options{Kind: cert.Stack, Pages: 3},
+		Split: cube.SplitOptions{Cubes: 300, Rule: cube.RuleLookahead}, ToolVersion: "test"})
+	if err != nil {
+		t.Fatal(err)
+	}
 	if len(w.Cubes) != 300 {
 		t.Fatalf("%d cubes", len(w.Cubes))
 	}

@@ -24,7 +24,7 @@
 #
 # Usage: scripts/cubes.sh
 # Environment: CLAIMS (default "k70 k135 K9P4T"), CUBES (default
-#              "16 64 256"), RULES (default "lookahead occurrence"),
+#              "16 64 256"), RULES (default "occurrence lookahead"),
 #              JOBS (conquer --jobs of the table, default 2),
 #              SPEEDUP_CLAIM (default: the first claim), TINY_CUBES (default 240),
 #              LIMIT (seconds per command, default 900), MEM_KB (ulimit -v,
@@ -40,7 +40,7 @@ limit=${LIMIT:-900}
 mem=${MEM_KB:-16777216}
 read -r -a claims <<<"${CLAIMS:-k70 k135 K9P4T}"
 read -r -a cubes <<<"${CUBES:-16 64 256}"
-read -r -a rules <<<"${RULES:-lookahead occurrence}"
+read -r -a rules <<<"${RULES:-occurrence lookahead}"
 jobs=${JOBS:-2}
 speedup=${SPEEDUP_CLAIM:-${claims[0]}}
 tiny=${TINY_CUBES:-240}

@@ -39,9 +39,9 @@ the cubes (one "a LIT … 0" line each), and job.json, which records the
 claim, the encoder and options, and the SHA-256 of every file.
 
 The cubes are the leaves of a complete binary decision tree grown by a split
-rule (--rule lookahead: the variable whose two branches propagate most;
-occurrence: the most frequent free variable), so they are disjoint and cover
-every assignment by shape. --cube-file takes cubes made elsewhere; they must
+rule (--rule occurrence, the default: the most frequent free variable;
+lookahead: the variable whose two branches propagate most), so they are
+disjoint and cover every assignment by shape. --cube-file takes cubes made elsewhere; they must
 be pairwise disjoint, and their coverage is proved at gather time.
 
 With --subgraph (auto for graphs of more than 100 vertices) the claim is
@@ -67,7 +67,7 @@ Then run "spinecert conquer DIR" (on this machine or on Slurm) and
 				return usageErr(fmt.Errorf("--depth must be between 0 and 16 (2^16 cubes are the most one bundle holds), got %d", o.depth))
 			case o.out == "":
 				return usageErr(fmt.Errorf("-o DIR is required"))
-			case o.rule != cube.RuleLookahead && o.rule != cube.RuleOccurrence:
+			case o.rule != cube.RuleOccurrence && o.rule != cube.RuleLookahead:
 				return usageErr(fmt.Errorf("--rule %q: expected %s", o.rule, strings.Join(cube.Rules, " or ")))
 			case o.cands < 1:
 				return usageErr(fmt.Errorf("--candidates must be at least 1"))
@@ -89,7 +89,7 @@ Then run "spinecert conquer DIR" (on this machine or on Slurm) and
 	fl := cmd.Flags()
 	fl.IntVar(&o.cubes, "cubes", 0, "number of cubes")
 	fl.IntVar(&o.depth, "depth", 0, "depth of the decision tree: 2^D cubes")
-	fl.StringVar(&o.rule, "rule", cube.RuleLookahead, "split rule: "+strings.Join(cube.Rules, " or "))
+	fl.StringVar(&o.rule, "rule", cube.RuleOccurrence, "split rule: "+strings.Join(cube.Rules, " or "))
 	fl.IntVar(&o.cands, "candidates", 32, "lookahead: variables scored at each node")
 	fl.StringVar(&o.cubeFile, "cube-file", "", `cubes made elsewhere ("a LIT … 0" per line) instead of a split`)
 	fl.StringVarP(&o.out, "output", "o", "", "the work directory to create (must not exist, or be empty)")

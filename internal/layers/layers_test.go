@@ -55,6 +55,7 @@ var testOnly = map[string][]string{
 	"planar/planarcert": {"planar"},
 	"toughcert":         {"planar"},
 	"archive":           {"verify", "planar"},
+	"cube":              {"cert"},
 }
 
 func TestPackagesImportOnlyEarlierStages(t *testing.T) {

@@ -480,3 +480,43 @@ func TestSubmitWithoutSlurm(t *testing.T) {
 		t.Fatal("a failed submission left its record")
 	}
 }
+
+// TestSubgraphJob refutes a graph through a subgraph: K7 inside K8 minus an
+// edge. K8 − e contains K7, whose book thickness is 4 (Bernhart and Kainen
+// 1979), so K8 − e has no 3-page layout either.
+func TestSubgraphJob(t *testing.T) {
+	var edges [][2]int
+	for i := range 8 {
+		for j := i + 1; j < 8; j++ {
+			if i != 0 || j != 7 {
+				edges = append(edges, [2]int{i, j})
+			}
+		}
+	}
+	g := fixture.Numbered(8, edges)
+	h := fixture.Numbered(7, fixture.EdgePairs(fixture.Complete(7)))
+	w, _, err := Create(context.Background(), filepath.Join(t.TempDir(), "work"), CreateOptions{
+		Graph: g, Subgraph: h, Encoding: dimacs.Options{Kind: cert.Stack, Pages: 3}, Split: cube.SplitOptions{Cubes: 8}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if w, err = Open(w.Dir); err != nil || w.Subgraph == nil || w.Target().N() != 7 {
+		t.Fatalf("reopened: %v", err)
+	}
+	runAll(t, w)
+	out, err := bundle(t, w)
+	if err != nil {
+		t.Fatal(err)
+	}
+	rep := archive.VerifyFile(context.Background(), out, archive.VerifyOptions{})
+	if !rep.Verified || rep.Manifest.Refutation.Subgraph == nil || rep.Manifest.Claim.Vertices != 8 || rep.Manifest.Claim.K != 4 {
+		t.Fatalf("verified %v, manifest %+v: %+v", rep.Verified, rep.Manifest.Claim, rep.Failures())
+	}
+	// A "subgraph" that is not one is refused.
+	other := fixture.Numbered(3, [][2]int{{0, 1}, {1, 2}, {0, 2}})
+	other = fixture.WithBase(other, 20)
+	if _, _, err := Create(context.Background(), filepath.Join(t.TempDir(), "bad"), CreateOptions{
+		Graph: g, Subgraph: other, Encoding: dimacs.Options{Kind: cert.Stack, Pages: 2}, Split: cube.SplitOptions{Cubes: 2}}); err == nil {
+		t.Fatal("a graph that is not a subgraph was accepted")
+	}
+}

@@ -5,11 +5,13 @@ import (
 	"path/filepath"
 	"testing"
 
+	"spinecert.dev/archive"
 	"spinecert.dev/cert"
 	"spinecert.dev/cube"
 	"spinecert.dev/dimacs"
 	"spinecert.dev/internal/fixture"
 	"spinecert.dev/internal/fixture/backends"
+	"spinecert.dev/proof"
 )
 
 // fullTree returns the 2^depth leaves of the complete decision tree that
@@ -89,4 +91,85 @@ func BenchmarkOpen(b *testing.B) {
 			b.Fatal(err)
 		}
 	}
+}
+
+// BenchmarkBesideProofs measures what gather and verify spend per cube
+// apart from checking proofs, on 256 cubes of K7 at 3 pages:
+//
+//   - evidence: Work.Evidence, gather's checks before archive.Build (every
+//     result read and its proof hashed, coverage);
+//   - write: writing the bundle's members (hashing and compressing);
+//   - verify-records: archive.Verify with every cube's outcome supplied
+//     (CubeOutcome), so that no proof is checked: streaming, hashing, the
+//     graph, the CNF re-encoded, coverage;
+//   - verify: archive.Verify with its proof checks, for comparison.
+//
+//	go test ./cubejob -run '^$' -bench BesideProofs -benchtime 5x
+func BenchmarkBesideProofs(b *testing.B) {
+	w, _, err := Create(context.Background(), filepath.Join(b.TempDir(), "work"), CreateOptions{
+		Graph: fixture.Complete(7), Encoding: dimacs.Options{Kind: cert.Stack, Pages: 3},
+		Split: cube.SplitOptions{Cubes: 256, Rule: cube.RuleLookahead}, ToolVersion: "bench"})
+	if err != nil {
+		b.Fatal(err)
+	}
+	if _, err := w.RunCubes(context.Background(), w.Remaining(), 2, SolveOptions{Solvers: backends.InProcess(b)}, nil); err != nil {
+		b.Fatal(err)
+	}
+	n := float64(len(w.Cubes))
+	tmp := b.TempDir()
+	ev, cleanup, err := w.Evidence(context.Background(), GatherOptions{})
+	if err != nil {
+		b.Fatal(err)
+	}
+	defer cleanup()
+	ev.ToolVersion, ev.Tool = "bench", "bench"
+	_, srcs, err := archive.Build(context.Background(), ev, archive.CurrentEncoder{}, tmp)
+	if err != nil {
+		b.Fatal(err)
+	}
+	out := filepath.Join(tmp, "b"+archive.Suffix)
+	if err := archive.WriteFile(context.Background(), out, srcs); err != nil {
+		b.Fatal(err)
+	}
+	outcomes := map[int]proof.Outcome{}
+	archive.VerifyFile(context.Background(), out, archive.VerifyOptions{CubeChecked: func(i int, _ string, o proof.Outcome) { outcomes[i] = o }})
+	perCube := func(b *testing.B) { b.ReportMetric(b.Elapsed().Seconds()*1e3/float64(b.N)/n, "ms/cube") }
+	b.Run("evidence", func(b *testing.B) {
+		for b.Loop() {
+			if _, c, err := w.Evidence(context.Background(), GatherOptions{}); err != nil {
+				b.Fatal(err)
+			} else {
+				c()
+			}
+		}
+		perCube(b)
+	})
+	b.Run("write", func(b *testing.B) {
+		for b.Loop() {
+			if err := archive.WriteFile(context.Background(), filepath.Join(tmp, "w"+archive.Suffix), srcs); err != nil {
+				b.Fatal(err)
+			}
+		}
+		perCube(b)
+	})
+	b.Run("verify-records", func(b *testing.B) {
+		for b.Loop() {
+			rep := archive.VerifyFile(context.Background(), out, archive.VerifyOptions{CubeOutcome: func(i int, _ string) (proof.Outcome, bool) {
+				o, ok := outcomes[i]
+				return o, ok
+			}})
+			if !rep.Verified {
+				b.Fatal("not verified")
+			}
+		}
+		perCube(b)
+	})
+	b.Run("verify", func(b *testing.B) {
+		for b.Loop() {
+			if !archive.VerifyFile(context.Background(), out, archive.VerifyOptions{}).Verified {
+				b.Fatal("not verified")
+			}
+		}
+		perCube(b)
+	})
 }

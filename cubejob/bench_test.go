@@ -98,13 +98,16 @@ func BenchmarkOpen(b *testing.B) {
 //
 //   - evidence: Work.Evidence, gather's checks before archive.Build (every
 //     result read and its proof hashed, coverage);
+//
 //   - write: writing the bundle's members (hashing and compressing);
+//
 //   - verify-records: archive.Verify with every cube's outcome supplied
 //     (CubeOutcome), so that no proof is checked: streaming, hashing, the
 //     graph, the CNF re-encoded, coverage;
+//
 //   - verify: archive.Verify with its proof checks, for comparison.
 //
-//	go test ./cubejob -run '^$' -bench BesideProofs -benchtime 5x
+//     go test ./cubejob -run '^$' -bench BesideProofs -benchtime 5x
 func BenchmarkBesideProofs(b *testing.B) {
 	w, _, err := Create(context.Background(), filepath.Join(b.TempDir(), "work"), CreateOptions{
 		Graph: fixture.Complete(7), Encoding: dimacs.Options{Kind: cert.Stack, Pages: 3},

@@ -287,7 +287,7 @@ func (w *Work) writeSubmission(s *Submission) error {
 }
 
 // ArrayTask runs array task t of submission seq: its slice of cubes, one
-// at a time. On a satisfiable cube it cancels the rest of the job array
+// at a time, or SLURM_CPUS_PER_TASK at a time when Slurm gave it more CPUs. On a satisfiable cube it cancels the rest of the job array
 // with scancel (best effort: the other tasks also stop when they see
 // refuted.json).
 func (w *Work) ArrayTask(ctx context.Context, seq, t int, opt SolveOptions, report func(Event)) (Summary, error) {
@@ -298,7 +298,13 @@ func (w *Work) ArrayTask(ctx context.Context, seq, t int, opt SolveOptions, repo
 	if t < 0 || t >= s.Tasks() {
 		return Summary{}, fmt.Errorf("cubejob: submission %d has array tasks 0 to %d, not %d", seq, s.Tasks()-1, t)
 	}
-	sum, err := w.RunCubes(ctx, s.Slice(t), 1, opt, report)
+	// A task given several CPUs (sbatch --cpus-per-task) decides that many
+	// cubes of its slice at once.
+	jobs := 1
+	if n, err := strconv.Atoi(os.Getenv("SLURM_CPUS_PER_TASK")); err == nil && n > 1 {
+		jobs = n
+	}
+	sum, err := w.RunCubes(ctx, s.Slice(t), jobs, opt, report)
 	if sum.Refuted != nil {
 		if id := os.Getenv("SLURM_ARRAY_JOB_ID"); id != "" {
 			_ = exec.Command("scancel", id).Run()

@@ -27,7 +27,7 @@ func (f *slurmFlags) add(cmd *cobra.Command) {
 	fl.StringVar(&f.partition, "partition", "", "--slurm: the partition (default: the cluster's)")
 	fl.StringVar(&f.timeLimit, "time", "", "--slurm: time limit of each array task, as sbatch --time takes it")
 	fl.StringVar(&f.mem, "mem", "", "--slurm: memory of each array task, as sbatch --mem takes it")
-	fl.IntVar(&f.cpus, "cpus-per-task", 0, "--slurm: CPUs of each array task")
+	fl.IntVar(&f.cpus, "cpus-per-task", 0, "--slurm: CPUs of each array task (it decides that many of its cubes at once)")
 	fl.StringArrayVar(&f.sbatchArgs, "sbatch-arg", nil, "--slurm: one more sbatch argument (repeatable)")
 	fl.IntVar(&f.perTask, "cubes-per-task", 1, "--slurm: cubes each array task takes")
 	fl.IntVar(&f.maxRunning, "max-running", 0, "--slurm: array tasks running at once (0 = as the scheduler allows)")

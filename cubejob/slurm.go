@@ -287,8 +287,9 @@ func (w *Work) writeSubmission(s *Submission) error {
 }
 
 // ArrayTask runs array task t of submission seq: its slice of cubes, one
-// at a time, or SLURM_CPUS_PER_TASK at a time when Slurm gave it more CPUs. On a satisfiable cube it cancels the rest of the job array
-// with scancel (best effort: the other tasks also stop when they see
+// at a time, or SLURM_CPUS_PER_TASK at a time when Slurm gave it more
+// CPUs. On a satisfiable cube it cancels the rest of the job array with
+// scancel (best effort: the other tasks also stop when they see
 // refuted.json).
 func (w *Work) ArrayTask(ctx context.Context, seq, t int, opt SolveOptions, report func(Event)) (Summary, error) {
 	s, err := w.ReadSubmission(seq)

@@ -14,7 +14,10 @@ import (
 // certified RAT verification", CADE 2017). A text DRAT lemma holds a single
 // 0 and a DRAT deletion starts with "d", so neither is taken for LRAT. A
 // DRAT proof with several lemmas on its first line reads as LRAT; such a
-// proof must be named as DRAT by the caller.
+// proof must be named as DRAT by the caller. When the prefix ends inside
+// that line (a clause or hint list longer than the prefix), the part seen
+// decides: LRAT when a 0 is followed by more fields; a line cut before its
+// first 0 reads as DRAT.
 func Detect(prefix []byte) string {
 	if DetectFormat(prefix) == DRATBinary {
 		return DRATBinary
@@ -24,12 +27,42 @@ func Detect(prefix []byte) string {
 		if len(fields) == 0 || fields[0][0] == 'c' {
 			continue
 		}
+		if !bytes.HasSuffix(line, []byte("\n")) {
+			// The prefix ends inside this line: its last field may be cut,
+			// and its end is not seen.
+			if cutLRATLine(fields[:len(fields)-1]) {
+				return LRAT
+			}
+			return DRAT
+		}
 		if lratLine(fields) {
 			return LRAT
 		}
 		return DRAT
 	}
 	return DRAT
+}
+
+// cutLRATLine reports whether the first fields of a line that the prefix
+// cuts short have LRAT's shape: a step number, then "d", or a 0 with more
+// fields after it (a text DRAT lemma holds its single 0 at the end). A
+// line cut before its first 0 cannot be told apart, and counts as DRAT.
+func cutLRATLine(fields [][]byte) bool {
+	if len(fields) < 2 {
+		return false
+	}
+	if id, err := strconv.ParseInt(string(fields[0]), 10, 64); err != nil || id <= 0 {
+		return false
+	}
+	if string(fields[1]) == "d" {
+		return true
+	}
+	for i, f := range fields[1:] {
+		if string(f) == "0" {
+			return i+2 < len(fields)
+		}
+	}
+	return false
 }
 
 // lratLine reports whether the fields of one proof line have LRAT's shape.

@@ -2,6 +2,7 @@ package proof
 
 import (
 	"bytes"
+	"strings"
 	"testing"
 )
 
@@ -21,6 +22,13 @@ func TestDetect(t *testing.T) {
 		{"comments only", "c nothing\n", DRAT},
 		{"binary drat", "d\xff\x7f\x00", DRATBinary},
 		{"binary example", "\x64\x7f\x83\x80\x01\x00\x61\x82\x02\xff\x7f\x00", DRATBinary},
+		// First lines longer than the prefix a caller reads (common
+		// practice: 64 KiB heads), cut in the middle of a number.
+		{"lrat long hints, cut", "9 -2 3 0 " + strings.Repeat("12345 ", 20000)[:65536], LRAT},
+		{"lrat long deletion, cut", "9 d " + strings.Repeat("12345 ", 20000)[:65536], LRAT},
+		{"drat long lemma, cut", strings.Repeat("-12345 ", 20000)[:65536], DRAT},
+		{"lrat last line without newline", "5 -2 0 4 3 0", LRAT},
+		{"drat last line without newline", "-2 0", DRAT},
 	} {
 		if got := Detect([]byte(c.proof)); got != c.want {
 			t.Errorf("%s: Detect = %s, want %s", c.name, got, c.want)

@@ -297,8 +297,8 @@ func printSolveReport(w io.Writer, claim string, gv *verify.GraphVerdict) {
 	}
 	for _, c := range v.Checked {
 		label := "checked"
-		if strings.Contains(c, " not checked: ") {
-			label = "note" // a proof left unchecked is not a finding of a check
+		if strings.Contains(c, " not checked: ") || strings.Contains(c, " gave no answer: ") {
+			label = "note" // a proof left unchecked, or a run without an answer, is not a finding of a check
 		}
 		fmt.Fprintf(w, "  %s: %s\n", label, c)
 	}

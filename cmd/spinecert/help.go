@@ -38,6 +38,26 @@ const helpTemplate = `{{with (or .Long .Short)}}{{. | trimTrailingWhitespaces}}
 "{{.CommandPath}} COMMAND -h" describes one command.{{end}}
 `
 
+// completionHelp says, for each shell, how to load spinecert's completion
+// script, in spinecert's words.
+var completionHelp = map[string]string{
+	"bash": "Write the bash completion script on stdout. It needs bash's completion support\n" +
+		"(Debian's bash-completion). For this shell:\n\n" +
+		"    source <(spinecert completion bash)\n\n" +
+		"For every new shell, keep the script where bash-completion looks:\n\n" +
+		"    spinecert completion bash > ~/.local/share/bash-completion/completions/spinecert",
+	"zsh": "Write the zsh completion script on stdout. With compinit enabled, keep it as\n" +
+		"_spinecert in a directory of $fpath:\n\n" +
+		"    spinecert completion zsh > \"${fpath[1]}/_spinecert\"",
+	"fish": "Write the fish completion script on stdout. For this shell:\n\n" +
+		"    spinecert completion fish | source\n\n" +
+		"For every new shell:\n\n" +
+		"    spinecert completion fish > ~/.config/fish/completions/spinecert.fish",
+	"powershell": "Write the PowerShell completion script on stdout. For this shell:\n\n" +
+		"    spinecert completion powershell | Out-String | Invoke-Expression\n\n" +
+		"For every new shell, add that line to your PowerShell profile.",
+}
+
 // setHelp gives root and every command under it spinecert's help and usage
 // layout, its own help command, and its own words for the help, version and
 // completion entries. Call it after the subcommands are added.
@@ -57,6 +77,7 @@ func setHelp(root *cobra.Command) {
 				"says how to load it."
 			for _, sh := range c.Commands() {
 				sh.Short = "Write the completion script for " + sh.Name()
+				sh.Long = completionHelp[sh.Name()]
 			}
 		}
 	}

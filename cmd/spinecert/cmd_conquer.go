@@ -64,8 +64,8 @@ directory and (when jobs were submitted) squeue.`,
 				return usageErr(fmt.Errorf("--jobs must not be negative, got %d", o.jobs))
 			case o.wait && !o.slurm:
 				return usageErr(fmt.Errorf("--wait goes with --slurm"))
-			case o.json && !o.status:
-				return usageErr(fmt.Errorf("--json goes with --status"))
+			case o.json && o.slurm && !o.status:
+				return usageErr(fmt.Errorf("--json goes with --status or a local run"))
 			case cmd.Flags().Changed("array-task") != cmd.Flags().Changed("submission"):
 				return usageErr(fmt.Errorf("--array-task and --submission go together"))
 			}
@@ -88,7 +88,7 @@ directory and (when jobs were submitted) squeue.`,
 	o.sl.add(cmd)
 	fl.BoolVar(&o.wait, "wait", false, "--slurm: wait until the job array has left the queue, then show the status")
 	fl.BoolVar(&o.status, "status", false, "show the cubes done, running, queued and remaining, and do nothing else")
-	fl.BoolVar(&o.json, "json", false, "--status: print one JSON object")
+	fl.BoolVar(&o.json, "json", false, "print one JSON object on stdout (the status, or the summary of a local run)")
 	fl.IntVar(&o.arrayTask, "array-task", 0, "run one array task of a submission (used by the job array)")
 	fl.IntVar(&o.submission, "submission", 0, "the submission of --array-task")
 	_ = fl.MarkHidden("array-task")
@@ -116,6 +116,9 @@ func runConquer(cmd *cobra.Command, o *conquerOptions) error {
 	}
 	sopt := cubejob.SolveOptions{Solvers: solvers, Limit: o.solver.timeLimit, Task: "local"}
 	report := func(e cubejob.Event) {
+		if o.json {
+			return
+		}
 		switch e.Outcome {
 		case cubejob.Done:
 			fmt.Fprintf(out, "cube %d: refuted, proof checked\n", e.Cube+1)
@@ -139,6 +142,30 @@ func runConquer(cmd *cobra.Command, o *conquerOptions) error {
 		jobs = runtime.NumCPU()
 	}
 	rem := w.Remaining()
+	if o.json {
+		sum, err := w.RunCubes(ctx, rem, jobs, sopt, report)
+		if ierr := interruption(ctx); ierr != nil {
+			return ierr
+		}
+		if err != nil {
+			return err
+		}
+		left := len(w.Remaining())
+		j := conquerRunJSON{Dir: w.Dir, Total: len(w.Cubes), Done: sum.Done, Undecided: sum.Failed, Remaining: left, Refuted: errors.Is(sum.Refuted, cubejob.ErrRefuted)}
+		if sum.Refuted != nil {
+			j.Detail = sum.Refuted.Error()
+		}
+		if err := writeJSON(out, j); err != nil {
+			return err
+		}
+		switch {
+		case j.Refuted:
+			return refuted(nil)
+		case sum.Refuted != nil || left > 0:
+			return undecided(nil)
+		}
+		return nil
+	}
 	fmt.Fprintf(out, "%d of %d cubes to decide, %d at a time\n", len(rem), len(w.Cubes), jobs)
 	sum, err := w.RunCubes(ctx, rem, jobs, sopt, report)
 	return conquerEnd(ctx, out, cmd.ErrOrStderr(), w, sum, err, false)
@@ -231,6 +258,17 @@ func conquerSlurm(cmd *cobra.Command, w *cubejob.Work, o *conquerOptions) error 
 	}
 	fmt.Fprintf(out, "every cube is refuted; next: spinecert gather %s -o NAME%s\n", w.Dir, archive.Suffix)
 	return nil
+}
+
+// conquerRunJSON is the --json output of a local run.
+type conquerRunJSON struct {
+	Dir       string `json:"dir"`
+	Total     int    `json:"total"`
+	Done      int    `json:"done_in_this_run"`
+	Undecided int    `json:"undecided"`
+	Remaining int    `json:"remaining"`
+	Refuted   bool   `json:"claim_refuted"`
+	Detail    string `json:"detail,omitempty"`
 }
 
 // conquerStatusJSON is the --status --json output.

@@ -17,6 +17,15 @@ type gatherOptions struct {
 	jobs   int
 	name   string
 	dir    string
+	json   bool
+}
+
+// gatherJSON is the --json output of gather.
+type gatherJSON struct {
+	Bundle   string `json:"bundle"`
+	Claim    string `json:"claim"`
+	Cubes    int    `json:"cubes"`
+	Coverage string `json:"coverage"`
 }
 
 func newGatherCmd() *cobra.Command {
@@ -55,6 +64,7 @@ lemmas its check used, when that is smaller) and the coverage evidence.`,
 	cmd.Flags().StringVarP(&o.out, "output", "o", "", "the bundle to write")
 	cmd.Flags().IntVar(&o.jobs, "jobs", 0, "proofs checked at the same time (0 = one per CPU)")
 	cmd.Flags().StringVar(&o.name, "name", "", "a label of the graph for people (recorded, not checked; default: the job's)")
+	cmd.Flags().BoolVar(&o.json, "json", false, "print one JSON object on stdout")
 	return cmd
 }
 
@@ -78,8 +88,7 @@ func runGather(cmd *cobra.Command, o *gatherOptions) error {
 	}
 	switch {
 	case errors.Is(err, cubejob.ErrRefuted):
-		fmt.Fprintf(cmd.OutOrStdout(), "the claim is refuted: %v\n", err)
-		return refuted(nil)
+		return refuted(err)
 	case errors.Is(err, cubejob.ErrIncomplete):
 		return undecided(err)
 	case errors.Is(err, archive.ErrRejected):
@@ -88,6 +97,9 @@ func runGather(cmd *cobra.Command, o *gatherOptions) error {
 		return err
 	}
 	cs := m.Refutation.Cubes
+	if o.json {
+		return writeJSON(cmd.OutOrStdout(), gatherJSON{Bundle: o.out, Claim: archive.ClaimText(m), Cubes: cs.Count, Coverage: cs.Coverage.Method})
+	}
 	fmt.Fprintf(cmd.OutOrStdout(), "wrote %s: %s\nevidence: %d cubes, each refuted with a checked proof; coverage: %s\n",
 		o.out, archive.ClaimText(m), cs.Count, cs.Coverage.Method)
 	return nil

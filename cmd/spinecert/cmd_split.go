@@ -26,6 +26,27 @@ type splitOptions struct {
 	out      string
 	name     string
 	input    string
+	json     bool
+}
+
+// splitJSON is the --json output of split.
+type splitJSON struct {
+	Dir      string `json:"dir"`
+	Job      string `json:"job"`
+	GraphID  string `json:"graph_id"`
+	Kind     string `json:"kind"`
+	Pages    int    `json:"pages"`
+	Cubes    int    `json:"cubes"`
+	Rule     string `json:"rule"`
+	Shape    string `json:"shape"`
+	Vars     int    `json:"vars"`
+	Clauses  int    `json:"clauses"`
+	CNF      string `json:"cnf_sha256"`
+	Subgraph *struct {
+		Vertices int `json:"vertices"`
+		Edges    int `json:"edges"`
+	} `json:"subgraph,omitempty"`
+	Closed int `json:"closed_by_propagation"`
 }
 
 func newSplitCmd() *cobra.Command {
@@ -94,6 +115,7 @@ Then run "spinecert conquer DIR" (on this machine or on Slurm) and
 	fl.StringVar(&o.cubeFile, "cube-file", "", `cubes made elsewhere ("a LIT … 0" per line) instead of a split`)
 	fl.StringVarP(&o.out, "output", "o", "", "the work directory to create (must not exist, or be empty)")
 	fl.StringVar(&o.name, "name", "", "a label of the graph for people (recorded, not checked)")
+	fl.BoolVar(&o.json, "json", false, "print one JSON object on stdout")
 	return cmd
 }
 
@@ -148,6 +170,20 @@ func runSplit(cmd *cobra.Command, o *splitOptions) error {
 		return usageErr(err)
 	}
 	out := cmd.OutOrStdout()
+	if o.json {
+		j := splitJSON{Dir: o.out, Job: w.ID, GraphID: g.ID(), Kind: opts.Kind.String(), Pages: opts.Pages, Cubes: len(w.Cubes),
+			Rule: w.Job.Cubes.Rule, Shape: w.Job.Cubes.Shape, Vars: w.CNF.Vars, Clauses: len(w.CNF.Clauses), CNF: w.Job.CNF.SHA256}
+		if w.Subgraph != nil {
+			j.Subgraph = &struct {
+				Vertices int `json:"vertices"`
+				Edges    int `json:"edges"`
+			}{w.Subgraph.N(), w.Subgraph.M()}
+		}
+		if stats != nil {
+			j.Closed = stats.Closed
+		}
+		return writeJSON(out, j)
+	}
 	fmt.Fprintf(out, "work directory %s: %d cubes (%s, %s) of the claim: %s has no %d-page %s layout\n",
 		o.out, len(w.Cubes), w.Job.Cubes.Rule, w.Job.Cubes.Shape, shortID(g.ID()), opts.Pages, opts.Kind)
 	if w.Subgraph != nil {

@@ -520,3 +520,17 @@ func TestSubgraphJob(t *testing.T) {
 		t.Fatal("a graph that is not a subgraph was accepted")
 	}
 }
+
+// A submission whose job ID was never recorded is looked up by its name.
+func TestCheckIdleByName(t *testing.T) {
+	w := newWork(t, fixture.Complete(7), 3, 2, nil)
+	if err := w.writeSubmission(&Submission{Seq: 1, Job: w.ID, PerTask: 1, Cubes: []int{1, 2}}); err != nil {
+		t.Fatal(err)
+	}
+	fake := filepath.Join(t.TempDir(), "squeue")
+	script := "#!/bin/sh\nfor a in \"$@\"; do [ \"$a\" = " + w.jobName() + " ] && echo '9_0 RUNNING'; done\nexit 0\n"
+	os.WriteFile(fake, []byte(script), 0o755)
+	if err := w.CheckIdle(context.Background(), fake); !errors.Is(err, ErrBusy) {
+		t.Fatalf("err = %v, want ErrBusy from the job found by its name", err)
+	}
+}

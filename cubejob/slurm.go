@@ -105,6 +105,16 @@ func (w *Work) CheckIdle(ctx context.Context, squeue string) error {
 	if err != nil {
 		return err
 	}
+	for _, s := range subs {
+		if s.SlurmID == "" && len(states) == 0 {
+			// A submission whose job ID was never recorded (conquer was
+			// stopped right after sbatch): look for the job by its name.
+			if states, err = jobStatesByName(ctx, w.jobName(), squeue); err != nil {
+				return err
+			}
+			break
+		}
+	}
 	if len(states) > 0 {
 		return fmt.Errorf("%w: array task %s is %s; wait for it, or cancel it with scancel", ErrBusy, states[0].ID, strings.ToLower(states[0].State))
 	}
@@ -134,6 +144,31 @@ func (w *Work) Queue(ctx context.Context, subs []*Submission, squeue string) ([]
 	return states, nil
 }
 
+// jobName is the name the work directory's job arrays are submitted under.
+func (w *Work) jobName() string { return "spinecert-" + short(w.ID)[:8] }
+
+// jobStatesByName asks squeue for the array tasks of the jobs of a name.
+func jobStatesByName(ctx context.Context, name, squeue string) ([]TaskState, error) {
+	if squeue == "" {
+		squeue = "squeue"
+	}
+	out, err := exec.CommandContext(ctx, squeue, "-h", "-r", "--name", name, "-o", "%i %T").Output()
+	if err != nil {
+		return nil, fmt.Errorf("cubejob: %s: %w", squeue, err)
+	}
+	return parseStates(out), nil
+}
+
+func parseStates(out []byte) []TaskState {
+	var states []TaskState
+	for _, line := range strings.Split(strings.TrimSpace(string(out)), "\n") {
+		if f := strings.Fields(line); len(f) == 2 {
+			states = append(states, TaskState{ID: f[0], State: f[1]})
+		}
+	}
+	return states
+}
+
 // JobStates asks squeue for the array tasks of one job still in the
 // queue; a job that has left it has none.
 func JobStates(ctx context.Context, id, squeue string) ([]TaskState, error) {
@@ -148,13 +183,7 @@ func JobStates(ctx context.Context, id, squeue string) ([]TaskState, error) {
 		}
 		return nil, fmt.Errorf("cubejob: %s: %w", squeue, err)
 	}
-	var states []TaskState
-	for _, line := range strings.Split(strings.TrimSpace(string(out)), "\n") {
-		if f := strings.Fields(line); len(f) == 2 {
-			states = append(states, TaskState{ID: f[0], State: f[1]})
-		}
-	}
-	return states, nil
+	return parseStates(out), nil
 }
 
 // Submit submits the cubes without a result as one Slurm job array: it
@@ -200,7 +229,7 @@ func (w *Work) Submit(ctx context.Context, opt SlurmOptions) (*Submission, error
 	if err := writeScript(script, fmt.Sprintf("spinecert conquer: one array task of submission %d of the work directory %s", s.Seq, dir), args); err != nil {
 		return nil, err
 	}
-	id, err := submitArray(ctx, opt, script, "spinecert-"+short(w.ID)[:8], s.Tasks(),
+	id, err := submitArray(ctx, opt, script, w.jobName(), s.Tasks(),
 		filepath.Join(dir, SlurmDir, fmt.Sprintf("submit-%03d-%%A_%%a.out", s.Seq)), dir)
 	if err != nil {
 		os.Remove(w.submissionPath(s.Seq))

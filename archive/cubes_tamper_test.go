@@ -7,6 +7,8 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
+
+	"spinecert.dev/dimacs"
 )
 
 // Altered bundles of a refutation split into cubes: each alteration below
@@ -105,5 +107,24 @@ func TestCubeBundleTampering(t *testing.T) {
 				t.Fatalf("no failing check %q with %q:\n%s", c.check, c.want, failNames(r))
 			}
 		})
+	}
+}
+
+// TestCubeBundleDrift: under an encoder that gives another CNF, the cube
+// proofs cannot be checked and the bundle fails, unless a re-solve of the
+// current encoding re-establishes the claim (Resolve, verify --resolve).
+func TestCubeBundleDrift(t *testing.T) {
+	orig, err := os.ReadFile(filepath.Join("..", "testdata", "bundles", "petersen-cubes.spinecert.tar.zst"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	enc := changedEncoder{"spinecert-enc-999", func(o *dimacs.Options) { o.NoRotation = true }}
+	r := Verify(context.Background(), bytes.NewReader(orig), "drift", VerifyOptions{Encoder: enc})
+	if r.Verified || r.Drift == nil {
+		t.Fatalf("verified %v, drift %+v under a changed encoder", r.Verified, r.Drift)
+	}
+	r = Verify(context.Background(), bytes.NewReader(orig), "drift", VerifyOptions{Encoder: enc, Resolve: resolveWithCadical(t)})
+	if !r.Verified || r.Drift == nil || !r.Drift.Resolved {
+		t.Fatalf("not re-established by re-solving: %s", failNames(r))
 	}
 }

@@ -628,11 +628,15 @@ func (v *verifier) finishProofs() bool {
 	if r == nil || v.g == nil {
 		return false
 	}
-	if r.Cubes != nil {
-		return v.finishCubes()
-	}
 	established := false
-	for _, p := range r.Proofs {
+	if r.Cubes != nil {
+		// The cube proofs establish the claim, or else a re-solve of the
+		// current encoding may (below), as for a single proof.
+		if established = v.finishCubes(); established || v.cur == nil || v.opt.Resolve == nil {
+			return established
+		}
+	}
+	for _, p := range r.Proofs { // none when the refutation is split into cubes
 		out, ok := v.outcomes[p.Member]
 		switch {
 		case !ok && v.target == nil && v.stored == nil:
@@ -691,7 +695,7 @@ func (v *verifier) finishProofs() bool {
 		}
 		// The stored proof's CNF no longer matters: the claim stands on the new proof.
 		for i, c := range v.rep.Checks {
-			if c.Status == StatusFail && (c.Name == "encoder drift" || c.Name == "cnf") {
+			if c.Status == StatusFail && (c.Name == "encoder drift" || c.Name == "cnf" || c.Name == "cubes" && strings.HasPrefix(c.Detail, cubesUnchecked)) {
 				v.rep.Checks[i].Status = StatusNote
 				v.rep.Checks[i].Detail += " (superseded by re-solving)"
 			}

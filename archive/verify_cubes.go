@@ -127,12 +127,16 @@ func (v *verifier) cubeMember(m Member, r io.Reader) error {
 	return nil
 }
 
+// cubesUnchecked starts the finding of cube proofs that had no CNF to be
+// checked against (a re-solve may supersede it).
+const cubesUnchecked = "the cube proofs were not checked"
+
 // finishCubes reports the cube proofs and tells whether the refutation by
 // cubes is established: coverage, and every cube's proof accepted.
 func (v *verifier) finishCubes() bool {
 	cs := v.m.Refutation.Cubes
 	if v.target == nil {
-		v.rep.add("cubes", StatusFail, "the cube proofs were not checked: there is no CNF of the claim to check them against")
+		v.rep.add("cubes", StatusFail, "%s: there is no CNF of the claim to check them against", cubesUnchecked)
 		return false
 	}
 	if v.cubes == nil {

@@ -112,12 +112,7 @@ func (w *Work) Evidence(ctx context.Context, opt GatherOptions) (*archive.Eviden
 			cleanup()
 			return nil, none, fmt.Errorf("%w: %s: %w", ErrBadWork, filepath.Join(w.Dir, CubesFile), cube.Uncovered(w.Cubes, gv.Verdict.Model))
 		case verify.Unsatisfiable:
-			for _, r := range gv.Results {
-				if slices.Contains(gv.Verdict.ProofsOK, r.Backend) && r.Proof != "" {
-					in.CoverageProof, in.CoverageFormat = r.Proof, r.ProofFormat
-					break
-				}
-			}
+			in.CoverageProof, in.CoverageFormat, _ = gv.CheckedProof()
 		default:
 			cleanup()
 			return nil, none, fmt.Errorf("cubejob: the coverage of the cubes is undecided: %s", joinNonEmpty(gv.Verdict.Conflict, gv.Verdict.Missing))

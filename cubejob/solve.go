@@ -8,7 +8,6 @@ import (
 	"io"
 	"os"
 	"path/filepath"
-	"slices"
 	"strings"
 	"time"
 
@@ -68,11 +67,7 @@ func (w *Work) SolveCube(ctx context.Context, i int, opt SolveOptions) (Outcome,
 	}
 	defer os.RemoveAll(tmp)
 	cnf := cube.Apply(w.CNF, w.Cubes[i])
-	policy := opt.Policy
-	if policy == (verify.Policy{}) {
-		policy = verify.DefaultPolicy()
-	}
-	gv, err := verify.DecideCNF(ctx, cnf, verify.GraphOptions{Solvers: opt.Solvers, Limit: opt.Limit, ProofDir: tmp, Policy: policy, StopOnModel: true, Sequential: !opt.Parallel})
+	gv, err := verify.DecideCNF(ctx, cnf, verify.GraphOptions{Solvers: opt.Solvers, Limit: opt.Limit, ProofDir: tmp, Policy: opt.Policy, StopOnModel: true, Sequential: !opt.Parallel})
 	if err != nil {
 		return Failed, "", err
 	}
@@ -94,22 +89,8 @@ func (w *Work) SolveCube(ctx context.Context, i int, opt SolveOptions) (Outcome,
 		}
 		return Failed, reason, nil
 	}
-	// The first backend whose proof passed both checkers.
-	var res *verify.Result
-	var check verify.ProofCheck
-	for _, c := range gv.Checks {
-		if c.Passed(policy) && slices.Contains(v.ProofsOK, c.Backend) {
-			check = c
-			break
-		}
-	}
-	for _, r := range gv.Results {
-		if r.Backend == check.Backend && r.Answer == verify.Unsat && r.Proof != "" {
-			res = r
-			break
-		}
-	}
-	if res == nil {
+	res, check, ok := gv.CheckedResult()
+	if !ok {
 		return Failed, "", fmt.Errorf("cubejob: cube %d: an unsatisfiable verdict without a proof that passed", i+1)
 	}
 	proofName := fmt.Sprintf("%06d.%s", i+1, check.Format)

@@ -150,17 +150,27 @@ func DecideLayout(ctx context.Context, g *graph.Graph, opt GraphOptions) (*Graph
 // checkers (the first such, in result order), and its format; ok is false
 // when no proof passed.
 func (gv *GraphVerdict) CheckedProof() (path, format string, ok bool) {
+	r, _, ok := gv.CheckedResult()
+	if !ok {
+		return "", "", false
+	}
+	return r.Proof, r.ProofFormat, true
+}
+
+// CheckedResult returns the first UNSAT result whose proof passed both
+// checkers, with that check.
+func (gv *GraphVerdict) CheckedResult() (*Result, ProofCheck, bool) {
 	for _, r := range gv.Results {
 		if r.Answer != Unsat || r.Proof == "" {
 			continue
 		}
 		for _, c := range gv.Checks {
 			if c.Backend == r.Backend && c.DRAT && c.LRAT {
-				return r.Proof, r.ProofFormat, true
+				return r, c, true
 			}
 		}
 	}
-	return "", "", false
+	return nil, ProofCheck{}, false
 }
 
 // SubgraphRecord describes the subgraph whose refutation a verdict is.

@@ -50,7 +50,23 @@ func (w *Work) Evidence(ctx context.Context, opt GatherOptions) (*archive.Eviden
 	if policy == (verify.Policy{}) {
 		policy = verify.DefaultPolicy()
 	}
-	if rem := w.Remaining(); len(rem) > 0 {
+	// One pass reads every result; the proofs are hashed only when every
+	// cube has one.
+	results := make([]*Result, len(w.Cubes))
+	var rem []int
+	why := "" // why the first cube without a result has none, when its result is there but bad
+	for i := range w.Cubes {
+		r, err := w.ReadResult(i, false)
+		if err != nil {
+			if len(rem) == 0 && !errors.Is(err, os.ErrNotExist) {
+				why = ": " + err.Error()
+			}
+			rem = append(rem, i)
+			continue
+		}
+		results[i] = r
+	}
+	if len(rem) > 0 {
 		var names []string
 		for _, i := range rem[:min(len(rem), 8)] {
 			names = append(names, fmt.Sprint(i+1))
@@ -59,17 +75,11 @@ func (w *Work) Evidence(ctx context.Context, opt GatherOptions) (*archive.Eviden
 		if len(rem) > 8 {
 			more = fmt.Sprintf(" and %d more", len(rem)-8)
 		}
-		// Say why the first one is not done, when its result is there but bad.
-		why := ""
-		if _, err := w.ReadResult(rem[0], false); err != nil && !errors.Is(err, os.ErrNotExist) {
-			why = ": " + err.Error()
-		}
 		return nil, none, fmt.Errorf("%w: %d of %d cubes (cube %s%s)%s", ErrIncomplete, len(rem), len(w.Cubes), strings.Join(names, ", "), more, why)
 	}
 	in := &archive.CubesInput{Cubes: w.Cubes, Jobs: opt.Jobs}
-	for i := range w.Cubes {
-		r, err := w.ReadResult(i, true)
-		if err != nil {
+	for i, r := range results {
+		if err := w.checkProofHash(i, r); err != nil {
 			return nil, none, err
 		}
 		var unsat []string

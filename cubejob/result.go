@@ -105,15 +105,24 @@ func (w *Work) ReadResult(i int, hash bool) (*Result, error) {
 		return nil, bad("its proof %s has %d bytes, the result records %d (truncated or replaced)", r.Proof.File, st.Size(), r.Proof.Size)
 	}
 	if hash {
-		sum, _, err := hashFile(pp)
-		if err != nil {
-			return nil, bad("%v", err)
-		}
-		if sum != r.Proof.SHA256 {
-			return nil, bad("its proof %s has SHA-256 %s, the result records %s", r.Proof.File, sum, r.Proof.SHA256)
+		if err := w.checkProofHash(i, r); err != nil {
+			return nil, err
 		}
 	}
 	return r, nil
+}
+
+// checkProofHash compares the proof of cube i's result r with the SHA-256
+// the result records.
+func (w *Work) checkProofHash(i int, r *Result) error {
+	sum, _, err := hashFile(w.ProofPath(r))
+	switch {
+	case err != nil:
+		return fmt.Errorf("%w: cube %d (%s): %v", ErrBadWork, i+1, w.resultPath(i), err)
+	case sum != r.Proof.SHA256:
+		return fmt.Errorf("%w: cube %d (%s): its proof %s has SHA-256 %s, the result records %s", ErrBadWork, i+1, w.resultPath(i), r.Proof.File, sum, r.Proof.SHA256)
+	}
+	return nil
 }
 
 // ProofPath returns the path of the proof of r.

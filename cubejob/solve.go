@@ -164,6 +164,7 @@ func (w *Work) storeLayout(i int, v *verify.Verdict, opt SolveOptions) (Outcome,
 		ErrRefuted, i+1, v.ModelFrom, l.Pages(), w.Job.Claim.Kind, filepath.Join(w.Dir, LayoutFile))
 }
 
+// joinNonEmpty joins the conflict (when there is one) and the lists with "; ".
 func joinNonEmpty(conflict string, lists ...[]string) string {
 	var parts []string
 	if conflict != "" {
@@ -175,11 +176,7 @@ func joinNonEmpty(conflict string, lists ...[]string) string {
 	if len(parts) == 0 {
 		return "no answer"
 	}
-	out := parts[0]
-	for _, p := range parts[1:] {
-		out += "; " + p
-	}
-	return out
+	return strings.Join(parts, "; ")
 }
 
 // IsRefuted reports whether err says the claim (or the job's subgraph) has a layout.

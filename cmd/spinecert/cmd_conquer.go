@@ -243,10 +243,10 @@ func conquerSlurm(cmd *cobra.Command, w *cubejob.Work, o *conquerOptions) error 
 		case <-time.After(time.Second):
 		}
 	}
-	if err := conquerStatus(cmd, w, o); err != nil {
+	st := w.Status(ctx, "")
+	if err := printStatus(cmd, w, o, st); err != nil {
 		return err
 	}
-	st := w.Status(ctx, "")
 	switch {
 	case st.Refuted != nil && w.Subgraph == nil:
 		fmt.Fprintf(out, "the claim is refuted: cube %d is satisfiable; the layout is in %s\n", st.Refuted.Cube, w.Dir+"/"+st.Refuted.Layout)
@@ -287,8 +287,12 @@ type conquerStatusJSON struct {
 }
 
 func conquerStatus(cmd *cobra.Command, w *cubejob.Work, o *conquerOptions) error {
+	return printStatus(cmd, w, o, w.Status(cmd.Context(), ""))
+}
+
+// printStatus prints st as text or, with --json, as one object.
+func printStatus(cmd *cobra.Command, w *cubejob.Work, o *conquerOptions, st *cubejob.Status) error {
 	out := cmd.OutOrStdout()
-	st := w.Status(cmd.Context(), "")
 	if o.json {
 		j := conquerStatusJSON{Dir: w.Dir, Total: st.Total, Done: st.Done, Running: st.Running, Queued: st.Queued,
 			Remaining: st.Remaining, Failed: st.Failed, Refuted: st.Refuted != nil, CPUSeconds: st.CPU}
@@ -300,7 +304,7 @@ func conquerStatus(cmd *cobra.Command, w *cubejob.Work, o *conquerOptions) error
 		}
 		return writeJSON(out, j)
 	}
-	fmt.Fprintf(out, "%s: %d cubes of the claim: %s has no %d-page %s layout\n", w.Dir, st.Total, shortID(w.Job.Claim.GraphID), w.Job.Claim.Pages, w.Job.Claim.Kind)
+	fmt.Fprintf(out, "%s: %d cubes of the claim: %s has no %d-page %s layout\n", w.Dir, st.Total, short(w.Job.Claim.GraphID), w.Job.Claim.Pages, w.Job.Claim.Kind)
 	fmt.Fprintf(out, "done %d, running %d, queued %d, remaining %d (undecided at the last attempt: %d)\n", st.Done, st.Running, st.Queued, st.Remaining, st.Failed)
 	if st.Done > 0 {
 		fmt.Fprintf(out, "solver CPU time of the done cubes: %.1f s\n", st.CPU)

@@ -10,7 +10,6 @@ import (
 	"spinecert.dev/archive"
 	"spinecert.dev/cube"
 	"spinecert.dev/cubejob"
-	"spinecert.dev/graph"
 	"spinecert.dev/verify"
 )
 
@@ -155,10 +154,7 @@ func runSplit(cmd *cobra.Command, o *splitOptions) error {
 			return err
 		}
 		if ob != nil && ob.Graph != nil && ob.Graph.N() < g.N() {
-			if err := graph.CheckSubgraph(ob.Graph, g); err != nil {
-				return err
-			}
-			copt.Subgraph = ob.Graph
+			copt.Subgraph = ob.Graph // cubejob.Create checks that it is one
 		}
 	}
 	w, stats, err := cubejob.Create(ctx, o.out, copt)
@@ -185,7 +181,7 @@ func runSplit(cmd *cobra.Command, o *splitOptions) error {
 		return writeJSON(out, j)
 	}
 	fmt.Fprintf(out, "work directory %s: %d cubes (%s, %s) of the claim: %s has no %d-page %s layout\n",
-		o.out, len(w.Cubes), w.Job.Cubes.Rule, w.Job.Cubes.Shape, shortID(g.ID()), opts.Pages, opts.Kind)
+		o.out, len(w.Cubes), w.Job.Cubes.Rule, w.Job.Cubes.Shape, short(g.ID()), opts.Pages, opts.Kind)
 	if w.Subgraph != nil {
 		fmt.Fprintf(out, "the CNF encodes a subgraph with no layout found by the quick solver: n=%d, m=%d of n=%d, m=%d\n", w.Subgraph.N(), w.Subgraph.M(), g.N(), g.M())
 	}
@@ -195,11 +191,4 @@ func runSplit(cmd *cobra.Command, o *splitOptions) error {
 	}
 	fmt.Fprintf(out, "next: spinecert conquer %s\n", o.out)
 	return nil
-}
-
-func shortID(id string) string {
-	if len(id) > 12 {
-		return id[:12]
-	}
-	return id
 }

@@ -2,6 +2,7 @@ package proof
 
 import (
 	"bytes"
+	"slices"
 	"strconv"
 )
 
@@ -30,43 +31,30 @@ func Detect(prefix []byte) string {
 		if !bytes.HasSuffix(line, []byte("\n")) {
 			// The prefix ends inside this line: its last field may be cut,
 			// and its end is not seen.
-			if cutLRATLine(fields[:len(fields)-1]) {
-				return LRAT
-			}
-			return DRAT
+			return detectedAs(lratShape(fields[:len(fields)-1], false))
 		}
-		if lratLine(fields) {
-			return LRAT
-		}
-		return DRAT
+		return detectedAs(lratShape(fields, true))
 	}
 	return DRAT
 }
 
-// cutLRATLine reports whether the first fields of a line that the prefix
-// cuts short have LRAT's shape: a step number, then "d", or a 0 with more
-// fields after it (a text DRAT lemma holds its single 0 at the end). A
-// line cut before its first 0 cannot be told apart, and counts as DRAT.
-func cutLRATLine(fields [][]byte) bool {
-	if len(fields) < 2 {
-		return false
+func detectedAs(lrat bool) string {
+	if lrat {
+		return LRAT
 	}
-	if id, err := strconv.ParseInt(string(fields[0]), 10, 64); err != nil || id <= 0 {
-		return false
-	}
-	if string(fields[1]) == "d" {
-		return true
-	}
-	for i, f := range fields[1:] {
-		if string(f) == "0" {
-			return i+2 < len(fields)
-		}
-	}
-	return false
+	return DRAT
 }
 
 // lratLine reports whether the fields of one proof line have LRAT's shape.
-func lratLine(fields [][]byte) bool {
+func lratLine(fields [][]byte) bool { return lratShape(fields, true) }
+
+// lratShape reports whether fields, the whole line or (whole false) the
+// start of a line that the prefix cuts short, have LRAT's shape: a step
+// number, then "d", or a clause ended by 0 with more fields after it (the
+// hints), the whole line ending in 0. A text DRAT lemma holds its single 0
+// at the end, so its 0 is never followed by more fields; a line cut
+// before its first 0 cannot be told apart, and counts as DRAT.
+func lratShape(fields [][]byte, whole bool) bool {
 	if len(fields) < 2 {
 		return false
 	}
@@ -76,11 +64,7 @@ func lratLine(fields [][]byte) bool {
 	if string(fields[1]) == "d" {
 		return true
 	}
-	zeros := 0
-	for _, f := range fields[1:] {
-		if string(f) == "0" {
-			zeros++
-		}
-	}
-	return zeros >= 2 && string(fields[len(fields)-1]) == "0"
+	zero := slices.IndexFunc(fields[1:], func(f []byte) bool { return string(f) == "0" }) + 1
+	followed := zero > 0 && zero < len(fields)-1
+	return followed && (!whole || string(fields[len(fields)-1]) == "0")
 }

@@ -4,15 +4,12 @@ package main
 
 import (
 	"bytes"
-	"errors"
-	"fmt"
 	"os"
 	"os/exec"
 	"path/filepath"
 	"strings"
 	"syscall"
 	"testing"
-	"time"
 )
 
 // TestInterruptConquer interrupts conquer while a cube's solver runs (a
@@ -32,47 +29,17 @@ func TestInterruptConquer(t *testing.T) {
 	if out, err := exec.Command(bin, "split", filepath.Join(dir, "g.edges"), "--pages", "3", "--cubes", "4", "-o", work).CombinedOutput(); err != nil {
 		t.Fatalf("split: %v\n%s", err, out)
 	}
-	started := filepath.Join(dir, "started")
-	hang := filepath.Join(dir, "hang.sh")
-	if err := os.WriteFile(hang, []byte(fmt.Sprintf("#!/bin/sh\n: > '%s'\nexec sleep 120\n", started)), 0o755); err != nil {
-		t.Fatal(err)
-	}
+	hang, started := hangingSolver(t, dir)
 	tmp := filepath.Join(dir, "tmp")
 	if err := os.Mkdir(tmp, 0o755); err != nil {
 		t.Fatal(err)
 	}
 	cmd := exec.Command(bin, "conquer", work, "--jobs", "1", "--solvers", "gini", "--solver-cmd", hang)
 	cmd.Env = append(os.Environ(), "TMPDIR="+tmp)
-	var stdout, stderr bytes.Buffer
-	cmd.Stdout, cmd.Stderr = &stdout, &stderr
-	if err := cmd.Start(); err != nil {
-		t.Fatal(err)
-	}
-	done := make(chan error, 1)
-	go func() { done <- cmd.Wait() }()
-	for deadline := time.Now().Add(time.Minute); ; {
-		if _, err := os.Stat(started); err == nil {
-			break
-		}
-		if time.Now().After(deadline) {
-			cmd.Process.Kill()
-			t.Fatalf("the hanging solver never started; stderr:\n%s", &stderr)
-		}
-		time.Sleep(20 * time.Millisecond)
-	}
-	if err := cmd.Process.Signal(syscall.SIGINT); err != nil {
-		t.Fatal(err)
-	}
-	var werr error
-	select {
-	case werr = <-done:
-	case <-time.After(time.Minute):
-		cmd.Process.Kill()
-		t.Fatalf("conquer did not stop within a minute; stderr:\n%s", &stderr)
-	}
-	var ee *exec.ExitError
-	if !errors.As(werr, &ee) || ee.ExitCode() != exitInterrupted {
-		t.Fatalf("exit %v, want status %d; stderr:\n%s", werr, exitInterrupted, &stderr)
+	var stderr bytes.Buffer
+	cmd.Stderr = &stderr
+	if got := signalWhenStarted(t, cmd, started, syscall.SIGINT, &stderr); got != exitInterrupted {
+		t.Fatalf("exit status %d, want %d; stderr:\n%s", got, exitInterrupted, &stderr)
 	}
 	if got := stderr.String(); !strings.HasSuffix(got, "spinecert: interrupted\n") {
 		t.Errorf("stderr does not end in \"spinecert: interrupted\":\n%s", got)

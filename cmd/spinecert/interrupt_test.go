@@ -56,12 +56,7 @@ func TestInterrupt(t *testing.T) {
 			if err := os.Mkdir(tmp, 0o755); err != nil {
 				t.Fatal(err)
 			}
-			started := filepath.Join(dir, "started")
-			hang := filepath.Join(dir, "hang.sh")
-			script := fmt.Sprintf("#!/bin/sh\n: > '%s'\nexec sleep 120\n", started)
-			if err := os.WriteFile(hang, []byte(script), 0o755); err != nil {
-				t.Fatal(err)
-			}
+			hang, started := hangingSolver(t, dir)
 			if err := os.WriteFile(filepath.Join(dir, "g.edges"), []byte(c.graph), 0o644); err != nil {
 				t.Fatal(err)
 			}
@@ -71,48 +66,11 @@ func TestInterrupt(t *testing.T) {
 			cmd.Env = append(os.Environ(), "TMPDIR="+tmp)
 			var stdout, stderr bytes.Buffer
 			cmd.Stdout, cmd.Stderr = &stdout, &stderr
-			if err := cmd.Start(); err != nil {
-				t.Fatal(err)
-			}
-			done := make(chan error, 1)
-			go func() { done <- cmd.Wait() }()
-			deadline := time.After(2 * time.Minute)
-		wait:
-			for {
-				select {
-				case err := <-done:
-					t.Fatalf("spinecert %s finished before the hanging solver started (%v); stdout:\n%s\nstderr:\n%s", strings.Join(args, " "), err, &stdout, &stderr)
-				case <-deadline:
-					cmd.Process.Kill()
-					t.Fatalf("the hanging solver never started; stderr:\n%s", &stderr)
-				case <-time.After(20 * time.Millisecond):
-					if _, err := os.Stat(started); err == nil {
-						break wait
-					}
-				}
-			}
 			want, word := exitInterrupted, "interrupted"
 			if c.sig == syscall.SIGTERM {
 				want, word = exitTerminated, "terminated"
 			}
-			if err := cmd.Process.Signal(c.sig); err != nil {
-				t.Fatal(err)
-			}
-			var werr error
-			select {
-			case werr = <-done:
-			case <-time.After(time.Minute):
-				cmd.Process.Kill()
-				t.Fatalf("spinecert did not stop within a minute of %v; stderr:\n%s", c.sig, &stderr)
-			}
-			var ee *exec.ExitError
-			if !errors.As(werr, &ee) {
-				t.Fatalf("exit: %v, want status %d; stderr:\n%s", werr, want, &stderr)
-			}
-			if ws, ok := ee.Sys().(syscall.WaitStatus); ok && ws.Signaled() {
-				t.Fatalf("spinecert was killed by %v instead of exiting with status %d", ws.Signal(), want)
-			}
-			if got := ee.ExitCode(); got != want {
+			if got := signalWhenStarted(t, cmd, started, c.sig, &stderr); got != want {
 				t.Fatalf("exit status %d, want %d; stderr:\n%s", got, want, &stderr)
 			}
 			if stdout.Len() != 0 {
@@ -140,6 +98,66 @@ func TestInterrupt(t *testing.T) {
 			}
 		})
 	}
+}
+
+// hangingSolver writes into dir a solver command that marks its start in
+// a file and then never answers; it returns the command and the mark.
+func hangingSolver(t *testing.T, dir string) (script, started string) {
+	t.Helper()
+	started = filepath.Join(dir, "started")
+	script = filepath.Join(dir, "hang.sh")
+	if err := os.WriteFile(script, []byte(fmt.Sprintf("#!/bin/sh\n: > '%s'\nexec sleep 120\n", started)), 0o755); err != nil {
+		t.Fatal(err)
+	}
+	return script, started
+}
+
+// signalWhenStarted starts cmd, sends it sig once the hanging solver has
+// marked its start (by then spinecert has installed its signal handling
+// and waits for that solver, so it cannot finish first) and returns its
+// exit status. The test fails if cmd ends before, the solver never starts,
+// cmd does not stop within a minute, or it is killed by the signal
+// instead of exiting.
+func signalWhenStarted(t *testing.T, cmd *exec.Cmd, started string, sig syscall.Signal, stderr *bytes.Buffer) int {
+	t.Helper()
+	if err := cmd.Start(); err != nil {
+		t.Fatal(err)
+	}
+	done := make(chan error, 1)
+	go func() { done <- cmd.Wait() }()
+	deadline := time.After(2 * time.Minute)
+wait:
+	for {
+		select {
+		case err := <-done:
+			t.Fatalf("spinecert %s finished before the hanging solver started (%v); stderr:\n%s", strings.Join(cmd.Args[1:], " "), err, stderr)
+		case <-deadline:
+			cmd.Process.Kill()
+			t.Fatalf("the hanging solver never started; stderr:\n%s", stderr)
+		case <-time.After(20 * time.Millisecond):
+			if _, err := os.Stat(started); err == nil {
+				break wait
+			}
+		}
+	}
+	if err := cmd.Process.Signal(sig); err != nil {
+		t.Fatal(err)
+	}
+	var werr error
+	select {
+	case werr = <-done:
+	case <-time.After(time.Minute):
+		cmd.Process.Kill()
+		t.Fatalf("spinecert did not stop within a minute of %v; stderr:\n%s", sig, stderr)
+	}
+	var ee *exec.ExitError
+	if !errors.As(werr, &ee) {
+		t.Fatalf("exit: %v, want a non-zero status; stderr:\n%s", werr, stderr)
+	}
+	if ws, ok := ee.Sys().(syscall.WaitStatus); ok && ws.Signaled() {
+		t.Fatalf("spinecert was killed by %v instead of exiting", ws.Signal())
+	}
+	return ee.ExitCode()
 }
 
 // completeGraph is K_n as an edge list.

@@ -18,20 +18,8 @@
 # so sacct does not work.
 set -euo pipefail
 
-# The daemons live in /usr/sbin, which a non-login root shell may lack.
-PATH=/usr/local/sbin:/usr/local/bin:/usr/sbin:/usr/bin:/sbin:/bin
-export PATH
-
-partition=spine
-conf=/etc/slurm/slurm.conf
-run_dir=/run/slurm
-log_dir=/var/log/slurm
-ctld_state=/var/spool/slurmctld
-slurmd_spool=/var/spool/slurmd
-ctld_pid=$run_dir/slurmctld.pid
-slurmd_pid=$run_dir/slurmd.pid
-munge_key=/etc/munge/munge.key
-munge_pid=/run/munge/munged.pid
+# shellcheck source=scripts/cluster-lib.sh
+. "$(dirname "$0")/cluster-lib.sh"
 marker="# Written by cluster-up.sh"
 
 say() { echo "cluster-up: $*"; }
@@ -85,34 +73,6 @@ alive() {
 	[ -n "$state" ] && [ "$state" != Z ]
 }
 
-# live_pids NAME: pids of live processes whose command name is exactly NAME.
-live_pids() {
-	local pid state
-	for pid in $(pgrep -x "$1" || true); do
-		state=$(sed 's/^.*) //' "/proc/$pid/stat" 2>/dev/null | cut -c1)
-		if [ -n "$state" ] && [ "$state" != Z ]; then echo "$pid"; fi
-	done
-	return 0
-}
-
-# stop NAME PIDFILE: stop the daemon of that name (the one in its pid file and
-# any stray copy, each by its pid): SIGTERM, up to 15 s, then SIGKILL.
-stop() {
-	local name=$1 pidfile=$2 pids pid i
-	pids=$(live_pids "$name")
-	[ -n "$pids" ] || { rm -f "$pidfile"; return 0; }
-	say "stopping $name (pid $(echo "$pids" | tr '\n' ' '| sed 's/ $//'))"
-	# SIGCONT too, in case a daemon was stopped (SIGSTOP) and hangs.
-	for pid in $pids; do { kill -TERM "$pid"; kill -CONT "$pid"; } 2>/dev/null || true; done
-	for ((i = 0; i < 75; i++)); do
-		[ -n "$(live_pids "$name")" ] || break
-		sleep 0.2
-	done
-	for pid in $(live_pids "$name"); do kill -KILL "$pid" 2>/dev/null || true; done
-	sleep 0.2
-	rm -f "$pidfile"
-}
-
 logs() {
 	local f
 	for f in "$log_dir/slurmctld.log" "$log_dir/slurmd.log" /var/log/munge/munged.log; do
@@ -145,7 +105,7 @@ chmod 0400 "$munge_key"
 
 munge_ok() { munge -n 2>/dev/null | unmunge >/dev/null 2>&1; }
 if [ "$restart" -eq 1 ] || [ -n "${restart_munge:-}" ] || ! alive "$munge_pid" munged || ! munge_ok; then
-	stop munged "$munge_pid"
+	stop munged "$munge_pid" quiet
 	say "starting munged"
 	# munged refuses to run as root without --force; run it as its own user.
 	runuser -u munge -- munged || fail "munged did not start"
@@ -232,13 +192,13 @@ fi
 # Restart both daemons when the configuration or the munge key changed, or
 # when asked to. (A restarted munged with the same key needs nothing more.)
 if [ "$conf_changed" -eq 1 ] || [ -n "${restart_munge:-}" ] || [ "$restart" -eq 1 ]; then
-	stop slurmd "$slurmd_pid"
-	stop slurmctld "$ctld_pid"
+	stop slurmd "$slurmd_pid" quiet
+	stop slurmctld "$ctld_pid" quiet
 fi
 
 ctld_ok() { alive "$ctld_pid" slurmctld && timeout 10 scontrol ping 2>/dev/null | grep -q 'is UP'; }
 if ! ctld_ok; then
-	stop slurmctld "$ctld_pid"
+	stop slurmctld "$ctld_pid" quiet
 	say "starting slurmctld"
 	# -i: a test cluster would rather lose unreadable state than not start.
 	slurmctld -i || fail "slurmctld did not start"
@@ -246,11 +206,11 @@ if ! ctld_ok; then
 	ctld_ok || fail "slurmctld does not answer scontrol ping"
 	# A running slurmd would only re-register after a few seconds; a fresh one
 	# registers at once. Running tasks survive this (they belong to slurmstepd).
-	stop slurmd "$slurmd_pid"
+	stop slurmd "$slurmd_pid" quiet
 fi
 
 start_slurmd() {
-	stop slurmd "$slurmd_pid"
+	stop slurmd "$slurmd_pid" quiet
 	say "starting slurmd"
 	slurmd -N "$host" || fail "slurmd did not start"
 	for ((i = 0; i < 50; i++)); do alive "$slurmd_pid" slurmd && return 0; sleep 0.2; done

@@ -129,7 +129,7 @@ func runConquer(cmd *cobra.Command, o *conquerOptions) error {
 	if cmd.Flags().Changed("array-task") {
 		sopt.Task = fmt.Sprintf("slurm %s_%s", os.Getenv("SLURM_ARRAY_JOB_ID"), os.Getenv("SLURM_ARRAY_TASK_ID"))
 		sum, err := w.ArrayTask(ctx, o.submission, o.arrayTask, sopt, report)
-		return conquerEnd(ctx, out, cmd.ErrOrStderr(), w, sum, err, true)
+		return conquerEnd(ctx, out, cmd.ErrOrStderr(), w, sum, err, true, false)
 	}
 	if o.slurm {
 		return conquerSlurm(cmd, w, o)
@@ -142,37 +142,15 @@ func runConquer(cmd *cobra.Command, o *conquerOptions) error {
 		jobs = runtime.NumCPU()
 	}
 	rem := w.Remaining()
-	if o.json {
-		sum, err := w.RunCubes(ctx, rem, jobs, sopt, report)
-		if ierr := interruption(ctx); ierr != nil {
-			return ierr
-		}
-		if err != nil {
-			return err
-		}
-		left := len(w.Remaining())
-		j := conquerRunJSON{Dir: w.Dir, Total: len(w.Cubes), Done: sum.Done, Undecided: sum.Failed, Remaining: left, Refuted: errors.Is(sum.Refuted, cubejob.ErrRefuted)}
-		if sum.Refuted != nil {
-			j.Detail = sum.Refuted.Error()
-		}
-		if err := writeJSON(out, j); err != nil {
-			return err
-		}
-		switch {
-		case j.Refuted:
-			return refuted(nil)
-		case sum.Refuted != nil || left > 0:
-			return undecided(nil)
-		}
-		return nil
+	if !o.json {
+		fmt.Fprintf(out, "%d of %d cubes to decide, %d at a time\n", len(rem), len(w.Cubes), jobs)
 	}
-	fmt.Fprintf(out, "%d of %d cubes to decide, %d at a time\n", len(rem), len(w.Cubes), jobs)
 	sum, err := w.RunCubes(ctx, rem, jobs, sopt, report)
-	return conquerEnd(ctx, out, cmd.ErrOrStderr(), w, sum, err, false)
+	return conquerEnd(ctx, out, cmd.ErrOrStderr(), w, sum, err, false, o.json)
 }
 
 // conquerEnd prints the outcome of a run of cubes and maps it to the exit status.
-func conquerEnd(ctx contextT, out, errOut io.Writer, w *cubejob.Work, sum cubejob.Summary, err error, task bool) error {
+func conquerEnd(ctx contextT, out, errOut io.Writer, w *cubejob.Work, sum cubejob.Summary, err error, task, asJSON bool) error {
 	if ierr := interruption(ctx); ierr != nil {
 		fmt.Fprintf(errOut, "conquer: %d cubes done in this run; the others run again at the next conquer\n", sum.Done)
 		return ierr
@@ -180,26 +158,41 @@ func conquerEnd(ctx contextT, out, errOut io.Writer, w *cubejob.Work, sum cubejo
 	if err != nil {
 		return err
 	}
+	claimRefuted := errors.Is(sum.Refuted, cubejob.ErrRefuted)
+	left := sum.Failed // an array task counts its own slice only
+	if !task {
+		left = len(w.Remaining())
+	}
 	switch {
-	case errors.Is(sum.Refuted, cubejob.ErrRefuted):
+	case asJSON:
+		j := conquerRunJSON{Dir: w.Dir, Total: len(w.Cubes), Done: sum.Done, Undecided: sum.Failed, Remaining: left, Refuted: claimRefuted}
+		if sum.Refuted != nil {
+			j.Detail = sum.Refuted.Error()
+		}
+		if err := writeJSON(out, j); err != nil {
+			return err
+		}
+	case claimRefuted:
 		fmt.Fprintf(out, "the claim is refuted: %v\n", sum.Refuted)
+	case sum.Refuted != nil:
+	case task:
+		fmt.Fprintf(out, "this array task: %d cubes done, %d already done before, %d undecided\n", sum.Done, sum.Skipped, sum.Failed)
+	default:
+		fmt.Fprintf(out, "%d cubes done in this run, %d undecided; %d of %d cubes remain\n", sum.Done, sum.Failed, left, len(w.Cubes))
+		if left == 0 {
+			fmt.Fprintf(out, "every cube is refuted; next: spinecert gather %s -o NAME%s\n", w.Dir, archive.Suffix)
+		}
+	}
+	switch {
+	case claimRefuted:
 		return refuted(nil)
 	case sum.Refuted != nil:
 		return undecided(sum.Refuted)
-	}
-	if task {
-		fmt.Fprintf(out, "this array task: %d cubes done, %d already done before, %d undecided\n", sum.Done, sum.Skipped, sum.Failed)
-		if sum.Failed > 0 {
-			return undecided(fmt.Errorf("%d cubes of this array task are undecided", sum.Failed))
-		}
-		return nil
-	}
-	left := len(w.Remaining())
-	fmt.Fprintf(out, "%d cubes done in this run, %d undecided; %d of %d cubes remain\n", sum.Done, sum.Failed, left, len(w.Cubes))
-	if left > 0 {
+	case task && left > 0:
+		return undecided(fmt.Errorf("%d cubes of this array task are undecided", left))
+	case left > 0:
 		return undecided(fmt.Errorf("%d cubes without a result: run conquer again (a larger --time-limit may help)", left))
 	}
-	fmt.Fprintf(out, "every cube is refuted; next: spinecert gather %s -o NAME%s\n", w.Dir, archive.Suffix)
 	return nil
 }
 

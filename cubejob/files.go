@@ -1,12 +1,16 @@
 package cubejob
 
 import (
+	"bytes"
 	"crypto/sha256"
 	"encoding/hex"
+	"encoding/json"
 	"fmt"
 	"io"
 	"os"
 	"path/filepath"
+
+	"spinecert.dev/textpos"
 )
 
 // Names of the files of a work directory.
@@ -81,4 +85,20 @@ func hashFile(path string) (string, int64, error) {
 		return "", 0, err
 	}
 	return hex.EncodeToString(h.Sum(nil)), n, nil
+}
+
+// decodeJSON reads the JSON object in data (the file at path) into v
+// strictly, as every reader of the work directory does: no unknown,
+// repeated or case-variant keys, nothing after the object. Errors name
+// the file.
+func decodeJSON(data []byte, path string, v any) error {
+	dec := json.NewDecoder(bytes.NewReader(data))
+	dec.DisallowUnknownFields()
+	if err := dec.Decode(v); err != nil {
+		return fmt.Errorf("%s: %v", path, err)
+	}
+	if dec.More() {
+		return fmt.Errorf("%s: data after the JSON object", path)
+	}
+	return textpos.CheckJSONKeys(data, path, v)
 }

@@ -14,7 +14,6 @@ import (
 	"spinecert.dev/cube"
 	"spinecert.dev/dimacs"
 	"spinecert.dev/graph"
-	"spinecert.dev/textpos"
 )
 
 // JobFormat and JobVersion identify the job manifest schema.
@@ -390,15 +389,7 @@ func parseJob(data []byte, path string) (*Job, error) {
 		return fmt.Errorf("%w: %s: %s", ErrBadWork, path, fmt.Sprintf(format, args...))
 	}
 	job := &Job{}
-	dec := json.NewDecoder(bytes.NewReader(data))
-	dec.DisallowUnknownFields()
-	if err := dec.Decode(job); err != nil {
-		return nil, bad("%v", err)
-	}
-	if dec.More() {
-		return nil, bad("data after the JSON object")
-	}
-	if err := textpos.CheckJSONKeys(data, path, job); err != nil {
+	if err := decodeJSON(data, path, job); err != nil {
 		return nil, fmt.Errorf("%w: %w", ErrBadWork, err)
 	}
 	if job.Format != JobFormat || job.FormatVersion != JobVersion {

@@ -534,3 +534,17 @@ func TestCheckIdleByName(t *testing.T) {
 		t.Fatalf("err = %v, want ErrBusy from the job found by its name", err)
 	}
 }
+
+// Every JSON file of the work directory is read strictly: a repeated key
+// in a submission or in refuted.json is refused, naming the file.
+func TestStrictRecords(t *testing.T) {
+	w := newWork(t, fixture.Complete(7), 3, 2, nil)
+	os.WriteFile(w.submissionPath(1), []byte(`{"seq":1,"job":"`+w.ID+`","per_task":1,"cubes":[1],"Cubes":[2]}`), 0o644)
+	if _, err := w.ReadSubmission(1); !errors.Is(err, ErrBadWork) || !strings.Contains(err.Error(), "submit-001.json") {
+		t.Fatalf("submission: err = %v", err)
+	}
+	os.WriteFile(filepath.Join(w.Dir, RefutedFile), []byte(`{"job":"`+w.ID+`","cube":1,"cube":2,"backend":"x","layout":"layout.json","pages":3}`), 0o644)
+	if _, err := w.ReadRefuted(); !errors.Is(err, ErrBadWork) || !strings.Contains(err.Error(), RefutedFile) {
+		t.Fatalf("refuted.json: err = %v", err)
+	}
+}

@@ -1,15 +1,12 @@
 package cubejob
 
 import (
-	"bytes"
-	"encoding/json"
 	"errors"
 	"fmt"
 	"os"
 	"path/filepath"
 
 	"spinecert.dev/archive"
-	"spinecert.dev/textpos"
 )
 
 // Result is the finished, checked result of one cube: the formula ∧ cube
@@ -150,8 +147,8 @@ func (w *Work) ReadRefuted() (*RefutedRecord, error) {
 		return nil, fmt.Errorf("cubejob: %w", err)
 	}
 	r := &RefutedRecord{}
-	if err := json.Unmarshal(data, r); err != nil {
-		return nil, fmt.Errorf("%w: %s: %v", ErrBadWork, RefutedFile, err)
+	if err := decodeJSON(data, filepath.Join(w.Dir, RefutedFile), r); err != nil {
+		return nil, fmt.Errorf("%w: %w", ErrBadWork, err)
 	}
 	if r.Job != w.ID {
 		return nil, fmt.Errorf("%w: %s: a record of another job", ErrBadWork, RefutedFile)
@@ -179,15 +176,7 @@ func refutedErr(w *Work, rec *RefutedRecord) error {
 // parseResult reads a result file strictly (see parseJob).
 func parseResult(data []byte, path string) (*Result, error) {
 	r := &Result{}
-	dec := json.NewDecoder(bytes.NewReader(data))
-	dec.DisallowUnknownFields()
-	if err := dec.Decode(r); err != nil {
-		return nil, fmt.Errorf("%s: %v", path, err)
-	}
-	if dec.More() {
-		return nil, fmt.Errorf("%s: data after the JSON object", path)
-	}
-	if err := textpos.CheckJSONKeys(data, path, r); err != nil {
+	if err := decodeJSON(data, path, r); err != nil {
 		return nil, err
 	}
 	if r.Proof.Size < 0 || r.Cube < 1 {

@@ -75,8 +75,8 @@ func (w *Work) ReadSubmission(seq int) (*Submission, error) {
 		return nil, fmt.Errorf("cubejob: %w", err)
 	}
 	s := &Submission{}
-	if err := json.Unmarshal(data, s); err != nil {
-		return nil, fmt.Errorf("%w: %s: %v", ErrBadWork, w.submissionPath(seq), err)
+	if err := decodeJSON(data, w.submissionPath(seq), s); err != nil {
+		return nil, fmt.Errorf("%w: %w", ErrBadWork, err)
 	}
 	if s.Job != w.ID || s.Seq != seq || s.PerTask < 1 {
 		return nil, fmt.Errorf("%w: %s: not submission %d of this job", ErrBadWork, w.submissionPath(seq), seq)

@@ -77,7 +77,7 @@ func OpenVerifyJob(dir string) (*VerifyJob, error) {
 		return nil, fmt.Errorf("cubejob: %w", err)
 	}
 	j := &VerifyJob{Dir: dir}
-	if err := json.Unmarshal(data, j); err != nil || j.PerTask < 1 || j.Cubes < 1 {
+	if err := decodeJSON(data, filepath.Join(dir, VerifyJobFile), j); err != nil || j.PerTask < 1 || j.Cubes < 1 {
 		return nil, fmt.Errorf("%w: %s: not a verify job (%v)", ErrBadWork, filepath.Join(dir, VerifyJobFile), err)
 	}
 	sum, _, err := hashFile(j.Bundle)
@@ -119,7 +119,7 @@ func (j *VerifyJob) Outcome(cube int, proofSHA string) (proof.Outcome, bool) {
 		return proof.Outcome{}, false
 	}
 	var rec CheckRecord
-	if err := json.Unmarshal(data, &rec); err != nil || rec.Bundle != j.SHA256 || rec.Cube != cube+1 || rec.Proof != proofSHA {
+	if err := decodeJSON(data, j.recordPath(cube), &rec); err != nil || rec.Bundle != j.SHA256 || rec.Cube != cube+1 || rec.Proof != proofSHA {
 		return proof.Outcome{}, false
 	}
 	out := proof.Outcome{Format: rec.Format, DRAT: rec.DRAT, LRAT: rec.LRAT, Lemmas: rec.Lemmas, Core: rec.Core, Detail: rec.Detail}

@@ -3,8 +3,6 @@ package archive
 import (
 	"bytes"
 	"context"
-	"crypto/sha256"
-	"encoding/hex"
 	"fmt"
 	"slices"
 	"sync"
@@ -146,11 +144,6 @@ func buildCubes(ctx context.Context, r *Refutation, in *CubesInput, cnf *dimacs.
 	}
 	r.Cubes = cs
 	return append(srcs, cubeSrcs...), nil
-}
-
-func sha256Hex(b []byte) string {
-	h := sha256.Sum256(b)
-	return hex.EncodeToString(h[:])
 }
 
 // validateCubes applies the manifest rules of a refutation by cubes.

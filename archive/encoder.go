@@ -2,8 +2,6 @@ package archive
 
 import (
 	"bytes"
-	"crypto/sha256"
-	"encoding/hex"
 	"encoding/json"
 	"fmt"
 
@@ -60,8 +58,7 @@ func CNFText(cnf *dimacs.CNF) ([]byte, string, error) {
 	if _, err := cnf.WriteTo(&buf); err != nil {
 		return nil, "", fmt.Errorf("archive: writing cnf: %w", err)
 	}
-	h := sha256.Sum256(buf.Bytes())
-	return buf.Bytes(), hex.EncodeToString(h[:]), nil
+	return buf.Bytes(), sha256Hex(buf.Bytes()), nil
 }
 
 // encoderOptionsJSON is dimacs.Options as recorded in a manifest. Every

@@ -3,8 +3,6 @@ package archive
 import (
 	"bytes"
 	"context"
-	"crypto/sha256"
-	"encoding/hex"
 	"fmt"
 	"io"
 	"os"
@@ -535,9 +533,8 @@ func (v *verifier) loadStored(e CNFEntry) {
 		v.rep.add("stored cnf", StatusFail, "member %s is missing", e.Member)
 		return
 	}
-	h := sha256.Sum256(data)
-	if hex.EncodeToString(h[:]) != e.SHA256 {
-		v.rep.add("stored cnf", StatusFail, "%s has SHA-256 %s, the manifest records %s", e.Member, hex.EncodeToString(h[:]), e.SHA256)
+	if got := sha256Hex(data); got != e.SHA256 {
+		v.rep.add("stored cnf", StatusFail, "%s has SHA-256 %s, the manifest records %s", e.Member, got, e.SHA256)
 		return
 	}
 	cnf, err := dimacs.ReadCNF(bytes.NewReader(data), e.Member, dimacs.ReadOptions{})

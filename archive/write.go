@@ -267,3 +267,9 @@ func createTemp(path string) (*os.File, error) {
 	}
 	return nil, fmt.Errorf("no unused temporary file name in %s", filepath.Dir(path))
 }
+
+// sha256Hex is the SHA-256 of b in lowercase hex, as manifests record it.
+func sha256Hex(b []byte) string {
+	h := sha256.Sum256(b)
+	return hex.EncodeToString(h[:])
+}

@@ -188,6 +188,21 @@ func Build(ctx context.Context, ev *Evidence, enc Encoder, tmpDir string) (*Mani
 	return m, append(srcs, BytesSource(ManifestName, mb)), nil
 }
 
+// BuildFile is Build followed by WriteFile: it checks the evidence and
+// writes the bundle to path atomically, nothing unless every check passed.
+// tmpDir holds Build's converted and trimmed proofs until the bundle is
+// written; the caller removes it.
+func BuildFile(ctx context.Context, ev *Evidence, enc Encoder, tmpDir, path string) (*Manifest, error) {
+	m, srcs, err := Build(ctx, ev, enc, tmpDir)
+	if err != nil {
+		return nil, err
+	}
+	if err := WriteFile(ctx, path, srcs); err != nil {
+		return nil, err
+	}
+	return m, nil
+}
+
 // pad returns the kind of added page i of a layout of kind k.
 func pad(k cert.Kind, mixed []cert.Kind, i int) cert.Kind {
 	if k == cert.Mixed && i < len(mixed) {

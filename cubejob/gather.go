@@ -167,12 +167,5 @@ func (w *Work) Bundle(ctx context.Context, out string, opt GatherOptions, toolVe
 		return nil, err
 	}
 	ev.ToolVersion, ev.Tool = toolVersion, "spinecert gather"
-	m, srcs, err := archive.Build(ctx, ev, archive.CurrentEncoder{}, tmp)
-	if err != nil {
-		return nil, err
-	}
-	if err := archive.WriteFile(ctx, out, srcs); err != nil {
-		return nil, err
-	}
-	return m, nil
+	return archive.BuildFile(ctx, ev, archive.CurrentEncoder{}, tmp, out)
 }

@@ -95,14 +95,7 @@ func Make(ctx context.Context, r *Request, out string) (*archive.Manifest, error
 	if err != nil {
 		return nil, err
 	}
-	m, srcs, err := archive.Build(ctx, ev, archive.CurrentEncoder{}, tmp)
-	if err != nil {
-		return nil, err
-	}
-	if err := archive.WriteFile(ctx, out, srcs); err != nil {
-		return nil, err
-	}
-	return m, nil
+	return archive.BuildFile(ctx, ev, archive.CurrentEncoder{}, tmp, out)
 }
 
 // Validate checks the claim of r (for FindExact, the rules of an exact

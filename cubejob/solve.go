@@ -81,7 +81,7 @@ func (w *Work) SolveCube(ctx context.Context, i int, opt SolveOptions) (Outcome,
 		return w.storeLayout(i, v, opt)
 	case verify.Unsatisfiable:
 	default:
-		reason := "undecided: " + joinNonEmpty(v.Conflict, v.Missing, v.Checked)
+		reason := "undecided: " + joinNonEmpty(v.Conflict, v.Missing, v.Checked, v.Notes)
 		f := Failure{Job: w.ID, Cube: i + 1, Reason: reason, Host: host, Task: opt.Task}
 		data, _ := json.MarshalIndent(f, "", "  ")
 		if err := writeAtomic(filepath.Join(w.Dir, FailuresDir, resultName(i)), append(data, '\n')); err != nil {

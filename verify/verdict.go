@@ -73,6 +73,7 @@ type Verdict struct {
 	UnsatBy   []string `json:"unsat_by,omitempty"`   // backends that said UNSAT
 	ProofsOK  []string `json:"proofs_ok,omitempty"`  // backends whose proof passed the checks
 	Checked   []string `json:"checked,omitempty"`    // what was checked, for people
+	Notes     []string `json:"notes,omitempty"`      // what was not checked or gave no answer, for people
 	Missing   []string `json:"missing,omitempty"`    // what a decision still lacks (Undecided only)
 	Conflict  string   `json:"conflict,omitempty"`   // the contradiction, when the backends disagree
 }
@@ -134,7 +135,7 @@ func Decide(results []*Result, checks []ProofCheck, p Policy) *Verdict {
 	for _, c := range checks {
 		switch {
 		case c.Skipped != "":
-			v.Checked = append(v.Checked, fmt.Sprintf("proof from %s not checked: %s", c.Backend, c.Skipped))
+			v.Notes = append(v.Notes, fmt.Sprintf("proof from %s not checked: %s", c.Backend, c.Skipped))
 		case c.Passed(p):
 			what := "passed spinecert's DRAT checker"
 			if c.LRAT {
@@ -157,7 +158,7 @@ func Decide(results []*Result, checks []ProofCheck, p Policy) *Verdict {
 	}
 	for _, r := range results {
 		if r.Answer == Unknown && !r.Suspect {
-			v.Checked = append(v.Checked, fmt.Sprintf("%s gave no answer: %s", r.Backend, r.Detail))
+			v.Notes = append(v.Notes, fmt.Sprintf("%s gave no answer: %s", r.Backend, r.Detail))
 		}
 	}
 	if len(v.Missing) == 0 {

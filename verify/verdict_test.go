@@ -60,7 +60,7 @@ func TestDecide(t *testing.T) {
 			if v.Outcome != tt.outcome {
 				t.Errorf("outcome %s, want %s (%+v)", v.Outcome, tt.outcome, v)
 			}
-			text := strings.Join(append(append(append([]string{}, v.Checked...), v.Missing...), v.Conflict), "\n")
+			text := strings.Join(append(append(append(append([]string{}, v.Checked...), v.Notes...), v.Missing...), v.Conflict), "\n")
 			for _, c := range tt.contains {
 				if !strings.Contains(text, c) {
 					t.Errorf("no %q in\n%s", c, text)

@@ -72,7 +72,7 @@ func TestSplitConquerGatherVerify(t *testing.T) {
 	if sum.Done != 16 || sum.Failed != 0 || sum.Refuted != nil {
 		t.Fatalf("summary %+v, want 16 done", sum)
 	}
-	if st := w.Status(context.Background(), "squeue-absent"); st.Done != 16 || st.Remaining != 0 || st.Stale != 0 {
+	if st := w.Status(context.Background(), "squeue-absent"); st.Done != 16 || st.Remaining != 0 || st.Scratch != 0 {
 		t.Fatalf("status %+v", st)
 	}
 	out, err := bundle(t, w)

@@ -19,7 +19,6 @@ type Result struct {
 	Cube     int           `json:"cube"` // 1-based index in cubes.txt
 	Literals string        `json:"literals"`
 	Runs     []archive.Run `json:"runs"`
-	UnsatBy  []string      `json:"unsat_by"`
 	Proof    ProofFile     `json:"proof"`
 	// For the benchmarks and --status; not part of any bundle.
 	CPUSeconds  float64 `json:"cpu_seconds"`  // solver CPU time of all runs

@@ -105,7 +105,7 @@ func (w *Work) SolveCube(ctx context.Context, i int, opt SolveOptions) (Outcome,
 	if err := os.Rename(res.Proof, final); err != nil {
 		return Failed, "", fmt.Errorf("cubejob: %w", err)
 	}
-	r := Result{Job: w.ID, Cube: i + 1, Literals: w.Cubes[i].String(), UnsatBy: v.UnsatBy,
+	r := Result{Job: w.ID, Cube: i + 1, Literals: w.Cubes[i].String(),
 		Proof:       ProofFile{File: proofName, Backend: check.Backend, Format: check.Format, Size: size, SHA256: sum, Lemmas: check.Lemmas, Core: check.Core},
 		WallSeconds: time.Since(start).Seconds(), Host: host, Task: opt.Task}
 	for _, x := range gv.Results {

@@ -19,9 +19,8 @@ type Status struct {
 	Refuted   *RefutedRecord
 	Tasks     []TaskState // what squeue reports for the directory's jobs
 	QueueErr  error       // why squeue could not be asked (nil when it was, or no job was submitted)
-	Stale     int         // scratch directories left by tasks that were killed or are still running
+	Scratch   int         // scratch directories of tasks that are running, or were killed
 	CPU       float64     // solver CPU seconds of the done cubes
-	Wall      float64     // wall seconds of the done cubes
 }
 
 // Status reads the work directory and, when jobs were submitted, the
@@ -56,7 +55,6 @@ func (w *Work) Status(ctx context.Context, squeue string) *Status {
 		if r, err := w.ReadResult(i, false); err == nil {
 			st.Done++
 			st.CPU += r.CPUSeconds
-			st.Wall += r.WallSeconds
 			continue
 		}
 		switch inTask[i] {
@@ -73,7 +71,7 @@ func (w *Work) Status(ctx context.Context, squeue string) *Status {
 		}
 	}
 	if entries, err := os.ReadDir(filepath.Join(w.Dir, TmpDir)); err == nil {
-		st.Stale = len(entries)
+		st.Scratch = len(entries)
 	}
 	return st
 }

@@ -275,6 +275,7 @@ type conquerStatusJSON struct {
 	Failed     int      `json:"failed"`
 	Refuted    bool     `json:"refuted"`
 	CPUSeconds float64  `json:"cpu_seconds"`
+	Scratch    int      `json:"scratch_dirs"`
 	Tasks      []string `json:"tasks,omitempty"`
 	Queue      string   `json:"queue_error,omitempty"`
 }
@@ -288,7 +289,7 @@ func printStatus(cmd *cobra.Command, w *cubejob.Work, o *conquerOptions, st *cub
 	out := cmd.OutOrStdout()
 	if o.json {
 		j := conquerStatusJSON{Dir: w.Dir, Total: st.Total, Done: st.Done, Running: st.Running, Queued: st.Queued,
-			Remaining: st.Remaining, Failed: st.Failed, Refuted: st.Refuted != nil, CPUSeconds: st.CPU}
+			Remaining: st.Remaining, Failed: st.Failed, Refuted: st.Refuted != nil, CPUSeconds: st.CPU, Scratch: st.Scratch}
 		for _, t := range st.Tasks {
 			j.Tasks = append(j.Tasks, t.ID+" "+t.State)
 		}
@@ -301,6 +302,9 @@ func printStatus(cmd *cobra.Command, w *cubejob.Work, o *conquerOptions, st *cub
 	fmt.Fprintf(out, "done %d, running %d, queued %d, remaining %d (undecided at the last attempt: %d)\n", st.Done, st.Running, st.Queued, st.Remaining, st.Failed)
 	if st.Done > 0 {
 		fmt.Fprintf(out, "solver CPU time of the done cubes: %.1f s\n", st.CPU)
+	}
+	if st.Scratch > 0 {
+		fmt.Fprintf(out, "scratch directories in %s: %d (of tasks running, or killed; removed before cubes are run or submitted again)\n", w.Dir+"/tmp", st.Scratch)
 	}
 	if st.Refuted != nil {
 		fmt.Fprintf(out, "cube %d is satisfiable: a %d-page layout is in %s (checked when it was found)\n", st.Refuted.Cube, st.Refuted.Pages, w.Dir+"/"+st.Refuted.Layout)

@@ -86,7 +86,7 @@ func Split(ctx context.Context, cnf *dimacs.CNF, opt SplitOptions) ([]Cube, *Spl
 		}
 		v, ok := s.choose(lf.path)
 		if !ok {
-			lf.closed, lf.full = s.closed, !s.closed
+			lf.full = true
 			done = append(done, lf)
 			continue
 		}
@@ -123,11 +123,10 @@ func treeLess(a, b Cube) bool {
 }
 
 type splitter struct {
-	p      *propagator
-	opt    SplitOptions
-	stats  *SplitStats
-	order  []int32 // variables by decreasing occurrence
-	closed bool    // the last replayed path is refuted by propagation
+	p     *propagator
+	opt   SplitOptions
+	stats *SplitStats
+	order []int32 // variables by decreasing occurrence
 }
 
 // replay sets the propagator to the decisions of path; false means
@@ -146,12 +145,11 @@ func (s *splitter) replay(path Cube) bool {
 	return true
 }
 
-// choose returns the variable to split the leaf at path on.
+// choose returns the variable to split the open leaf at path on (its
+// decisions propagated without a conflict when the leaf was made), or false
+// when propagation leaves no variable free.
 func (s *splitter) choose(path Cube) (int32, bool) {
-	s.closed = !s.replay(path)
-	if s.closed {
-		return 0, false
-	}
+	s.replay(path)
 	var cands []int32
 	for _, v := range s.order {
 		if s.p.val[v] == 0 {

@@ -526,15 +526,26 @@ func (v *verifier) subgraph(e *SubgraphEntry) *graph.Graph {
 	return h
 }
 
+// heldMember returns a member held in memory if it is there with the SHA-256 the
+// manifest records; otherwise it reports the failure under check (why, if
+// not empty, says more about a missing member).
+func (v *verifier) heldMember(check, member, sum, why string) ([]byte, bool) {
+	data, ok := v.files[member]
+	switch {
+	case !ok:
+		v.rep.add(check, StatusFail, "member %s is missing%s", member, why)
+	case sha256Hex(data) != sum:
+		v.rep.add(check, StatusFail, "%s has SHA-256 %s, the manifest records %s", member, sha256Hex(data), sum)
+	default:
+		return data, true
+	}
+	return nil, false
+}
+
 // loadStored reads a CNF stored in the bundle, if its hash is the recorded one.
 func (v *verifier) loadStored(e CNFEntry) {
-	data, ok := v.files[e.Member]
+	data, ok := v.heldMember("stored cnf", e.Member, e.SHA256, "")
 	if !ok {
-		v.rep.add("stored cnf", StatusFail, "member %s is missing", e.Member)
-		return
-	}
-	if got := sha256Hex(data); got != e.SHA256 {
-		v.rep.add("stored cnf", StatusFail, "%s has SHA-256 %s, the manifest records %s", e.Member, got, e.SHA256)
 		return
 	}
 	cnf, err := dimacs.ReadCNF(bytes.NewReader(data), e.Member, dimacs.ReadOptions{})

@@ -15,13 +15,8 @@ import (
 // against the manifest and, for a decision tree, checks coverage by shape.
 func (v *verifier) prepareCubes() {
 	cs := v.m.Refutation.Cubes
-	data, ok := v.files[cs.Member]
+	data, ok := v.heldMember("cubes", cs.Member, cs.SHA256, " (it must come before the proofs)")
 	if !ok {
-		v.rep.add("cubes", StatusFail, "member %s is missing (it must come before the proofs)", cs.Member)
-		return
-	}
-	if got := sha256Hex(data); got != cs.SHA256 {
-		v.rep.add("cubes", StatusFail, "%s has SHA-256 %s, the manifest records %s", cs.Member, got, cs.SHA256)
 		return
 	}
 	vars := v.m.Refutation.CNF.Vars

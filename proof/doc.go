@@ -92,7 +92,14 @@
 // order (the first literal as written, the RAT pivot, first, the others by
 // variable), the deletions that took effect of formula clauses and core
 // lemmas, and the empty clause; lemmas after the refutation and deletions
-// the checker ignored are left out. Trimming is not trusted: whoever keeps a
+// the checker ignored are left out. In a proof without RAT lemmas, a core
+// lemma is written shrunk to the literals whose negations its check's
+// conflict analysis reached, when that drops some (assigning just those
+// negations propagates the same implication graph to the same conflict, so
+// the shrunk lemma is RUP there, and it subsumes the lemma, so every later
+// check that used the lemma still propagates at least as much; a RAT check
+// could lose a resolvent literal, hence not with RAT lemmas; deletions of
+// the lemma name the shrunk clause). Trimming is not trusted: whoever keeps a
 // trimmed proof checks it again with [CheckRefutation], as package archive
 // does. Why it passes that check: unit propagation is monotone (more clauses
 // never stop it from reaching a conflict), and every clause that a core

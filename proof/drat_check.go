@@ -31,6 +31,11 @@ type dratChecker struct {
 	hints []int32 // LRAT hints: clause numbers, -(d+1) opening the RAT group of clause d
 	lrat  *lratLog
 	ctx   context.Context
+
+	// shrunk lemmas, for the trimmed proof: lemma c-nOrig is, when
+	// shrunkAt[c-nOrig] > 0, the shrunkLits[shrunkAt-1] literals after it
+	shrunkAt   []uint32
+	shrunkLits []uint32
 }
 
 // reject records the first failing step and returns ErrRejected.
@@ -130,6 +135,9 @@ func (k *dratChecker) checkLemma(c int) string {
 		hints = k.analyze(confl, hints, want)
 		k.hints = hints
 		k.record(c, hints)
+		if k.noteUsed {
+			k.keepShrunk(c)
+		}
 		return ""
 	}
 	if len(ls) == 0 {

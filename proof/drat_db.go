@@ -43,6 +43,9 @@ type dratDB struct {
 	pos      []int32   // per variable: index in trail
 	asm      []bool    // per variable: belongs to the clause being checked
 	seen     []bool    // per variable: scratch for conflict analysis
+	used     []bool    // per variable: an assumption the analysis reached (with noteUsed)
+	usedVars []uint32  // the variables flagged in used
+	noteUsed bool      // analyze notes the assumptions it reaches (for trimming)
 	mark     []bool    // per literal: scratch for deduplication and matching
 	watches  [][]watch // per literal: non-core clauses watching it
 	cwatches [][]watch // per literal: core clauses watching it
@@ -84,6 +87,7 @@ func newDratDB(dense, clauses, lits int) *dratDB {
 	d.pos = make([]int32, 0, nv)
 	d.asm = make([]bool, 0, nv)
 	d.seen = make([]bool, 0, nv)
+	d.used = make([]bool, 0, nv)
 	d.vals = make([]int8, 0, 2*nv)
 	d.mark = make([]bool, 0, 2*nv)
 	d.watches = make([][]watch, 0, 2*nv)
@@ -135,6 +139,7 @@ func (d *dratDB) ensureVar(v int) {
 		d.pos = append(d.pos, 0)
 		d.asm = append(d.asm, false)
 		d.seen = append(d.seen, false)
+		d.used = append(d.used, false)
 		d.vals = append(d.vals, 0, 0)
 		d.mark = append(d.mark, false, false)
 		d.watches = append(d.watches, nil, nil)
@@ -336,7 +341,8 @@ func (d *dratDB) isReason(c int) bool {
 // analyze marks the clauses behind conflict clause confl as core and returns
 // them in hints (when hints is non-nil) in the order propagation used them,
 // the conflict clause last. Variables flagged asm are assumptions: their
-// reasons are not followed.
+// reasons are not followed. With noteUsed, the assumptions reached are
+// noted in used and usedVars (they never steer the analysis).
 func (d *dratDB) analyze(confl int, hints []int32, wantHints bool) []int32 {
 	d.markCore(confl)
 	pending := 0
@@ -345,6 +351,8 @@ func (d *dratDB) analyze(confl int, hints []int32, wantHints bool) []int32 {
 		if !d.asm[v] && !d.seen[v] {
 			d.seen[v] = true
 			pending++
+		} else if d.asm[v] && d.noteUsed {
+			d.noteAssumption(v)
 		}
 	}
 	start := len(hints)
@@ -368,6 +376,8 @@ func (d *dratDB) analyze(confl int, hints []int32, wantHints bool) []int32 {
 			if u != v && !d.asm[u] && !d.seen[u] {
 				d.seen[u] = true
 				pending++
+			} else if d.asm[u] && d.noteUsed {
+				d.noteAssumption(u)
 			}
 		}
 	}
@@ -378,4 +388,20 @@ func (d *dratDB) analyze(confl int, hints []int32, wantHints bool) []int32 {
 		hints[i], hints[j] = hints[j], hints[i]
 	}
 	return append(hints, int32(confl))
+}
+
+// noteAssumption flags assumption variable v as reached by the analysis.
+func (d *dratDB) noteAssumption(v uint32) {
+	if !d.used[v] {
+		d.used[v] = true
+		d.usedVars = append(d.usedVars, v)
+	}
+}
+
+// clearUsed forgets the assumptions noted so far.
+func (d *dratDB) clearUsed() {
+	for _, v := range d.usedVars {
+		d.used[v] = false
+	}
+	d.usedVars = d.usedVars[:0]
 }

@@ -65,3 +65,25 @@ func TestTrimmedNeedsBackward(t *testing.T) {
 		t.Fatal("a trimmed proof was asked of the forward check and no error came back")
 	}
 }
+
+// A lemma whose check does not need one of its literals is trimmed to the
+// literals the check used: with the unit -3 in the formula, "2 3" is RUP
+// through its literal 2 alone (assuming -2 propagates 1 by "1 2" and
+// falsifies "-1 2"), so the trimmed proof adds "2" and the empty clause.
+// Bytes as binary DRAT writes them (Wetzler, Heule and Hunt, SAT 2014).
+func TestTrimmedShrinksLemma(t *testing.T) {
+	f := parseCNF(t, "p cnf 3 5\n-3 0\n1 2 0\n-1 2 0\n1 -2 0\n-1 -2 0\n")
+	var tr bytes.Buffer
+	res, err := checkText(t, f, "2 3 0\n0\n", DRATOptions{Trimmed: &tr})
+	if err != nil || !res.Accepted {
+		t.Fatalf("proof rejected: %v", err)
+	}
+	want := []byte{'a', 0x04, 0, 'a', 0}
+	if !bytes.Equal(tr.Bytes(), want) {
+		t.Fatalf("trimmed proof % x, want % x", tr.Bytes(), want)
+	}
+	out := CheckRefutation(context.Background(), f, bytes.NewReader(tr.Bytes()), RefutationOptions{Format: DRATBinary})
+	if !out.OK() {
+		t.Fatalf("the trimmed proof did not pass both checkers: %s", out.Detail)
+	}
+}

@@ -111,6 +111,7 @@ func CheckDRAT(ctx context.Context, cnf *dimacs.CNF, proof io.Reader, opt DRATOp
 	if opt.LRAT != nil {
 		k.lrat = newLRATLog(opt.LRAT, opt.Forward, k.nOrig)
 	}
+	k.noteUsed = opt.Trimmed != nil
 	defer func() { res.Propagations = k.propagations }()
 	conflictStep, err := k.readSteps(opt.Forward)
 	if err != nil {

@@ -12,6 +12,7 @@ import (
 	"slices"
 	"strings"
 
+	"spinecert.dev/atomicfile"
 	"spinecert.dev/cert"
 	"spinecert.dev/dimacs"
 	"spinecert.dev/graph"
@@ -215,17 +216,11 @@ func pad(k cert.Kind, mixed []cert.Kind, i int) cert.Kind {
 }
 
 func hashFile(path string) (string, int64, error) {
-	f, err := os.Open(path)
+	sum, n, err := atomicfile.SHA256(path)
 	if err != nil {
 		return "", 0, fmt.Errorf("archive: %w", err)
 	}
-	defer f.Close()
-	h := sha256.New()
-	n, err := io.Copy(h, f)
-	if err != nil {
-		return "", 0, fmt.Errorf("archive: %w", err)
-	}
-	return hex.EncodeToString(h.Sum(nil)), n, nil
+	return sum, n, nil
 }
 
 func buildRefutation(ctx context.Context, ev *Evidence, enc Encoder, tmpDir string) (*Refutation, []Source, error) {

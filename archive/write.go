@@ -6,18 +6,15 @@ import (
 	"context"
 	"crypto/sha256"
 	"encoding/hex"
-	"errors"
 	"fmt"
 	"io"
-	"io/fs"
-	"math/rand/v2"
 	"os"
-	"path/filepath"
 	"slices"
 	"strings"
 	"time"
 
 	"github.com/klauspost/compress/zstd"
+	"spinecert.dev/atomicfile"
 )
 
 // SumsName is the member holding the SHA-256 of every other member.
@@ -205,67 +202,18 @@ func writeMember(ctx context.Context, tw *tar.Writer, m Source, sum string) erro
 // left as it was. The file gets mode 0666 less the umask. A path that
 // exists and is not a regular file (a device, a FIFO) is written directly,
 // since renaming over it would replace it.
-func WriteFile(ctx context.Context, path string, members []Source) (err error) {
-	if fi, err := os.Stat(path); err == nil && !fi.Mode().IsRegular() {
-		f, err := os.OpenFile(path, os.O_WRONLY, 0)
-		if err != nil {
-			return fmt.Errorf("archive: %w", err)
+func WriteFile(ctx context.Context, path string, members []Source) error {
+	var werr error
+	err := atomicfile.Write(path, func(w io.Writer) error {
+		if werr = Write(ctx, w, members); werr == nil {
+			werr = ctx.Err()
 		}
-		if err := Write(ctx, f, members); err != nil {
-			f.Close()
-			return err
-		}
-		if err := f.Close(); err != nil {
-			return fmt.Errorf("archive: %w", err)
-		}
-		return nil
-	}
-	dir := filepath.Dir(path)
-	tmp, err := createTemp(path)
-	if err != nil {
+		return werr
+	})
+	if err != nil && werr == nil {
 		return fmt.Errorf("archive: %w", err)
 	}
-	name := tmp.Name()
-	defer func() {
-		if err != nil {
-			tmp.Close()
-			os.Remove(name)
-		}
-	}()
-	if err := Write(ctx, tmp, members); err != nil {
-		return err
-	}
-	if err := ctx.Err(); err != nil {
-		return err
-	}
-	if err := tmp.Sync(); err != nil {
-		return fmt.Errorf("archive: %w", err)
-	}
-	if err := tmp.Close(); err != nil {
-		return fmt.Errorf("archive: %w", err)
-	}
-	if err := os.Rename(name, path); err != nil {
-		return fmt.Errorf("archive: %w", err)
-	}
-	if d, err := os.Open(dir); err == nil {
-		d.Sync()
-		d.Close()
-	}
-	return nil
-}
-
-// createTemp creates a new temporary file beside path with mode 0666 less
-// the umask, as for any file a program creates (os.CreateTemp uses 0600).
-func createTemp(path string) (*os.File, error) {
-	dir, base := filepath.Split(path)
-	for range 1000 {
-		name := filepath.Join(dir, fmt.Sprintf(".%s.tmp-%016x", base, rand.Uint64()))
-		f, err := os.OpenFile(name, os.O_RDWR|os.O_CREATE|os.O_EXCL, 0o666)
-		if !errors.Is(err, fs.ErrExist) {
-			return f, err
-		}
-	}
-	return nil, fmt.Errorf("no unused temporary file name in %s", filepath.Dir(path))
+	return err
 }
 
 // sha256Hex is the SHA-256 of b in lowercase hex, as manifests record it.

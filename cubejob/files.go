@@ -8,8 +8,8 @@ import (
 	"fmt"
 	"io"
 	"os"
-	"path/filepath"
 
+	"spinecert.dev/atomicfile"
 	"spinecert.dev/textpos"
 )
 
@@ -39,30 +39,16 @@ func writeAtomic(path string, data []byte) error {
 	})
 }
 
-func writeAtomicFunc(path string, write func(io.Writer) error) (err error) {
-	f, err := os.CreateTemp(filepath.Dir(path), "."+filepath.Base(path)+".tmp-*")
-	if err != nil {
-		return fmt.Errorf("cubejob: %w", err)
-	}
-	defer func() {
-		if err != nil {
-			f.Close()
-			os.Remove(f.Name())
-		}
-	}()
-	if err = write(f); err != nil {
-		return fmt.Errorf("cubejob: writing %s: %w", path, err)
-	}
-	if err = f.Chmod(mode); err != nil {
-		return fmt.Errorf("cubejob: %w", err)
-	}
-	if err = f.Sync(); err != nil {
-		return fmt.Errorf("cubejob: %w", err)
-	}
-	if err = f.Close(); err != nil {
-		return fmt.Errorf("cubejob: %w", err)
-	}
-	if err = os.Rename(f.Name(), path); err != nil {
+func writeAtomicFunc(path string, write func(io.Writer) error) error {
+	var werr error
+	err := atomicfile.WriteMode(path, mode, func(w io.Writer) error {
+		werr = write(w)
+		return werr
+	})
+	switch {
+	case werr != nil:
+		return fmt.Errorf("cubejob: writing %s: %w", path, werr)
+	case err != nil:
 		return fmt.Errorf("cubejob: %w", err)
 	}
 	return nil
@@ -74,17 +60,7 @@ func sha(data []byte) string {
 }
 
 func hashFile(path string) (string, int64, error) {
-	f, err := os.Open(path)
-	if err != nil {
-		return "", 0, err
-	}
-	defer f.Close()
-	h := sha256.New()
-	n, err := io.Copy(h, f)
-	if err != nil {
-		return "", 0, err
-	}
-	return hex.EncodeToString(h.Sum(nil)), n, nil
+	return atomicfile.SHA256(path)
 }
 
 // decodeJSON reads the JSON object in data (the file at path) into v

@@ -2,15 +2,12 @@ package main
 
 import (
 	"encoding/json"
-	"errors"
 	"fmt"
 	"io"
-	"io/fs"
-	"math/rand/v2"
 	"os"
-	"path/filepath"
 
 	"github.com/spf13/cobra"
+	"spinecert.dev/atomicfile"
 	"spinecert.dev/graph"
 )
 
@@ -81,74 +78,22 @@ func writeJSON(w io.Writer, v any) error {
 	return enc.Encode(v)
 }
 
-// writeFileAtomic writes a file through a temporary file in the same
-// directory, synced and renamed into place, so that path is never left
-// half-written. "-" writes to stdout. A path that exists and is not a
-// regular file (a device such as /dev/null, a FIFO) is written directly:
-// renaming over it would replace it. New files get mode 0666 less the umask.
+// writeFileAtomic writes a file with atomicfile.Write, so that path is
+// never left half-written; "-" writes to stdout. A device or FIFO is
+// written directly, and new files get mode 0666 less the umask. An error of
+// write is returned as it is; failing to create, sync or rename the file is
+// a usage error.
 func writeFileAtomic(path string, stdout io.Writer, write func(io.Writer) error) error {
 	if path == "-" {
 		return write(stdout)
 	}
-	if fi, err := os.Stat(path); err == nil && !fi.Mode().IsRegular() {
-		return writeDirect(path, write)
-	}
-	tmp, err := createTemp(path)
-	if err != nil {
+	var werr error
+	err := atomicfile.Write(path, func(w io.Writer) error {
+		werr = write(w)
+		return werr
+	})
+	if err != nil && werr == nil {
 		return usageErr(fmt.Errorf("cannot write %s: %w", path, err))
 	}
-	name := tmp.Name()
-	ok := false
-	defer func() {
-		if !ok {
-			tmp.Close()
-			os.Remove(name)
-		}
-	}()
-	if err := write(tmp); err != nil {
-		return err
-	}
-	if err := tmp.Sync(); err != nil {
-		return fmt.Errorf("writing %s: %w", path, err)
-	}
-	if err := tmp.Close(); err != nil {
-		return fmt.Errorf("writing %s: %w", path, err)
-	}
-	if err := os.Rename(name, path); err != nil {
-		return fmt.Errorf("writing %s: %w", path, err)
-	}
-	ok = true
-	return nil
-}
-
-// writeDirect writes to an existing file that is not a regular file.
-func writeDirect(path string, write func(io.Writer) error) error {
-	f, err := os.OpenFile(path, os.O_WRONLY, 0)
-	if err != nil {
-		return usageErr(fmt.Errorf("cannot write %s: %w", path, err))
-	}
-	if err := write(f); err != nil {
-		f.Close()
-		return err
-	}
-	if err := f.Close(); err != nil {
-		return fmt.Errorf("writing %s: %w", path, err)
-	}
-	return nil
-}
-
-// createTemp creates a new temporary file beside path. Unlike
-// os.CreateTemp (mode 0600) it asks for mode 0666, which the umask filters
-// as it does for any file a program creates, so the file renamed into
-// place has the mode a user expects.
-func createTemp(path string) (*os.File, error) {
-	dir, base := filepath.Split(path)
-	for range 1000 {
-		name := filepath.Join(dir, fmt.Sprintf(".%s.tmp-%016x", base, rand.Uint64()))
-		f, err := os.OpenFile(name, os.O_RDWR|os.O_CREATE|os.O_EXCL, 0o666)
-		if !errors.Is(err, fs.ErrExist) {
-			return f, err
-		}
-	}
-	return nil, fmt.Errorf("no unused temporary file name in %s", filepath.Dir(path))
+	return err
 }

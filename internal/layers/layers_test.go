@@ -1,7 +1,7 @@
 // Package layers holds a test that keeps spinecert's packages layered. Data
 // flows one way:
 //
-//	textpos → graph → cert, planar/planarcert → planar, toughcert →
+//	textpos, atomicfile → graph → cert, planar/planarcert → planar, toughcert →
 //	heuristic, draw → dimacs → proof → verify → pagenumber; archive beside
 //	verify; evidence on verify, pagenumber and archive
 //
@@ -31,6 +31,7 @@ const module = "spinecert.dev/"
 // packages its non-test files may import.
 var allowed = map[string][]string{
 	"textpos":           {},
+	"atomicfile":        {},
 	"graph":             {"textpos"},
 	"cert":              {"graph", "textpos"},
 	"planar/planarcert": {"graph", "textpos"},
@@ -43,8 +44,8 @@ var allowed = map[string][]string{
 	"cube":              {"dimacs", "textpos"},
 	"verify":            {"graph", "cert", "dimacs", "proof"},
 	"pagenumber":        {"graph", "cert", "dimacs", "planar", "planar/planarcert", "toughcert", "heuristic", "proof", "verify"},
-	"archive":           {"graph", "cert", "cube", "dimacs", "planar/planarcert", "proof", "textpos"},
-	"cubejob":           {"graph", "cert", "cube", "dimacs", "proof", "verify", "archive", "textpos"},
+	"archive":           {"atomicfile", "graph", "cert", "cube", "dimacs", "planar/planarcert", "proof", "textpos"},
+	"cubejob":           {"atomicfile", "graph", "cert", "cube", "dimacs", "proof", "verify", "archive", "textpos"},
 	"evidence":          {"graph", "cert", "dimacs", "planar", "planar/planarcert", "verify", "pagenumber", "archive"},
 }
 

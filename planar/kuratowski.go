@@ -1,9 +1,7 @@
 package planar
 
 import (
-	"cmp"
 	"fmt"
-	"slices"
 
 	"spinecert.dev/graph"
 	"spinecert.dev/planar/planarcert"
@@ -13,7 +11,7 @@ import (
 // deletion guided by the planarity test:
 //
 // The work graph consists of "required" edges, which every non-planar
-// subgraph of the work graph contains, and candidate edges in a fixed order.
+// subgraph of the work graph contains, and candidate edges in an order.
 // Each round finds, by doubling and binary search over prefixes, the shortest
 // prefix of the candidates that together with the required edges is not
 // planar; its last edge becomes required and the rest of the candidates are
@@ -22,9 +20,15 @@ import (
 // suppressed (their two edges merge into one edge standing for a path), and
 // parallel edges are merged. When the required edges alone are not planar
 // they form an edge-minimal non-planar subgraph, which by Kuratowski's
-// theorem is a subdivision of K5 or K3,3. The candidates start in breadth-first
-// order, so the first prefix found is a small region of the graph when the
-// obstruction is local.
+// theorem is a subdivision of K5 or K3,3.
+//
+// Every round orders the candidates with the edges of a depth-first spanning
+// forest first and the other edges after them by breadth-first distance (see
+// reorder); the first round runs on all of g, starting both searches at the
+// vertex where the planarity test found its conflict (vertex 0 when the edge
+// count alone decided), and tests each prefix on the part of the forest that
+// spans the ends of the non-tree edges in it (see treeFirst), so that it
+// costs little even on large graphs.
 func FindKuratowski(g *graph.Graph) (*planarcert.Kuratowski, error) {
 	lg, perm := lrOf(g)
 	r := lrTest(lg, false)
@@ -39,10 +43,10 @@ func FindKuratowski(g *graph.Graph) (*planarcert.Kuratowski, error) {
 }
 
 // kuratowskiFrom runs the search on the non-planar g, starting the first
-// breadth-first order at fail (or vertex 0 when fail is -1).
+// round's searches at fail (or at vertex 0 when fail is -1).
 func kuratowskiFrom(g *graph.Graph, fail int32) (*planarcert.Kuratowski, error) {
-	ks := newKurSearch(g, max(fail, 0))
-	ks.shrink()
+	ks := newKurSearch(g)
+	ks.treeFirst(max(fail, 0))
 	ks.run()
 	return ks.readOff()
 }
@@ -59,22 +63,26 @@ type kurSearch struct {
 	required []int32
 	work     []int32
 
-	vmap, vstamp  []int32 // vertex renumbering for tests
+	vmap, vstamp  []int32 // local vertex numbers of this epoch (see localize)
 	epoch         int32
 	tests, rounds int
+
+	slotA, slotB []int32 // reduce: slot of each super-edge at its ends
+	cur          []int32 // reduce: scratch list
+	mark         []int32 // reduce: super-edges listed in this epoch
+	markEpoch    int32
 }
 
-func newKurSearch(g *graph.Graph, center int32) *kurSearch {
+func newKurSearch(g *graph.Graph) *kurSearch {
 	m := g.M()
 	ks := &kurSearch{g: g, ea: make([]int32, m), eb: make([]int32, m), into: make([]int32, m),
-		alive: make([]bool, m), req: make([]bool, m),
+		alive: make([]bool, m), req: make([]bool, m), slotA: make([]int32, m), slotB: make([]int32, m),
 		vmap: make([]int32, g.N()), vstamp: make([]int32, g.N())}
 	for i, e := range g.Edges() {
 		ks.ea[i], ks.eb[i] = e.U, e.V
 		ks.alive[i] = true
 		ks.into[i] = -1
 	}
-	ks.work = bfsEdgeOrder(g, center)
 	return ks
 }
 
@@ -159,77 +167,21 @@ func (ks *kurSearch) planarWith(k int) bool {
 }
 
 func (ks *kurSearch) run() {
+	ks.reorder()
 	for {
-		if !ks.planarWith(0) {
-			return
+		if !ks.planarWith(0) || len(ks.work) == 0 {
+			return // done, or (never for a non-planar g) nothing left to add
 		}
 		// Smallest k with required + work[:k] not planar; work[:len] is not.
-		hi := 1
-		for hi < len(ks.work) && ks.planarWith(hi) {
-			hi *= 2
-		}
-		hi = min(hi, len(ks.work))
-		lo := hi / 2 // required + work[:lo] is planar
-		for hi-lo > 1 {
-			mid := (lo + hi) / 2
-			if ks.planarWith(mid) {
-				lo = mid
-			} else {
-				hi = mid
-			}
-		}
-		s := ks.work[hi-1]
+		k := smallestNonPlanar(len(ks.work), ks.planarWith)
+		s := ks.work[k-1]
 		ks.req[s] = true
 		ks.required = append(ks.required, s)
-		ks.work = ks.work[:hi-1]
+		ks.work = ks.work[:k-1]
 		ks.reduce()
 		ks.rounds++
 		ks.reorder()
 	}
-}
-
-// reorder sorts the candidates by breadth-first distance from the ends of
-// the required edges, so that the next prefix search looks near them first.
-func (ks *kurSearch) reorder() {
-	if len(ks.required) == 0 || len(ks.work) == 0 {
-		return
-	}
-	adj := make(map[int32][]int32)
-	for _, list := range [2][]int32{ks.required, ks.work} {
-		for _, s := range list {
-			a, b := ks.ea[s], ks.eb[s]
-			adj[a] = append(adj[a], b)
-			adj[b] = append(adj[b], a)
-		}
-	}
-	dist := make(map[int32]int32, len(adj))
-	var queue []int32
-	for _, s := range ks.required {
-		for _, v := range [2]int32{ks.ea[s], ks.eb[s]} {
-			if _, ok := dist[v]; !ok {
-				dist[v] = 0
-				queue = append(queue, v)
-			}
-		}
-	}
-	for h := 0; h < len(queue); h++ {
-		v := queue[h]
-		for _, w := range adj[v] {
-			if _, ok := dist[w]; !ok {
-				dist[w] = dist[v] + 1
-				queue = append(queue, w)
-			}
-		}
-	}
-	key := func(s int32) int32 {
-		da, okA := dist[ks.ea[s]]
-		db, okB := dist[ks.eb[s]]
-		if !okA || !okB {
-			return 1 << 30
-		}
-		return max(da, db)
-	}
-	slices.SortStableFunc(ks.work, func(x, y int32) int { return cmp.Compare(key(x), key(y)) })
 }
 
 func (ks *kurSearch) newSuper(a, b, x, y int32) int32 {
@@ -239,126 +191,12 @@ func (ks *kurSearch) newSuper(a, b, x, y int32) int32 {
 	ks.kids = append(ks.kids, [2]int32{x, y})
 	ks.into = append(ks.into, -1)
 	ks.alive = append(ks.alive, true)
+	ks.slotA = append(ks.slotA, -1)
+	ks.slotB = append(ks.slotB, -1)
 	ks.req = append(ks.req, ks.req[x] || ks.req[y])
 	ks.into[x], ks.into[y] = s, s
 	ks.alive[x], ks.alive[y] = false, false
 	return s
-}
-
-// reduce prunes, suppresses and merges in the work graph, then rewrites the
-// required and candidate lists in terms of the surviving super-edges.
-func (ks *kurSearch) reduce() {
-	cur := append(append([]int32(nil), ks.required...), ks.work...)
-	deg := make(map[int32]int32)
-	inc := make(map[int32][]int32)
-	pair := make(map[uint64]int32, len(cur))
-	key := func(a, b int32) uint64 {
-		if a > b {
-			a, b = b, a
-		}
-		return uint64(a)<<32 | uint64(uint32(b))
-	}
-	kill := func(s int32) {
-		ks.alive[s] = false
-		ks.into[s] = -1
-		deg[ks.ea[s]]--
-		deg[ks.eb[s]]--
-		if pair[key(ks.ea[s], ks.eb[s])] == s {
-			delete(pair, key(ks.ea[s], ks.eb[s]))
-		}
-	}
-	var queue []int32
-	// attach registers s at its ends, merging it with a parallel edge.
-	attach := func(s int32) {
-		a, b := ks.ea[s], ks.eb[s]
-		if a == b {
-			ks.alive[s] = false
-			ks.into[s] = -1
-			queue = append(queue, a)
-			return
-		}
-		k := key(a, b)
-		if t, ok := pair[k]; ok && ks.alive[t] {
-			if ks.req[s] && !ks.req[t] {
-				kill(t)
-				queue = append(queue, a, b)
-			} else {
-				ks.alive[s] = false
-				ks.into[s] = -1
-				queue = append(queue, a, b)
-				return
-			}
-		}
-		pair[k] = s
-		deg[a]++
-		deg[b]++
-		inc[a] = append(inc[a], s)
-		inc[b] = append(inc[b], s)
-	}
-	for _, s := range cur {
-		attach(s)
-	}
-	for _, s := range cur {
-		queue = append(queue, ks.ea[s], ks.eb[s])
-	}
-	aliveAt := func(v int32, buf []int32) []int32 {
-		buf = buf[:0]
-		for _, s := range inc[v] {
-			if ks.alive[s] {
-				buf = append(buf, s)
-			}
-		}
-		return buf
-	}
-	var buf []int32
-	for len(queue) > 0 {
-		v := queue[len(queue)-1]
-		queue = queue[:len(queue)-1]
-		switch deg[v] {
-		case 1:
-			buf = aliveAt(v, buf)
-			s := buf[0]
-			kill(s)
-			queue = append(queue, ks.ea[s]^ks.eb[s]^v)
-		case 2:
-			buf = aliveAt(v, buf)
-			x, y := buf[0], buf[1]
-			a := ks.ea[x] ^ ks.eb[x] ^ v
-			b := ks.ea[y] ^ ks.eb[y] ^ v
-			for _, t := range [2]int32{x, y} {
-				if pair[key(ks.ea[t], ks.eb[t])] == t {
-					delete(pair, key(ks.ea[t], ks.eb[t]))
-				}
-			}
-			deg[v] = 0
-			deg[a]--
-			deg[b]--
-			s := ks.newSuper(a, b, x, y)
-			attach(s)
-			queue = append(queue, a, b)
-		}
-	}
-	rep := func(s int32) int32 {
-		for s >= 0 && !ks.alive[s] {
-			s = ks.into[s]
-		}
-		return s
-	}
-	placed := make(map[int32]bool)
-	var req, work []int32
-	for _, s := range cur {
-		r := rep(s)
-		if r < 0 || placed[r] {
-			continue
-		}
-		placed[r] = true
-		if ks.req[r] {
-			req = append(req, r)
-		} else {
-			work = append(work, r)
-		}
-	}
-	ks.required, ks.work = req, work
 }
 
 // readOff expands the required super-edges and reads off the subdivision.

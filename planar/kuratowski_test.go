@@ -160,3 +160,264 @@ func TestKuratowskiLong(t *testing.T) {
 		}
 	}
 }
+
+// plMinimal checks that the edges of k's paths form a non-planar graph that
+// every single edge deletion makes planar (edge-minimal), by brute force with
+// the planarity test on the subgraph alone.
+func plMinimal(t *testing.T, g *graph.Graph, k *planarcert.Kuratowski) {
+	t.Helper()
+	num := map[int32]int{}
+	id := func(v int32) int {
+		if i, ok := num[v]; ok {
+			return i
+		}
+		num[v] = len(num)
+		return len(num) - 1
+	}
+	var e [][2]int
+	for _, p := range k.Paths {
+		for i := 1; i < len(p); i++ {
+			e = append(e, [2]int{id(p[i-1]), id(p[i])})
+		}
+	}
+	if IsPlanar(fixture.Numbered(len(num), e)) {
+		t.Fatalf("%v: the subdivision found is planar", g)
+	}
+	for i := range e {
+		rest := append(slices.Clone(e[:i]), e[i+1:]...)
+		if !IsPlanar(fixture.Numbered(len(num), rest)) {
+			t.Fatalf("%v: the subdivision found stays non-planar without edge %v", g, e[i])
+		}
+	}
+}
+
+// plPlant adds to the planar edge list e on n vertices a subdivision of K5
+// (k5) or K3,3 whose branch vertices are random old vertices and whose paths
+// run through 0..3 new vertices each.
+func plPlant(rng *rand.Rand, n int, e [][2]int, k5 bool) (int, [][2]int) {
+	var pairs [][2]int
+	var branch []int
+	if k5 {
+		branch = rng.Perm(n)[:5]
+		for i := 0; i < 5; i++ {
+			for j := i + 1; j < 5; j++ {
+				pairs = append(pairs, [2]int{branch[i], branch[j]})
+			}
+		}
+	} else {
+		branch = rng.Perm(n)[:6]
+		for i := 0; i < 3; i++ {
+			for j := 3; j < 6; j++ {
+				pairs = append(pairs, [2]int{branch[i], branch[j]})
+			}
+		}
+	}
+	for _, p := range pairs {
+		prev := p[0]
+		for range rng.IntN(4) {
+			e = append(e, [2]int{prev, n})
+			prev = n
+			n++
+		}
+		if prev == p[0] && plHasPair(e, p[0], p[1]) {
+			// The base graph has this edge already; route through a new vertex.
+			e = append(e, [2]int{prev, n})
+			prev = n
+			n++
+		}
+		e = append(e, [2]int{prev, p[1]})
+	}
+	return n, e
+}
+
+// Subdivisions of K5 and K3,3 planted in grids and triangulations, grids and
+// triangulations with one extra edge, and random dense graphs: the search
+// returns a certificate that planarcert accepts and that is edge-minimal
+// (checked edge by edge), whichever round finds it.
+func TestKuratowskiPlantedMinimal(t *testing.T) {
+	rng := rand.New(rand.NewPCG(11, 13))
+	for i := 0; i < 60; i++ {
+		var n int
+		var e [][2]int
+		switch i % 4 {
+		case 0, 1:
+			r, c := 2+rng.IntN(12), 2+rng.IntN(60)
+			n, e = r*c, fixture.EdgePairs(fixture.Grid(r, c))
+		default:
+			n = 6 + rng.IntN(1500)
+			e = fixture.RandomTriangulationEdges(rng, n)
+		}
+		switch {
+		case i%3 == 2 && i%4 >= 2:
+			for {
+				a, b := rng.IntN(n), rng.IntN(n)
+				if a != b && !plHasPair(e, a, b) {
+					e = append(e, [2]int{a, b})
+					break
+				}
+			}
+		default:
+			n, e = plPlant(rng, n, e, i%2 == 0)
+		}
+		perm := rng.Perm(n)
+		for j := range e {
+			e[j] = [2]int{perm[e[j][0]], perm[e[j][1]]}
+		}
+		g := fixture.Numbered(n, e)
+		if IsPlanar(g) {
+			continue // a triangulation plus an edge of a face's neighbour, say
+		}
+		plMinimal(t, g, plNonPlanarCert(t, g))
+	}
+	for i := 0; i < 30; i++ {
+		n := 8 + rng.IntN(60)
+		g := fixture.RandomGraph(rng, n, 3*n+rng.IntN(4*n))
+		plMinimal(t, g, plNonPlanarCert(t, g))
+	}
+}
+
+// On random graphs with 5 to 7 vertices the search agrees with brute force:
+// it fails with ErrPlanar exactly when no edge subset is a subdivision of K5
+// or K3,3, and what it returns is accepted and edge-minimal.
+func TestKuratowskiSmallBruteForce(t *testing.T) {
+	rng := rand.New(rand.NewPCG(17, 19))
+	found := map[bool]int{}
+	defer func() {
+		if found[true] == 0 || found[false] == 0 {
+			t.Errorf("the sample has %d graphs with and %d without a Kuratowski subgraph", found[true], found[false])
+		}
+	}()
+	for i := 0; i < 400; i++ {
+		n := 5 + rng.IntN(3)
+		var e [][2]int
+		for a := 0; a < n; a++ {
+			for b := a + 1; b < n; b++ {
+				if rng.IntN(10) < 7 {
+					e = append(e, [2]int{a, b})
+				}
+			}
+		}
+		g := fixture.Numbered(n, e)
+		brute := plBruteKuratowski(n, e)
+		found[brute]++
+		k, err := FindKuratowski(g)
+		if !brute {
+			if !errors.Is(err, ErrPlanar) {
+				t.Fatalf("%v %v: no Kuratowski subgraph by brute force, search gave %v", g, e, err)
+			}
+			continue
+		}
+		if err != nil {
+			t.Fatalf("%v %v: %v", g, e, err)
+		}
+		if err := planarcert.CheckKuratowski(g, k); err != nil {
+			t.Fatalf("%v %v: %v", g, e, err)
+		}
+		plMinimal(t, g, k)
+	}
+}
+
+// plBruteKuratowski reports whether some edge subset of the graph is a
+// subdivision of K5 or K3,3, trying every subset: a subset is one when its
+// vertices have degree 0 or 2 except for five of degree 4 or six of degree
+// 3, joined pairwise by distinct paths that use all its edges, the six
+// forming K3,3.
+func plBruteKuratowski(n int, e [][2]int) bool {
+	m := len(e)
+	for mask := 1; mask < 1<<m; mask++ {
+		if plIsSubdivision(n, e, mask) {
+			return true
+		}
+	}
+	return false
+}
+
+func plIsSubdivision(n int, e [][2]int, mask int) bool {
+	adj := make([][]int, n)
+	for i, x := range e {
+		if mask>>i&1 == 1 {
+			adj[x[0]] = append(adj[x[0]], x[1])
+			adj[x[1]] = append(adj[x[1]], x[0])
+		}
+	}
+	var branch []int
+	for v := range adj {
+		switch len(adj[v]) {
+		case 0, 2:
+		case 3, 4:
+			branch = append(branch, v)
+		default:
+			return false
+		}
+	}
+	d := 0
+	switch len(branch) {
+	case 5:
+		d = 4
+	case 6:
+		d = 3
+	default:
+		return false
+	}
+	isBranch := make([]bool, n)
+	for _, b := range branch {
+		if len(adj[b]) != d {
+			return false
+		}
+		isBranch[b] = true
+	}
+	// Follow every path from a branch vertex to the next one.
+	seen := map[[2]int]bool{}
+	used := 0
+	for _, b := range branch {
+		for _, w := range adj[b] {
+			prev, cur := b, w
+			steps := 1
+			for !isBranch[cur] {
+				nx := adj[cur][0]
+				if nx == prev {
+					nx = adj[cur][1]
+				}
+				prev, cur = cur, nx
+				steps++
+			}
+			if cur == b || seen[[2]int{b, cur}] {
+				return false // a loop or a second path between the same pair
+			}
+			seen[[2]int{b, cur}] = true
+			used += steps
+		}
+	}
+	if used != 2*bits(mask) {
+		return false // a cycle apart from the paths
+	}
+	if d == 3 {
+		// K3,3 and not the prism, which is the other cubic graph on six
+		// vertices: the branch graph is bipartite.
+		color := map[int]int{branch[0]: 0}
+		for changed := true; changed; {
+			changed = false
+			for p := range seen {
+				c, ok := color[p[0]]
+				if !ok {
+					continue
+				}
+				if c2, ok := color[p[1]]; !ok {
+					color[p[1]] = 1 - c
+					changed = true
+				} else if c2 == c {
+					return false
+				}
+			}
+		}
+	}
+	return true
+}
+
+func bits(x int) int {
+	c := 0
+	for ; x != 0; x &= x - 1 {
+		c++
+	}
+	return c
+}

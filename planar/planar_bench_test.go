@@ -13,7 +13,7 @@ import (
 // Decide test with certificate (found and checked) on planar and
 // non-planar graphs of 10^4, 10^5 and 10^6 vertices.
 //
-//	go test ./cert -run '^$' -bench Decide -benchtime 1x
+//	go test ./planar -run '^$' -bench Planarity -benchtime 1x
 func BenchmarkPlanarity(b *testing.B) {
 	sizes := []int{10_000, 100_000, 1_000_000}
 	type gen struct {

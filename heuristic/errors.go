@@ -11,3 +11,7 @@ var ErrMethod = errors.New("heuristic: unknown method (expected auto, complete, 
 // ErrMethodNotApplicable is returned (wrapped) when a forced method does
 // not apply to the graph.
 var ErrMethodNotApplicable = errors.New("heuristic: method does not apply")
+
+// ErrNotSubgraph is returned (wrapped) when a host graph given for a
+// layout does not contain the graph.
+var ErrNotSubgraph = errors.New("heuristic: the graph is not a subgraph of the host")

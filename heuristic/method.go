@@ -57,6 +57,9 @@ type Report struct {
 	Method  Method `json:"method"`
 	Bound   int    `json:"class_bound,omitempty"`
 	Theorem string `json:"theorem,omitempty"`
+	// OnHost: the method ran on a given supergraph and the layout is its
+	// restriction (FindReportHost); the class bound is the host's.
+	OnHost bool `json:"on_host,omitempty"`
 }
 
 // Theorems behind the constructions' bounds.
@@ -132,7 +135,7 @@ func construct(g *graph.Graph, m Method, opts Options) (*cert.Layout, Report, st
 	switch m {
 	case MethodComplete:
 		if l := completeStack(g); l != nil {
-			return l, Report{m, (g.N() + 1) / 2, theoremComplete}, ""
+			return l, Report{Method: m, Bound: (g.N() + 1) / 2, Theorem: theoremComplete}, ""
 		}
 		return nil, Report{}, "not a complete graph on at least 4 vertices"
 	case MethodStacked:
@@ -141,7 +144,7 @@ func construct(g *graph.Graph, m Method, opts Options) (*cert.Layout, Report, st
 			return nil, Report{}, "not a planar 3-tree"
 		}
 		if l := StackedThreePage(g, st); l != nil {
-			return l, Report{m, 3, theoremStacked}, ""
+			return l, Report{Method: m, Bound: 3, Theorem: theoremStacked}, ""
 		}
 		return nil, Report{}, "the stacking does not cover the graph"
 	case MethodFourConnected:
@@ -149,12 +152,12 @@ func construct(g *graph.Graph, m Method, opts Options) (*cert.Layout, Report, st
 		if l == nil {
 			return nil, Report{}, why
 		}
-		return l, Report{m, 2, theoremFour}, ""
+		return l, Report{Method: m, Bound: 2, Theorem: theoremFour}, ""
 	case MethodHamiltonSearch:
 		if g.N() >= 3 && g.M() <= 3*g.N()-6 && g.M() <= hamiltonMaxEdges {
 			if emb, ok := planar.Embed(g); ok {
 				if h, ok := HamiltonianTwoPage(g, emb, hamiltonBudget(g)); ok {
-					return h, Report{m, 2, theoremHamilton}, ""
+					return h, Report{Method: m, Bound: 2, Theorem: theoremHamilton}, ""
 				}
 				// A triangulation with separating triangles may still be
 				// Hamiltonian: try rotation and extension from a few starts.
@@ -163,7 +166,7 @@ func construct(g *graph.Graph, m Method, opts Options) (*cert.Layout, Report, st
 					for try := 0; try < fourConnectedTries; try++ {
 						if cyc, ok := posaCycle(g, int32(rng.IntN(g.N())), rng, posaRotationsPerVertex*g.N()); ok {
 							if h, ok := cycleTwoPage(g, emb, cyc); ok {
-								return h, Report{m, 2, theoremHamilton}, ""
+								return h, Report{Method: m, Bound: 2, Theorem: theoremHamilton}, ""
 							}
 						}
 					}

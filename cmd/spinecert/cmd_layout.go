@@ -9,6 +9,7 @@ import (
 	"github.com/spf13/cobra"
 
 	"spinecert.dev/cert"
+	"spinecert.dev/graph"
 	"spinecert.dev/heuristic"
 )
 
@@ -23,6 +24,7 @@ type layoutOptions struct {
 	method     string
 	parsedMeth heuristic.Method // from method, by validate
 	json       bool
+	host       string
 	graphArg   string
 }
 
@@ -57,7 +59,11 @@ and otherwise the sweep:
   sweep               spine candidates and the page sweep
 
 --method NAME forces one; a forced construction that does not apply is a
-usage error. The report names the method and the theorem behind its bound;
+usage error. --host FILE gives a supergraph of GRAPH (the same vertex
+labels, at least its edges): the method runs on it and its layout is
+restricted to GRAPH, so the host's class bound holds for GRAPH as well (a
+subgraph of a planar 3-tree gets at most 3 pages); a GRAPH with a vertex
+or an edge the host lacks is a usage error. The report names the method and the theorem behind its bound;
 the bound is a claim about the class, the layout is what was checked.
 
 The search is deterministic for a given --seed unless --time-limit stops it
@@ -77,6 +83,7 @@ early.`,
 	cmd.Flags().IntVar(&o.candidates, "candidates", 8, "number of spine orders to try")
 	cmd.Flags().StringVar(&o.method, "method", "auto", "construction: auto, complete, planar-3-tree, 4-connected, hamiltonian-search or sweep")
 	cmd.Flags().BoolVar(&o.json, "json", false, "print one JSON object on stdout")
+	cmd.Flags().StringVar(&o.host, "host", "", "find the layout of the supergraph in `FILE` and restrict it to GRAPH")
 	return cmd
 }
 
@@ -110,10 +117,27 @@ func runLayout(cmd *cobra.Command, o *layoutOptions) error {
 	if err != nil {
 		return err
 	}
+	var host *graph.Graph
+	if o.host != "" {
+		if host, err = loadGraphFormat(cmd.ErrOrStderr(), o.host, "auto", 0); err != nil {
+			return err
+		}
+	}
 	start := time.Now()
-	l, hr, err := heuristic.FindReport(g, kind, heuristic.Options{Seed: o.seed, Candidates: o.candidates, TimeLimit: o.timeLimit, Method: o.parsedMeth})
+	opts := heuristic.Options{Seed: o.seed, Candidates: o.candidates, TimeLimit: o.timeLimit, Method: o.parsedMeth}
+	var l *cert.Layout
+	var hr heuristic.Report
+	if host != nil {
+		l, hr, err = heuristic.FindReportHost(g, host, kind, opts)
+	} else {
+		l, hr, err = heuristic.FindReport(g, kind, opts)
+	}
 	if err != nil {
 		return usageErr(err)
+	}
+	hostNote := ""
+	if hr.OnHost {
+		hostNote = " on the host " + o.host
 	}
 	took := time.Since(start)
 	rep := cert.Validate(g, l)
@@ -125,7 +149,7 @@ func runLayout(cmd *cobra.Command, o *layoutOptions) error {
 	if !rep.OK() {
 		// The heuristic's own output failed the checker: report, write nothing.
 		if o.json {
-			_ = writeJSON(cmd.OutOrStdout(), layoutResult{g.ID(), kind.String(), l.Pages(), perPage, false, "", took.Seconds(), g.N(), g.M(), string(hr.Method), hr.Bound, hr.Theorem})
+			_ = writeJSON(cmd.OutOrStdout(), layoutResult{g.ID(), kind.String(), l.Pages(), perPage, false, "", took.Seconds(), g.N(), g.M(), string(hr.Method), hr.Bound, hr.Theorem, o.host})
 		}
 		return refuted(fmt.Errorf("the layout found by method %s failed validation, not written: %w", hr.Method, rep.Err()))
 	}
@@ -133,16 +157,20 @@ func runLayout(cmd *cobra.Command, o *layoutOptions) error {
 		return err
 	}
 	if o.json {
-		return writeJSON(cmd.OutOrStdout(), layoutResult{g.ID(), kind.String(), l.Pages(), perPage, true, o.output, took.Seconds(), g.N(), g.M(), string(hr.Method), hr.Bound, hr.Theorem})
+		return writeJSON(cmd.OutOrStdout(), layoutResult{g.ID(), kind.String(), l.Pages(), perPage, true, o.output, took.Seconds(), g.N(), g.M(), string(hr.Method), hr.Bound, hr.Theorem, o.host})
 	}
 	dest := o.output
 	if dest == "-" {
 		dest = "stdout"
 	}
-	fmt.Fprintf(stderr, "%s layout of %s (n=%d, m=%d) on %d page(s), found by method %s in %s and validated; written to %s\n  edges per page: %s\n",
-		kind, o.graphArg, g.N(), g.M(), l.Pages(), hr.Method, took.Round(time.Millisecond), dest, layoutJoin(perPage))
+	fmt.Fprintf(stderr, "%s layout of %s (n=%d, m=%d) on %d page(s), found by method %s%s in %s and validated; written to %s\n  edges per page: %s\n",
+		kind, o.graphArg, g.N(), g.M(), l.Pages(), hr.Method, hostNote, took.Round(time.Millisecond), dest, layoutJoin(perPage))
 	if hr.Theorem != "" {
-		fmt.Fprintf(stderr, "  method's class bound: %d page(s): %s\n", hr.Bound, hr.Theorem)
+		if hr.OnHost {
+			fmt.Fprintf(stderr, "  class bound of the host, which every subgraph inherits: %d page(s): %s\n", hr.Bound, hr.Theorem)
+		} else {
+			fmt.Fprintf(stderr, "  method's class bound: %d page(s): %s\n", hr.Bound, hr.Theorem)
+		}
 	}
 	return nil
 }
@@ -161,6 +189,7 @@ type layoutResult struct {
 	Method   string  `json:"method"`
 	Bound    int     `json:"class_bound,omitempty"`
 	Theorem  string  `json:"theorem,omitempty"`
+	Host     string  `json:"host,omitempty"` // the supergraph the method ran on
 }
 
 func layoutJoin(a []int) string {

@@ -2,6 +2,7 @@ package heuristic
 
 import (
 	"math/rand/v2"
+	"time"
 
 	"spinecert.dev/cert"
 	"spinecert.dev/graph"
@@ -22,8 +23,15 @@ import (
 // without a guarantee of their own, so they may fail (nil) even though a
 // cycle exists. The layout is built from the embedding
 // as in HamiltonianTwoPage and checked there for crossings before it is
-// returned; callers still validate it (cert.Validate).
-func FourConnectedTwoPage(g *graph.Graph, seed int64) (*cert.Layout, string) {
+// returned; callers still validate it (cert.Validate). The search uses
+// opts.Seed and stops, giving none, once opts.TimeLimit (when not zero)
+// has passed: on large inputs the rotation search can take very long.
+func FourConnectedTwoPage(g *graph.Graph, opts Options) (*cert.Layout, string) {
+	var deadline time.Time
+	if opts.TimeLimit > 0 {
+		deadline = time.Now().Add(opts.TimeLimit)
+	}
+	seed := opts.Seed
 	n := g.N()
 	if n < 4 || int64(g.M()) != 3*int64(n)-6 {
 		return nil, "not a triangulation on at least 4 vertices (3n-6 edges)"
@@ -45,9 +53,12 @@ func FourConnectedTwoPage(g *graph.Graph, seed int64) (*cert.Layout, string) {
 		if try < diskTries && n <= diskMaxVertices {
 			cyc, ok = r.growHamiltonian(int32(rng.IntN(n)))
 		} else {
-			cyc, ok = posaCycle(g, int32(rng.IntN(n)), rng, posaRotationsPerVertex*n)
+			cyc, ok = posaCycle(g, int32(rng.IntN(n)), rng, posaRotationsPerVertex*n, deadline)
 		}
 		if !ok {
+			if !deadline.IsZero() && time.Now().After(deadline) {
+				return nil, "no Hamiltonian cycle found within the time limit"
+			}
 			continue
 		}
 		if l, ok := cycleTwoPage(g, emb, cyc); ok {

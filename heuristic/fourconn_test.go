@@ -2,7 +2,9 @@ package heuristic
 
 import (
 	"math/rand/v2"
+	"strings"
 	"testing"
+	"time"
 
 	"spinecert.dev/cert"
 	"spinecert.dev/graph"
@@ -11,7 +13,7 @@ import (
 
 func fourConnected(t *testing.T, g *graph.Graph) {
 	t.Helper()
-	l, why := FourConnectedTwoPage(g, 1)
+	l, why := FourConnectedTwoPage(g, Options{Seed: 1})
 	if l == nil {
 		t.Fatalf("%v: %s", g, why)
 	}
@@ -37,7 +39,7 @@ func TestFourConnectedTwoPage(t *testing.T) {
 		for rep := 0; rep < 10; rep++ {
 			g := fixture.RandomFourConnected(rng, n, rng.IntN(3*n)).Graph()
 			tried++
-			l, _ := FourConnectedTwoPage(g, 1)
+			l, _ := FourConnectedTwoPage(g, Options{Seed: 1})
 			if l == nil {
 				continue
 			}
@@ -60,7 +62,7 @@ func TestFourConnectedTwoPage(t *testing.T) {
 func TestFourConnectedRefuses(t *testing.T) {
 	rng := rand.New(rand.NewPCG(9, 10))
 	for _, g := range []*graph.Graph{fixture.GoldnerHarary(), fixture.RandomStackedTriangulation(rng, 50).Graph(), fixture.Petersen(), fixture.Complete(5)} {
-		if l, _ := FourConnectedTwoPage(g, 1); l != nil {
+		if l, _ := FourConnectedTwoPage(g, Options{Seed: 1}); l != nil {
 			t.Errorf("%v: a layout from the 4-connected method", g)
 		}
 	}
@@ -79,7 +81,7 @@ func TestFourConnectedLarge(t *testing.T) {
 	for _, n := range sizes {
 		rng := rand.New(rand.NewPCG(uint64(n), 11))
 		g := fixture.RandomFourConnected(rng, n, 3*n).Graph()
-		l, why := FourConnectedTwoPage(g, 1)
+		l, why := FourConnectedTwoPage(g, Options{Seed: 1})
 		if l == nil {
 			t.Fatalf("n=%d: no layout: %s", n, why)
 		}
@@ -91,5 +93,17 @@ func TestFourConnectedLarge(t *testing.T) {
 				t.Fatalf("n=%d: spine neighbours %d and %d are not adjacent", n, v, w)
 			}
 		}
+	}
+}
+
+// The time limit stops the search: with a limit of a microsecond a large
+// 4-connected triangulation gets no layout, and the reason says why (the
+// embedding alone takes longer than that, so the first check of the clock
+// in the rotation search finds the limit passed).
+func TestFourConnectedTimeLimit(t *testing.T) {
+	g := fixture.RandomFourConnected(rand.New(rand.NewPCG(3, 4)), 20000, 20000).Graph()
+	l, why := FourConnectedTwoPage(g, Options{Seed: 1, TimeLimit: time.Microsecond})
+	if l != nil || !strings.Contains(why, "time limit") {
+		t.Fatalf("layout %v, reason %q; want none, for the time limit", l != nil, why)
 	}
 }

@@ -3,6 +3,7 @@ package heuristic
 import (
 	"fmt"
 	"math/rand/v2"
+	"time"
 
 	"spinecert.dev/cert"
 	"spinecert.dev/graph"
@@ -148,12 +149,16 @@ func construct(g *graph.Graph, m Method, opts Options) (*cert.Layout, Report, st
 		}
 		return nil, Report{}, "the stacking does not cover the graph"
 	case MethodFourConnected:
-		l, why := FourConnectedTwoPage(g, opts.Seed)
+		l, why := FourConnectedTwoPage(g, opts)
 		if l == nil {
 			return nil, Report{}, why
 		}
 		return l, Report{Method: m, Bound: 2, Theorem: theoremFour}, ""
 	case MethodHamiltonSearch:
+		var deadline time.Time
+		if opts.TimeLimit > 0 {
+			deadline = time.Now().Add(opts.TimeLimit)
+		}
 		if g.N() >= 3 && g.M() <= 3*g.N()-6 && g.M() <= hamiltonMaxEdges {
 			if emb, ok := planar.Embed(g); ok {
 				if h, ok := HamiltonianTwoPage(g, emb, hamiltonBudget(g)); ok {
@@ -164,7 +169,7 @@ func construct(g *graph.Graph, m Method, opts Options) (*cert.Layout, Report, st
 				if g.M() == 3*g.N()-6 {
 					rng := rand.New(rand.NewPCG(uint64(opts.Seed), uint64(g.N())))
 					for try := 0; try < fourConnectedTries; try++ {
-						if cyc, ok := posaCycle(g, int32(rng.IntN(g.N())), rng, posaRotationsPerVertex*g.N()); ok {
+						if cyc, ok := posaCycle(g, int32(rng.IntN(g.N())), rng, posaRotationsPerVertex*g.N(), deadline); ok {
 							if h, ok := cycleTwoPage(g, emb, cyc); ok {
 								return h, Report{Method: m, Bound: 2, Theorem: theoremHamilton}, ""
 							}

@@ -2,6 +2,7 @@ package heuristic
 
 import (
 	"math/rand/v2"
+	"time"
 
 	"spinecert.dev/graph"
 )
@@ -17,9 +18,9 @@ import (
 // is a neighbour of its start. Rotations whose new end can be extended (or
 // closes the cycle) are preferred, the one reversing the fewest vertices
 // first; otherwise a rotation is chosen at random. The search gives up
-// (false) after maxRotations rotations. It is a heuristic: false says
-// nothing about g.
-func posaCycle(g *graph.Graph, start int32, rng *rand.Rand, maxRotations int) ([]int32, bool) {
+// (false) after maxRotations rotations or once deadline (when not zero)
+// has passed. It is a heuristic: false says nothing about g.
+func posaCycle(g *graph.Graph, start int32, rng *rand.Rand, maxRotations int, deadline time.Time) ([]int32, bool) {
 	n := g.N()
 	if n < 3 {
 		return nil, false
@@ -82,6 +83,9 @@ func posaCycle(g *graph.Graph, start int32, rng *rand.Rand, maxRotations int) ([
 			continue
 		}
 		if rotations >= maxRotations {
+			return nil, false
+		}
+		if rotations&255 == 0 && !deadline.IsZero() && time.Now().After(deadline) {
 			return nil, false
 		}
 		rotations++

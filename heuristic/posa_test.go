@@ -3,6 +3,7 @@ package heuristic
 import (
 	"math/rand/v2"
 	"testing"
+	"time"
 
 	"spinecert.dev/cert"
 	"spinecert.dev/graph"
@@ -37,7 +38,7 @@ func TestPosaCycleGrids(t *testing.T) {
 			g := fixture.Grid(r, c)
 			found := false
 			for try := 0; try < 20 && !found; try++ {
-				cyc, ok := posaCycle(g, int32(rng.IntN(g.N())), rng, 200*g.N())
+				cyc, ok := posaCycle(g, int32(rng.IntN(g.N())), rng, 200*g.N(), time.Time{})
 				if ok && !isHamiltonianCycle(g, cyc) {
 					t.Fatalf("grid %dx%d: returned a cycle that is not Hamiltonian: %v", r, c, cyc)
 				}

@@ -15,13 +15,19 @@ type Options struct {
 	// Candidates is the number of spine orders to try (default 8). At least
 	// one is always tried, whatever the time limit.
 	Candidates int
-	// TimeLimit stops trying further candidates once it has passed
-	// (0 = no limit). The best layout found so far is returned.
+	// TimeLimit stops trying further candidates, and the Hamiltonian cycle
+	// searches, once it has passed (0 = no limit). The best layout found so
+	// far is returned. The command's default is DefaultTimeLimit.
 	TimeLimit time.Duration
 	// Method chooses the construction ("" or MethodAuto: the first that
 	// applies; see FindReport).
 	Method Method
 }
+
+// DefaultTimeLimit is the time limit of the layout search that the
+// commands use unless told otherwise (layout --time-limit) and that
+// package pagenumber puts in place of no limit.
+const DefaultTimeLimit = 10 * time.Second
 
 // candidates returns the spine orders to try: Candidates, or by default 8;
 // for stack layouts of more than 2·10^5 edges fewer (at least 3), so that

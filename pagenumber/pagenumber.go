@@ -25,8 +25,11 @@ type Options struct {
 	// UnsatLower proves the lower bound with a checked UNSAT step even
 	// when a theorem (edge count, planarity, toughness) already gives it.
 	UnsatLower bool
-	Heuristic  heuristic.Options
-	Progress   func(step int, e verify.Event) // solver and proof events of step (pages) K; may be nil
+	// Heuristic tunes the layout search of the upper bound; a zero
+	// TimeLimit stands for heuristic.DefaultTimeLimit here, so that the
+	// search cannot hold up the SAT steps on a large graph.
+	Heuristic heuristic.Options
+	Progress  func(step int, e verify.Event) // solver and proof events of step (pages) K; may be nil
 	// Obstruction lets a refutation step rest on a small subgraph (see
 	// verify.GraphOptions.Obstruction); nil decides the whole graph.
 	Obstruction *verify.ObstructionOptions
@@ -94,7 +97,11 @@ func Compute(ctx context.Context, g *graph.Graph, opt Options) (*Result, error) 
 		}
 	}
 	// Upper bound from the heuristic, checked directly.
-	l, hr, err := heuristic.FindReport(g, opt.Kind, opt.Heuristic)
+	hopt := opt.Heuristic
+	if hopt.TimeLimit == 0 {
+		hopt.TimeLimit = heuristic.DefaultTimeLimit
+	}
+	l, hr, err := heuristic.FindReport(g, opt.Kind, hopt)
 	if err != nil {
 		return nil, fmt.Errorf("pagenumber: %w", err)
 	}

@@ -79,7 +79,7 @@ early.`,
 	cmd.Flags().StringVar(&o.kind, "kind", "stack", "layout kind: stack or queue")
 	cmd.Flags().StringVarP(&o.output, "output", "o", "-", "write the layout JSON to `FILE` (- for stdout)")
 	cmd.Flags().Int64Var(&o.seed, "seed", 1, "seed for the randomised spine orders")
-	cmd.Flags().DurationVar(&o.timeLimit, "time-limit", 10*time.Second, "stop trying further spine orders, and the Hamiltonian cycle search of the 4-connected and hamiltonian-search methods, after this long (0 = no limit)")
+	cmd.Flags().DurationVar(&o.timeLimit, "time-limit", heuristic.DefaultTimeLimit, "stop trying further spine orders, and the Hamiltonian cycle search of the 4-connected and hamiltonian-search methods, after this long (0 = no limit)")
 	cmd.Flags().IntVar(&o.candidates, "candidates", 8, "number of spine orders to try")
 	cmd.Flags().StringVar(&o.method, "method", "auto", "construction: auto, complete, planar-3-tree, 4-connected, hamiltonian-search or sweep")
 	cmd.Flags().BoolVar(&o.json, "json", false, "print one JSON object on stdout")

@@ -106,19 +106,17 @@ func decimalDigits(k int) int {
 // VertexNumber is VertexBytes for the decimal label of k, without formatting
 // it first; k must be at least 0 and below FastNumbers.
 func (b *Builder) VertexNumber(k int) int32 {
-	{
-		if k < len(b.num) && b.num[k] != 0 {
-			return b.num[k] - 1
-		}
-		if k >= len(b.num) {
-			size := max(k+1, 2*len(b.num))
-			b.num = slices.Grow(b.num, size-len(b.num))[:size]
-		}
-		v := int32(len(b.vals))
-		b.vals = append(b.vals, int32(k))
-		b.num[k] = v + 1
-		return v
+	if k < len(b.num) && b.num[k] != 0 {
+		return b.num[k] - 1
 	}
+	if k >= len(b.num) {
+		size := max(k+1, 2*len(b.num), 1024)
+		b.num = slices.Grow(b.num, size-len(b.num))[:size]
+	}
+	v := int32(len(b.vals))
+	b.vals = append(b.vals, int32(k))
+	b.num[k] = v + 1
+	return v
 }
 
 // N returns the number of vertices added so far.
@@ -186,14 +184,26 @@ func (b *Builder) Build() (*Graph, BuildReport) {
 
 // newGraph wraps sorted, duplicate-free edges over canonically ordered labels.
 func newGraph(labels []string, edges []Edge) *Graph {
-	start := make([]int32, len(labels)+1)
+	return &Graph{n: len(labels), labels: labels, edges: edges, start: edgeStarts(len(labels), edges)}
+}
+
+// newNumberedGraph wraps sorted, duplicate-free edges over the vertices
+// labelled base, base+1, …, base+n-1 (base ≥ 0), whose labels are made when
+// they are first asked for.
+func newNumberedGraph(n, base int, edges []Edge) *Graph {
+	return &Graph{n: n, numbered: true, base: base, edges: edges, start: edgeStarts(n, edges)}
+}
+
+// edgeStarts returns start with the edges of U == u at edges[start[u]:start[u+1]].
+func edgeStarts(n int, edges []Edge) []int32 {
+	start := make([]int32, n+1)
 	for _, e := range edges {
 		start[e.U+1]++
 	}
-	for i := 0; i < len(labels); i++ {
+	for i := 0; i < n; i++ {
 		start[i+1] += start[i]
 	}
-	return &Graph{labels: labels, edges: edges, start: start}
+	return start
 }
 
 // radixSort64 sorts keys whose two 32-bit halves are below n.

@@ -6,6 +6,8 @@ import (
 	"encoding/hex"
 	"fmt"
 	"slices"
+	"strconv"
+	"strings"
 	"sync"
 )
 
@@ -19,9 +21,16 @@ type Edge struct{ U, V int32 }
 // the input format or edge order. Edges() is sorted by (U, V) with U < V.
 // A Graph is immutable once built and safe for concurrent readers.
 type Graph struct {
-	labels []string
-	edges  []Edge
-	start  []int32 // edges with U == u are edges[start[u]:start[u+1]]
+	n     int
+	edges []Edge
+	start []int32 // edges with U == u are edges[start[u]:start[u+1]]
+
+	// A numbered graph has the labels base, base+1, …, base+n-1, made into
+	// strings (labels) only when they are asked for; other graphs have their
+	// labels from the start.
+	numbered   bool
+	labelsOnce sync.Once
+	labels     []string
 
 	indexOnce sync.Once
 	// labels[:dense] are the decimal labels base, base+1, …: Index computes
@@ -36,16 +45,78 @@ type Graph struct {
 }
 
 // N returns the number of vertices.
-func (g *Graph) N() int { return len(g.labels) }
+func (g *Graph) N() int { return g.n }
 
 // M returns the number of edges.
 func (g *Graph) M() int { return len(g.edges) }
 
 // Label returns the label of vertex v.
-func (g *Graph) Label(v int32) string { return g.labels[v] }
+func (g *Graph) Label(v int32) string { return g.Labels()[v] }
 
 // Labels returns the vertex labels in vertex order. The slice must not be modified.
-func (g *Graph) Labels() []string { return g.labels }
+func (g *Graph) Labels() []string {
+	if g.numbered {
+		g.labelsOnce.Do(func() { g.labels = decimalLabels(g.base, g.n) })
+	}
+	return g.labels
+}
+
+// decimalLabels returns the labels base, base+1, …, base+n-1: slices of
+// one string.
+func decimalLabels(base, n int) []string {
+	size := 0
+	for k := base; k < base+n; {
+		w := decimalDigits(k)
+		next := min(base+n, pow10(w)) // the numbers of w digits
+		size += w * (next - k)
+		k = next
+	}
+	var digits strings.Builder
+	digits.Grow(size)
+	c := newCounter(base)
+	for range n {
+		digits.Write(c.text)
+		c.next()
+	}
+	all := digits.String()
+	labels := make([]string, n)
+	w := decimalDigits(base)
+	wider := pow10(w)
+	for i := range labels {
+		if base+i == wider {
+			w, wider = w+1, wider*10
+		}
+		labels[i], all = all[:w], all[w:]
+	}
+	return labels
+}
+
+// pow10 returns 10^w for w < 19.
+func pow10(w int) int {
+	p := 1
+	for ; w > 0; w-- {
+		p *= 10
+	}
+	return p
+}
+
+// counter is the decimal text of a number k ≥ 0 that counts up: cheaper
+// than formatting every number.
+type counter struct{ text []byte }
+
+func newCounter(k int) counter { return counter{strconv.AppendInt(nil, int64(k), 10)} }
+
+// next makes the text that of k+1.
+func (c *counter) next() {
+	for i := len(c.text) - 1; i >= 0; i-- {
+		if c.text[i] != '9' {
+			c.text[i]++
+			return
+		}
+		c.text[i] = '0'
+	}
+	c.text = append([]byte{'1'}, c.text...)
+}
 
 // Edges returns the edges sorted by (U, V). The slice must not be modified.
 func (g *Graph) Edges() []Edge { return g.edges }
@@ -60,10 +131,28 @@ func (g *Graph) Index(label string) (int32, bool) {
 	return v, ok
 }
 
+// IndexNumber returns the vertex labelled with the decimal text of k ≥ 0;
+// it is Index(strconv.Itoa(k)) without the text.
+func (g *Graph) IndexNumber(k int) (int32, bool) {
+	g.indexOnce.Do(g.buildIndex)
+	if k >= g.base && k-g.base < g.dense {
+		return int32(k - g.base), true
+	}
+	if len(g.index) == 0 || k < 0 {
+		return 0, false
+	}
+	v, ok := g.index[strconv.Itoa(k)]
+	return v, ok
+}
+
 // buildIndex finds the run of consecutive numbers that the labels start
 // with (labels are in canonical order: decimal labels first, by value) and
 // maps the labels after it.
 func (g *Graph) buildIndex() {
+	if g.numbered {
+		g.dense = g.n // and g.base is set
+		return
+	}
 	if len(g.labels) > 0 {
 		if k, ok := decimalValue(g.labels[0]); ok {
 			g.base = k
@@ -105,7 +194,7 @@ func (g *Graph) EdgeIndex(u, v int32) int {
 	if u > v {
 		u, v = v, u
 	}
-	if u < 0 || int(v) >= len(g.labels) || u == v {
+	if u < 0 || int(v) >= g.n || u == v {
 		return -1
 	}
 	lo, hi := int(g.start[u]), int(g.start[u+1])
@@ -128,7 +217,7 @@ func (g *Graph) HasEdge(u, v int32) bool { return g.EdgeIndex(u, v) >= 0 }
 
 func (g *Graph) buildAdj() {
 	g.adjOnce.Do(func() {
-		n := len(g.labels)
+		n := g.n
 		off := make([]int32, n+1)
 		for _, e := range g.edges {
 			off[e.U+1]++
@@ -189,17 +278,31 @@ func (g *Graph) ID() string {
 		buf = binary.BigEndian.AppendUint64(buf, x)
 	}
 	buf = append(buf, identityTag...)
-	put(uint64(len(g.labels)))
-	for _, l := range g.labels {
-		put(uint64(len(l)))
-		if len(buf)+len(l) > cap(buf) {
-			h.Write(buf)
-			buf = buf[:0]
+	put(uint64(g.n))
+	if g.numbered {
+		// the same bytes as below, without making the labels
+		c := newCounter(g.base)
+		for range g.n {
+			put(uint64(len(c.text)))
+			if len(buf)+len(c.text) > cap(buf) {
+				h.Write(buf)
+				buf = buf[:0]
+			}
+			buf = append(buf, c.text...)
+			c.next()
 		}
-		if len(l) > cap(buf) {
-			h.Write([]byte(l))
-		} else {
-			buf = append(buf, l...)
+	} else {
+		for _, l := range g.Labels() {
+			put(uint64(len(l)))
+			if len(buf)+len(l) > cap(buf) {
+				h.Write(buf)
+				buf = buf[:0]
+			}
+			if len(l) > cap(buf) {
+				h.Write([]byte(l))
+			} else {
+				buf = append(buf, l...)
+			}
 		}
 	}
 	put(uint64(len(g.edges)))
@@ -215,8 +318,9 @@ func (g *Graph) ID() string {
 // keeping their labels, and the map from new vertex index to old.
 func (g *Graph) Induced(vertices []int32) (*Graph, []int32) {
 	b := NewBuilder()
+	labels := g.Labels()
 	for _, v := range vertices {
-		b.Vertex(g.labels[v])
+		b.Vertex(labels[v])
 	}
 	in := make(map[int32]int32, len(vertices))
 	for i, v := range vertices {
@@ -232,7 +336,7 @@ func (g *Graph) Induced(vertices []int32) (*Graph, []int32) {
 	h, _ := b.Build()
 	old := make([]int32, h.N())
 	for i := range old {
-		v, _ := g.Index(h.labels[i])
+		v, _ := g.Index(h.Labels()[i])
 		old[i] = v
 	}
 	return h, old

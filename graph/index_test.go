@@ -5,6 +5,9 @@ import (
 	"crypto/sha256"
 	"encoding/binary"
 	"encoding/hex"
+	"fmt"
+	"slices"
+	"strconv"
 	"strings"
 	"testing"
 )
@@ -39,6 +42,56 @@ func TestIndex(t *testing.T) {
 			if got, ok := g.Index(l); ok {
 				t.Errorf("labels %q: Index(%q) = %d, true; want false", c.labels, l, got)
 			}
+		}
+		for k := -2; k < 30; k++ {
+			want, wok := g.Index(strconv.Itoa(k))
+			if got, ok := g.IndexNumber(k); ok != wok || (ok && got != want) {
+				t.Errorf("labels %q: IndexNumber(%d) = %d, %v; want %d, %v", c.labels, k, got, ok, want, wok)
+			}
+		}
+	}
+}
+
+// TestNumberedGraphs checks the graphs whose decimal labels are made only
+// when asked for: their labels, Index, IndexNumber and ID are those of the
+// same graph built from label strings.
+func TestNumberedGraphs(t *testing.T) {
+	for _, c := range []struct{ n, base int }{{0, 0}, {1, 0}, {12, 0}, {11, 1}, {120, 95}, {3, 999998}} {
+		var in strings.Builder
+		b := NewBuilder()
+		for v := 0; v < c.n; v++ {
+			fmt.Fprintf(&in, "%d %d\n", c.base+v, c.base+(v+1)%c.n)
+			b.Vertex(strconv.Itoa(c.base + v))
+		}
+		for v := 0; v < c.n; v++ {
+			if u, w := int32(v), int32((v+1)%c.n); u != w {
+				_ = b.AddEdge(u, w)
+			}
+		}
+		want, _ := b.Build()
+		if c.n == 1 {
+			in.Reset()
+			in.WriteString(strconv.Itoa(c.base) + "\n")
+		}
+		res, err := Read(strings.NewReader(in.String()), "n.edges", FormatEdgeList)
+		if err != nil {
+			t.Fatal(err)
+		}
+		g := res.Graphs[0]
+		if !g.numbered {
+			t.Fatalf("%+v: not read as a numbered graph", c)
+		}
+		if g.ID() != want.ID() {
+			t.Errorf("%+v: identity differs from the built graph's", c)
+		}
+		for k := c.base - 2; k < c.base+c.n+2; k++ {
+			w, wok := want.Index(strconv.Itoa(k))
+			if v, ok := g.IndexNumber(k); ok != wok || v != w {
+				t.Errorf("%+v: IndexNumber(%d) = %d, %v; want %d, %v", c, k, v, ok, w, wok)
+			}
+		}
+		if !slices.Equal(g.Labels(), want.Labels()) || g.ID() != want.ID() {
+			t.Errorf("%+v: labels %q, want %q", c, g.Labels(), want.Labels())
 		}
 	}
 }

@@ -7,6 +7,7 @@ import (
 	"io"
 	"os"
 	"path/filepath"
+	"slices"
 	"strconv"
 	"strings"
 
@@ -69,12 +70,25 @@ func ReadFile(path string, f Format) (*ReadResult, error) {
 		return nil, fmt.Errorf("graph: %w", err)
 	}
 	defer file.Close()
-	return Read(file, path, f)
+	hint := 0
+	if st, err := file.Stat(); err == nil && st.Mode().IsRegular() {
+		hint = int(min(st.Size(), 1<<40))
+	}
+	return read(file, path, f, hint)
 }
 
 // Read reads one or more graphs from r; name is used in messages and
 // its extension as a format hint when f is FormatAuto.
 func Read(r io.Reader, name string, f Format) (*ReadResult, error) {
+	hint := 0
+	if l, ok := r.(interface{ Len() int }); ok { // bytes.Reader, strings.Reader, bytes.Buffer
+		hint = l.Len()
+	}
+	return read(r, name, f, hint)
+}
+
+// read is Read for an input of about size bytes (0 if not known).
+func read(r io.Reader, name string, f Format, size int) (*ReadResult, error) {
 	br := bufio.NewReaderSize(r, 1<<20)
 	var warnings []string
 	// A UTF-8 byte-order mark (some editors write one) is not part of the
@@ -92,7 +106,7 @@ func Read(r io.Reader, name string, f Format) (*ReadResult, error) {
 	switch f {
 	case FormatEdgeList:
 		var g *Graph
-		g, err = readEdgeList(br, name, res)
+		g, err = readEdgeList(br, name, res, size)
 		if g != nil {
 			res.Graphs = []*Graph{g}
 		}
@@ -225,8 +239,11 @@ func looksDIMACS(rest []byte) bool {
 // form "NUM NUM" are parsed in place from large chunks and the edges kept as
 // pairs of numbers; the graph is then built without hashing or sorting
 // labels. The first other label moves everything into a Builder.
-func readEdgeList(br *bufio.Reader, name string, res *ReadResult) (*Graph, error) {
-	st := &edgeListReader{name: name, maxv: -1}
+func readEdgeList(br *bufio.Reader, name string, res *ReadResult, size int) (*Graph, error) {
+	// An edge takes at least 4 bytes ("0 1\n"): when the size is known, the
+	// first block of pairs has room for all (up to 1<<26; the room no edge
+	// takes is reserved but never touched).
+	st := &edgeListReader{name: name, maxv: -1, sorted: true, pairs: make([]Edge, 0, min(size/4, 1<<26))}
 	line := 0
 	for {
 		// Work on the reader's own buffer: no copy of the input is made.
@@ -264,10 +281,11 @@ const edgeListFast = 1 << 24
 type edgeListReader struct {
 	name    string
 	b       *Builder
-	pairs   []uint64   // u<<32|v label values, u < v, while b is nil: the current block
-	full    [][]uint64 // earlier blocks of pairs
-	cu, cv  []int32    // cu[x], cv[x]: pairs with smaller, larger value x
-	singles []uint32   // labels of one-label lines while b is nil
+	pairs   []Edge   // pairs of label values, U < V, while b is nil: the current block
+	full    [][]Edge // earlier blocks of pairs
+	sorted  bool     // the pairs came in increasing order
+	last    Edge     // the pair added last
+	singles []uint32 // labels of one-label lines while b is nil
 	maxv    int
 }
 
@@ -393,22 +411,21 @@ func (st *edgeListReader) addNum(u, v int) {
 	if u > v {
 		u, v = v, u
 	}
-	if v >= len(st.cu) {
-		k := max(2*len(st.cu), v+1, 1024)
-		st.cu = append(st.cu, make([]int32, k-len(st.cu))...)
-		st.cv = append(st.cv, make([]int32, k-len(st.cv))...)
-	}
-	st.cu[u]++
-	st.cv[v]++
 	st.maxv = max(st.maxv, v)
+	e := Edge{int32(u), int32(v)}
+	if e.U < st.last.U || e.U == st.last.U && e.V < st.last.V {
+		st.sorted = false
+	}
+	st.last = e
 	if len(st.pairs) == cap(st.pairs) {
 		st.newBlock()
 	}
-	st.pairs = append(st.pairs, uint64(u)<<32|uint64(v))
+	st.pairs = append(st.pairs, e)
 }
 
-// edgeBlock is the size of the blocks pairs are collected in: growing one
-// slice by doubling would copy and fault in far more memory.
+// edgeBlock is the size of the blocks pairs are collected in when the size
+// of the input is not known: growing one slice by doubling would copy and
+// fault in far more memory.
 const edgeBlock = 1 << 16
 
 // newBlock starts a new block of pairs.
@@ -416,11 +433,11 @@ func (st *edgeListReader) newBlock() {
 	if len(st.pairs) > 0 {
 		st.full = append(st.full, st.pairs)
 	}
-	st.pairs = make([]uint64, 0, edgeBlock)
+	st.pairs = make([]Edge, 0, edgeBlock)
 }
 
 // allPairs returns every pair collected, in one slice.
-func (st *edgeListReader) allPairs() []uint64 {
+func (st *edgeListReader) allPairs() []Edge {
 	if len(st.full) == 0 {
 		return st.pairs
 	}
@@ -428,7 +445,7 @@ func (st *edgeListReader) allPairs() []uint64 {
 	for _, b := range st.full {
 		m += len(b)
 	}
-	all := make([]uint64, 0, m)
+	all := make([]Edge, 0, m)
 	for i, b := range st.full {
 		all = append(all, b...)
 		st.full[i] = nil
@@ -450,7 +467,7 @@ func (st *edgeListReader) toBuilder() {
 		vertex(uint64(s))
 	}
 	for _, p := range st.allPairs() {
-		_ = b.AddEdge(vertex(p>>32), vertex(p&0xffffffff))
+		_ = b.AddEdge(vertex(uint64(p.U)), vertex(uint64(p.V)))
 	}
 	st.b, st.singles = b, nil
 }
@@ -462,94 +479,177 @@ func (st *edgeListReader) build() (*Graph, BuildReport) {
 	}
 	blocks := append(st.full, st.pairs)
 	st.full, st.pairs = nil, nil
-	// rank[x] is the vertex of label x: numbers in increasing order are in
-	// canonical label order.
-	cu, cv := st.cu, st.cv
+	// rank[x] is the vertex of label x (-1 if no vertex has it): numbers in
+	// increasing order are in canonical label order.
 	rank := make([]int32, st.maxv+1)
 	for _, s := range st.singles {
 		rank[s] = 1
 	}
 	m := 0
-	for x := range min(len(cu), len(rank)) {
-		if cu[x] != 0 || cv[x] != 0 {
-			rank[x] = 1
+	for _, b := range blocks {
+		for _, e := range b {
+			rank[e.U], rank[e.V] = 1, 1
 		}
-		m += int(cu[x])
+		m += len(b)
 	}
-	var digits []byte
-	var ends []int
-	n := int32(0)
-	for x, r := range rank {
-		if r == 0 {
+	n, lo, size := int32(0), 0, 0
+	for x, w, wider := 0, 1, 10; x < len(rank); x++ {
+		if x == wider {
+			w, wider = w+1, wider*10
+		}
+		if rank[x] == 0 {
+			rank[x] = -1
 			continue
+		}
+		if n == 0 {
+			lo = x
 		}
 		rank[x] = n
 		n++
-		digits = strconv.AppendInt(digits, int64(x), 10)
-		ends = append(ends, len(digits))
+		size += w
 	}
-	all := string(digits)
-	labels := make([]string, n)
-	prev := 0
-	for i, e := range ends {
-		labels[i], prev = all[prev:e], e
-	}
-	// Sort the pairs by (smaller, larger) value with two counting sorts, by
-	// larger value into tmp, then stably by smaller value into edges, and
-	// number the vertices; then drop repeats.
-	sumU, sumV := int32(0), int32(0)
-	for x := range cu {
-		cu[x], sumU = sumU, sumU+cu[x]
-		cv[x], sumV = sumV, sumV+cv[x]
-	}
-	tmp := make([]uint64, m)
-	for k, b := range blocks {
-		for _, p := range b {
-			v := p & 0xffffffff
-			tmp[cv[v]] = p
-			cv[v]++
+	// A run of consecutive numbers makes a numbered graph, whose labels are
+	// made only when asked for; other labels are made now.
+	numbered := int(n) == len(rank)-lo
+	var labels []string
+	label := func(v int32) string { return strconv.Itoa(lo + int(v)) }
+	if !numbered {
+		var digits strings.Builder
+		digits.Grow(size)
+		c := newCounter(lo)
+		for _, r := range rank[lo:] {
+			if r >= 0 {
+				digits.Write(c.text)
+			}
+			c.next()
 		}
-		blocks[k] = nil
+		all := digits.String()
+		labels = make([]string, n)
+		for x, w, wider := 0, 1, 10; x < len(rank); x++ {
+			if x == wider {
+				w, wider = w+1, wider*10
+			}
+			if r := rank[x]; r >= 0 {
+				labels[r], all = all[:w], all[w:]
+			}
+		}
+		label = func(v int32) string { return labels[v] }
 	}
-	edges := make([]Edge, m)
-	for _, p := range tmp {
-		u := p >> 32
-		edges[cu[u]] = Edge{rank[u], rank[p&0xffffffff]}
-		cu[u]++
-	}
+	edges := sortPairs(blocks, m, rank, st.sorted, numbered && lo == 0)
+	// drop repeats
 	var rep BuildReport
 	w := 0
 	for _, e := range edges {
 		if w > 0 && edges[w-1] == e {
 			rep.Duplicates++
 			if len(rep.Examples) < 10 {
-				rep.Examples = append(rep.Examples, [2]string{labels[e.U], labels[e.V]})
+				rep.Examples = append(rep.Examples, [2]string{label(e.U), label(e.V)})
 			}
 			continue
 		}
 		edges[w] = e
 		w++
 	}
+	if numbered {
+		return newNumberedGraph(int(n), lo, edges[:w]), rep
+	}
 	return newGraph(labels, edges[:w]), rep
+}
+
+// sortPairs returns the m pairs of label values in blocks as edges between
+// the vertices rank gives them, sorted by (U, V); sorted says that the pairs
+// came in order, same that every label value is its vertex. Pairs that came
+// sorted in one block are numbered in place. Otherwise a stable counting
+// sort by smaller value follows, which suffices when the pairs of each
+// smaller value came in order; if they did not, a counting sort by larger
+// value comes first.
+func sortPairs(blocks [][]Edge, m int, rank []int32, sorted, same bool) []Edge {
+	if len(blocks) == 1 && sorted {
+		edges := blocks[0]
+		if !same {
+			for i, e := range edges {
+				edges[i] = Edge{rank[e.U], rank[e.V]}
+			}
+		}
+		return edges
+	}
+	n := len(rank)
+	count := make([]int32, n+1)
+	for _, b := range blocks {
+		for _, e := range b {
+			count[e.U+1]++
+		}
+	}
+	for x := 1; x <= n; x++ {
+		count[x] += count[x-1]
+	}
+	cu := slices.Clone(count)
+	edges := make([]Edge, m)
+	for _, b := range blocks {
+		for _, e := range b {
+			edges[cu[e.U]] = Edge{rank[e.U], rank[e.V]}
+			cu[e.U]++
+		}
+	}
+	inOrder := true
+	for i := 1; i < len(edges); i++ {
+		if edges[i].U == edges[i-1].U && edges[i].V < edges[i-1].V {
+			inOrder = false
+			break
+		}
+	}
+	if inOrder {
+		return edges
+	}
+	cv := cu // reused: by larger value now
+	clear(cv)
+	for _, b := range blocks {
+		for _, e := range b {
+			cv[e.V+1]++
+		}
+	}
+	for x := 1; x <= n; x++ {
+		cv[x] += cv[x-1]
+	}
+	tmp := edges // reused: sorted by larger value, then by smaller into edges
+	for _, b := range blocks {
+		for _, e := range b {
+			tmp[cv[e.V]] = e
+			cv[e.V]++
+		}
+	}
+	edges = make([]Edge, m)
+	for _, e := range tmp {
+		edges[count[e.U]] = Edge{rank[e.U], rank[e.V]}
+		count[e.U]++
+	}
+	return edges
 }
 
 // graphFromPairs builds the graph over labels (in canonical order) from
 // vertex pairs u<<32|v with u < v, merging repeats.
 func graphFromPairs(labels []string, pairs []uint64) (*Graph, BuildReport) {
-	radixSort64(pairs, len(labels))
+	edges, rep := edgesFromPairs(pairs, len(labels), func(v int32) string { return labels[v] })
+	return newGraph(labels, edges), rep
+}
+
+// edgesFromPairs sorts vertex pairs u<<32|v with u < v < n and returns them
+// as edges, merging repeats; label names vertices in the report.
+func edgesFromPairs(pairs []uint64, n int, label func(int32) string) ([]Edge, BuildReport) {
+	radixSort64(pairs, n)
 	var rep BuildReport
 	edges := make([]Edge, 0, len(pairs))
 	for i, p := range pairs {
 		if i > 0 && pairs[i-1] == p {
 			rep.Duplicates++
 			if len(rep.Examples) < 10 {
-				rep.Examples = append(rep.Examples, [2]string{labels[p>>32], labels[p&0xffffffff]})
+				rep.Examples = append(rep.Examples, [2]string{label(int32(p >> 32)), label(int32(p & 0xffffffff))})
 			}
 			continue
 		}
 		edges = append(edges, Edge{int32(p >> 32), int32(p & 0xffffffff)})
 	}
-	return newGraph(labels, edges), rep
+	return edges, rep
 }
 
 func isSpace(c byte) bool {

@@ -51,6 +51,17 @@ func ioFuzzRoundTrip(t *testing.T, data []byte, format Format, write func(*bytes
 	}
 	var out bytes.Buffer
 	for _, g := range res.Graphs {
+		// the same graph built from its label strings has the same identity
+		b := NewBuilder()
+		for _, l := range g.Labels() {
+			b.Vertex(l)
+		}
+		for _, e := range g.Edges() {
+			_ = b.AddEdge(e.U, e.V)
+		}
+		if h, _ := b.Build(); h.ID() != g.ID() {
+			t.Fatalf("graph %v: identity differs from that of the graph built from its labels", g)
+		}
 		if err := write(&out, g); err != nil {
 			t.Fatalf("cannot write what was read (%v): %v", g, err)
 		}

@@ -375,17 +375,6 @@ func parseSparse6(b []byte, col int) (*Graph, string, *textpos.Error) {
 // index pairs u<<32|v with u < v < n, merging repeats. Decimal labels in
 // increasing order are already in canonical order, so no label sort is needed.
 func numberedGraph(n, base int, pairs []uint64) (*Graph, BuildReport) {
-	var digits []byte
-	ends := make([]int, n)
-	for i := 0; i < n; i++ {
-		digits = strconv.AppendInt(digits, int64(base+i), 10)
-		ends[i] = len(digits)
-	}
-	all := string(digits)
-	labels := make([]string, n)
-	prev := 0
-	for i, e := range ends {
-		labels[i], prev = all[prev:e], e
-	}
-	return graphFromPairs(labels, pairs)
+	edges, rep := edgesFromPairs(pairs, n, func(v int32) string { return strconv.Itoa(base + int(v)) })
+	return newNumberedGraph(n, base, edges), rep
 }

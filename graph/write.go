@@ -14,26 +14,27 @@ import (
 // with the same ID. A label that is empty or holds whitespace, '#' or '%'
 // cannot be written and makes it return an error wrapping ErrUnwritableLabels.
 func WriteEdgeList(w io.Writer, g *Graph) error {
-	for _, l := range g.labels {
+	labels := g.Labels()
+	for _, l := range labels {
 		if l == "" || strings.ContainsAny(l, " \t\r\n\v\f#%") {
 			return fmt.Errorf("%w: label %q cannot be written in an edge list (empty, or holds whitespace, '#' or '%%')", ErrUnwritableLabels, l)
 		}
 	}
 	bw := bufio.NewWriterSize(w, 1<<16)
-	touched := make([]bool, len(g.labels))
+	touched := make([]bool, g.n)
 	for _, e := range g.edges {
 		touched[e.U], touched[e.V] = true, true
 	}
 	for v, t := range touched {
 		if !t {
-			bw.WriteString(g.labels[v])
+			bw.WriteString(labels[v])
 			bw.WriteByte('\n')
 		}
 	}
 	for _, e := range g.edges {
-		bw.WriteString(g.labels[e.U])
+		bw.WriteString(labels[e.U])
 		bw.WriteByte(' ')
-		bw.WriteString(g.labels[e.V])
+		bw.WriteString(labels[e.V])
 		bw.WriteByte('\n')
 	}
 	if err := bw.Flush(); err != nil {
@@ -44,12 +45,15 @@ func WriteEdgeList(w io.Writer, g *Graph) error {
 
 // checkNumbered reports whether vertex v is labelled base+v for every v.
 func checkNumbered(g *Graph, base int, format string) error {
+	if g.numbered && g.base == base {
+		return nil
+	}
 	var buf []byte
-	for v, l := range g.labels {
+	for v, l := range g.Labels() {
 		buf = strconv.AppendInt(buf[:0], int64(base+v), 10)
 		if l != string(buf) {
 			return fmt.Errorf("%w: %s needs vertices labelled %d..%d, vertex %d is labelled %q",
-				ErrUnwritableLabels, format, base, base+len(g.labels)-1, v, l)
+				ErrUnwritableLabels, format, base, base+g.n-1, v, l)
 		}
 	}
 	return nil
@@ -64,7 +68,7 @@ func WriteDIMACS(w io.Writer, g *Graph) error {
 		return err
 	}
 	bw := bufio.NewWriterSize(w, 1<<16)
-	fmt.Fprintf(bw, "p edge %d %d\n", len(g.labels), len(g.edges))
+	fmt.Fprintf(bw, "p edge %d %d\n", g.n, len(g.edges))
 	var buf []byte
 	for _, e := range g.edges {
 		buf = append(buf[:0], 'e', ' ')
@@ -128,7 +132,7 @@ func appendN(dst []byte, n uint64) []byte {
 // AppendGraph6 appends the graph6 encoding of g (vertices in g's order,
 // labels dropped, no header, no newline) to dst.
 func AppendGraph6(dst []byte, g *Graph) []byte {
-	n := uint64(len(g.labels))
+	n := uint64(g.n)
 	dst = appendN(dst, n)
 	if n < 2 {
 		return dst
@@ -169,7 +173,7 @@ func (bw *bitWriter) bits(x uint64, k uint) {
 // case formats.txt names (n a power of two up to 16, vertex n-2 the largest
 // with an edge, and at least k+1 bits to pad), so the output matches nauty's.
 func AppendSparse6(dst []byte, g *Graph) []byte {
-	n := uint64(len(g.labels))
+	n := uint64(g.n)
 	dst = appendN(append(dst, ':'), n)
 	k := sparse6Bits(n)
 	keys := make([]uint64, len(g.edges))

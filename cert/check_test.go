@@ -3,6 +3,7 @@ package cert
 import (
 	"fmt"
 	"math/rand/v2"
+	"slices"
 	"strconv"
 	"testing"
 
@@ -111,13 +112,19 @@ func randomLayout(r *rand.Rand, g *graph.Graph, kind Kind, k int) *Layout {
 
 func TestFastCheckerAgreesWithBruteForce(t *testing.T) {
 	r := rand.New(rand.NewPCG(1, 2))
-	defer func(old int) { parallelMin = old }(parallelMin)
+	defer func(pm, rm int) { parallelMin, radixMin = pm, rm }(parallelMin, radixMin)
 	for trial := 0; trial < 4000; trial++ {
-		parallelMin = []int{1 << 16, 0}[trial%2] // both the serial and the two-half scan
+		parallelMin = []int{1 << 16, 0}[trial%2]       // both the serial and the two-half scan
+		radixMin = []int{1 << 10, 1 << 10, 0}[trial%3] // both sorts of a page
 		n := 2 + r.IntN(12)
 		g := randomLayoutGraph(r, n, r.Float64())
 		kind := Kind(1 + r.IntN(3))
 		l := randomLayout(r, g, kind, 1+r.IntN(3))
+		if trial%5 == 0 { // the spine in vertex order: pages arrive sorted
+			for i := range l.Order {
+				l.Order[i] = int32(i)
+			}
+		}
 		rep := Validate(g, l)
 		cr, ne := bruteConflicts(g, l)
 		if (cr+ne == 0) != rep.OK() {
@@ -148,6 +155,50 @@ func TestFastCheckerAgreesWithBruteForce(t *testing.T) {
 				t.Fatalf("trial %d: witness page mismatch", trial)
 			}
 		}
+	}
+}
+
+// TestSweepAgreesWithPageScan compares the one-pass scan of layouts whose
+// spine is in increasing vertex order with the page-by-page scan.
+func TestSweepAgreesWithPageScan(t *testing.T) {
+	r := rand.New(rand.NewPCG(3, 4))
+	defer func(pm int) { parallelMin = pm }(parallelMin)
+	var passed, failed int
+	for trial := 0; trial < 4000; trial++ {
+		parallelMin = []int{1 << 16, 0}[trial%2] // one sweep, or two halves of the pages
+		n := 2 + r.IntN(14)
+		g := randomLayoutGraph(r, n, r.Float64())
+		l := randomLayout(r, g, Kind(1+r.IntN(3)), 1+r.IntN(3))
+		l.Order = l.Order[:0]
+		for v := range int32(n) {
+			if trial%3 != 0 || r.IntN(4) > 0 { // some vertices left out
+				l.Order = append(l.Order, v)
+			}
+		}
+		if trial%7 == 0 && len(l.Page) > 0 {
+			l.Page[r.IntN(len(l.Page))] = int32(r.IntN(6)) - 1 // no page, or outside 1..k
+		}
+		pos := l.Positions(g.N())
+		var scan Report
+		start := make([]int32, l.Pages()+2)
+		for e, ed := range g.Edges() {
+			if p := l.Page[e]; p >= 1 && int(p) <= l.Pages() && pos[ed.U] >= 0 && pos[ed.V] >= 0 {
+				start[p+1]++
+			}
+		}
+		count := slices.Clone(start)
+		scanConflicts(g, l, pos, start, &scan)
+		if found := sweepFinds(g, l, pos, count); found == scan.OK() {
+			t.Fatalf("trial %d: the sweep finds %v, the page scan %v", trial, found, scan.Problems)
+		}
+		if scan.OK() {
+			passed++
+		} else {
+			failed++
+		}
+	}
+	if passed < 400 || failed < 400 {
+		t.Fatalf("%d layouts without conflicts and %d with: too few of one kind to compare", passed, failed)
 	}
 }
 
@@ -289,6 +340,20 @@ func TestOuterplanarInOnePage(t *testing.T) {
 		if (cr == 0) != Validate(g, rl).OK() {
 			t.Fatalf("checker and reference disagree on a random order")
 		}
+	}
+}
+
+// A spine longer than the graph (with entries that are not vertices) puts
+// vertices at positions beyond the vertex count; the scan takes them.
+func TestValidateLongSpine(t *testing.T) {
+	g, l := completeLayout(6)
+	l.Order = append([]int32{77, -1, 3}, l.Order...)
+	rep := Validate(g, l)
+	if rep.Counts[UnknownVertex.String()] != 2 || rep.Counts[DuplicateVertex.String()] != 1 {
+		t.Fatalf("want 2 unknown and 1 repeated vertex, got %v", rep.Problems)
+	}
+	if rep.Counts[Crossing.String()] == 0 { // vertex 3 moved to the front
+		t.Fatalf("want a crossing, got %v", rep.Problems)
 	}
 }
 

@@ -2,6 +2,7 @@ package cert
 
 import (
 	"fmt"
+	"strconv"
 	"strings"
 )
 
@@ -110,15 +111,39 @@ func (l *Layout) Positions(n int) []int32 {
 }
 
 // RawLayout is a layout as read from a file, before it is matched with a graph.
-// Vertices are indices into Labels; the spine lists them in order.
+// Vertices are label numbers 0..NumLabels()-1 (see Label); the spine lists
+// them in order.
 type RawLayout struct {
 	Kind      Kind
 	Pages     int
 	PageKinds []Kind // as given (only for mixed), else nil
-	Labels    []string
 	Spine     []int32
 	Edges     []RawEdge
 	Graph     string // graph identity named in the file, if any
+
+	// The labels are labels[i]; when labels is nil, they are the decimal
+	// texts of base, base+1, …, base+numbers-1, made only when asked for.
+	labels        []string
+	base, numbers int
+}
+
+// NumLabels returns the number of distinct labels in the layout.
+func (r *RawLayout) NumLabels() int {
+	if r.labels == nil {
+		return r.numbers
+	}
+	return len(r.labels)
+}
+
+// Label returns label i, 0 ≤ i < NumLabels().
+func (r *RawLayout) Label(i int32) string {
+	if r.labels == nil {
+		if i < 0 || int(i) >= r.numbers {
+			panic(fmt.Sprintf("cert: label %d of a layout with %d labels", i, r.numbers))
+		}
+		return strconv.Itoa(r.base + int(i))
+	}
+	return r.labels[i]
 }
 
 // RawEdge is one edge record of a raw layout: two label indices and a page.

@@ -40,14 +40,18 @@ func ReadLayoutFile(path string) (*RawLayout, error) {
 	defer f.Close()
 	hint := 0
 	if st, err := f.Stat(); err == nil && st.Mode().IsRegular() {
-		hint = int(st.Size() / 8) // an edge record takes at least 8 bytes: [u,v,p],
+		hint = int(min(st.Size()/8, 1<<27)) // an edge record takes at least 8 bytes: [u,v,p],
 	}
 	return readLayout(f, path, hint)
 }
 
 // ReadLayoutJSON reads a layout in spinecert's JSON layout format.
 func ReadLayoutJSON(r io.Reader, name string) (*RawLayout, error) {
-	return readLayout(r, name, 0)
+	hint := 0
+	if l, ok := r.(interface{ Len() int }); ok { // bytes.Reader, strings.Reader, bytes.Buffer
+		hint = min(l.Len()/8, 1<<27)
+	}
+	return readLayout(r, name, hint)
 }
 
 // readLayout reads a layout, reserving room for edgeHint edges.
@@ -70,7 +74,8 @@ type jscan struct {
 	// counts the bytes of the current line dropped with them
 	lines, cols int
 	rerr        error
-	b           *graph.Builder
+	labels      labelSet
+	raw         *RawLayout // the layout being read
 	buf         []byte
 	hint        int // expected number of edges
 }
@@ -164,7 +169,7 @@ func (s *jscan) expect(want byte, what string) error {
 
 func (s *jscan) layout() (*RawLayout, error) {
 	raw := &RawLayout{}
-	s.b = graph.NewBuilder()
+	s.raw = raw
 	if err := s.expect('{', "'{' at the start of a layout"); err != nil {
 		return nil, err
 	}
@@ -278,7 +283,7 @@ func (s *jscan) layout() (*RawLayout, error) {
 			}
 		}
 	}
-	raw.Labels = s.b.Labels()
+	s.labels.finish(raw)
 	return raw, nil
 }
 
@@ -422,7 +427,7 @@ func (s *jscan) label(c byte) (int32, error) {
 		if err != nil {
 			return 0, err
 		}
-		return s.b.VertexBytes(b), nil
+		return s.labels.bytes(b, s.raw), nil
 	case c == '-' || (c >= '0' && c <= '9'):
 		if v, ok := s.fastNumber(c); ok {
 			return v, nil
@@ -430,7 +435,7 @@ func (s *jscan) label(c byte) (int32, error) {
 		if _, err := s.integer(c); err != nil {
 			return 0, err
 		}
-		return s.b.VertexBytes(s.buf), nil
+		return s.labels.bytes(s.buf, s.raw), nil
 	}
 	return 0, s.errf("expected a vertex label (string or integer), found %q", c)
 }
@@ -440,23 +445,19 @@ func (s *jscan) label(c byte) (int32, error) {
 // after it are in the buffer and that byte ends a number; otherwise it
 // consumes nothing more and returns false, and the general parser takes over.
 func (s *jscan) fastNumber(c byte) (int32, bool) {
-	if c < '0' || c > '9' {
+	d, p := s.data, s.pos-1 // d[p] is c
+	if c-'0' > 9 || p < 0 || d[p] != c {
 		return 0, false
 	}
-	d, p := s.data, s.pos
-	n := int(c - '0')
-	for p < len(d) && p-s.pos < 6 && d[p] >= '0' && d[p] <= '9' {
-		n = n*10 + int(d[p]-'0')
-		p++
-	}
-	if p >= len(d) || (c == '0' && p > s.pos) {
+	k, q, ok := smallDecimal(d, p)
+	if !ok || q >= len(d) {
 		return 0, false
 	}
-	if b := d[p]; (b >= '0' && b <= '9') || b == '.' || b == 'e' || b == 'E' {
+	if b := d[q]; b-'0' <= 9 || b == '.' || b == 'e' || b == 'E' {
 		return 0, false
 	}
-	s.pos = p
-	return s.b.VertexNumber(n), true
+	s.pos = q
+	return s.labels.number(k), true
 }
 
 func (s *jscan) stringArray() ([]string, error) {
@@ -506,10 +507,65 @@ func (s *jscan) array(what string, elem func(c byte) error) error {
 
 func (s *jscan) spine(raw *RawLayout) error {
 	return s.array(`"spine" (a list of vertex labels)`, func(c byte) error {
+		if s.fastSpine(c, raw) {
+			return nil
+		}
 		v, err := s.label(c)
-		raw.Spine = append(raw.Spine, v)
+		raw.Spine = appendDoubling(raw.Spine, v)
 		return err
 	})
+}
+
+// appendDoubling appends v to a, doubling its capacity when it is full:
+// append grows large slices by a quarter, which copies (and faults in)
+// about five times the final size.
+func appendDoubling[T any](a []T, v T) []T {
+	if len(a) == cap(a) {
+		b := make([]T, len(a), max(2*cap(a), 1024))
+		copy(b, a)
+		a = b
+	}
+	return append(a, v)
+}
+
+// fastSpine reads spine labels that are canonical decimal integers of at
+// most 7 digits separated by bare commas, starting with the one whose first
+// byte c was read. It stops after the last such label whose following byte
+// is in the buffer and ends a number, leaving the rest to the general parser;
+// it returns false when it consumed nothing.
+func (s *jscan) fastSpine(c byte, raw *RawLayout) bool {
+	d, p := s.data, s.pos-1 // d[p] is c
+	if c-'0' > 9 || p < 0 || d[p] != c {
+		return false
+	}
+	found := false
+	for {
+		k, q, ok := smallDecimal(d, p)
+		if !ok || q >= len(d) {
+			break
+		}
+		if b := d[q]; b-'0' <= 9 || b == '.' || b == 'e' || b == 'E' {
+			break
+		}
+		v := int32(k)
+		if ls := &s.labels; ls.b == nil && k < len(ls.seen) {
+			ls.seen[k] = true // labelSet.number, inlined
+		} else {
+			v = ls.number(k)
+		}
+		raw.Spine = appendDoubling(raw.Spine, v)
+		found = true
+		s.pos = q
+		if len(d)-q < 32 {
+			s.fill()
+			d, q = s.data, s.pos
+		}
+		if q+1 >= len(d) || d[q] != ',' || d[q+1]-'0' > 9 {
+			break
+		}
+		p = q + 1
+	}
+	return found
 }
 
 func (s *jscan) edges(raw *RawLayout) error {
@@ -518,8 +574,7 @@ func (s *jscan) edges(raw *RawLayout) error {
 		if c != '[' {
 			return s.errf("expected an edge [u, v, page], found %q", c)
 		}
-		if e, ok := s.fastEdge(); ok {
-			raw.Edges = append(raw.Edges, e)
+		if s.fastEdges(raw) {
 			return nil
 		}
 		var e RawEdge
@@ -532,8 +587,12 @@ func (s *jscan) edges(raw *RawLayout) error {
 			return err
 		}
 		c, _ = s.skip()
+		values := s.labels.b == nil
 		if e.V, err = s.label(c); err != nil {
 			return err
+		}
+		if values && s.labels.b != nil { // e.V moved the labels into a Builder
+			e.U = s.labels.b.VertexNumber(int(e.U))
 		}
 		if err := s.expect(',', "',' between the parts of an edge [u, v, page]"); err != nil {
 			return err
@@ -555,38 +614,58 @@ func (s *jscan) edges(raw *RawLayout) error {
 	})
 }
 
-// fastEdge parses the common shape of an edge record after its '[': three
-// small decimal integers separated by commas, without spaces, then ']'. On
-// anything else it consumes nothing and returns false, and the general
-// parser takes over.
-func (s *jscan) fastEdge() (RawEdge, bool) {
-	if len(s.data)-s.pos < 40 && !s.fill() {
-		return RawEdge{}, false
+// fastEdges parses edge records of the common shape, from just after the
+// '[' of one: three canonical decimal integers of at most 7 digits
+// separated by commas without spaces, then ']'. After each it goes on to
+// the next record when a ',', white space and '[' follow. It stops after
+// the last complete record of that shape, leaving the rest to the general
+// parser; it returns false when it consumed nothing.
+func (s *jscan) fastEdges(raw *RawLayout) bool {
+	if len(s.data)-s.pos < 64 {
+		s.fill()
 	}
 	d, p := s.data, s.pos
-	var nums [3]int
-	for k := 0; k < 3; k++ {
-		start := p
-		n := 0
-		for p < len(d) && p-start < 7 && d[p] >= '0' && d[p] <= '9' {
-			n = n*10 + int(d[p]-'0')
-			p++
+	edges := raw.Edges
+	found := false
+	for {
+		u, q, ok := smallDecimal(d, p)
+		if !ok || q >= len(d) || d[q] != ',' {
+			break
 		}
-		if p == start || p >= len(d) || (d[start] == '0' && p-start > 1) {
-			return RawEdge{}, false
+		v, q, ok := smallDecimal(d, q+1)
+		if !ok || q >= len(d) || d[q] != ',' {
+			break
 		}
-		want := byte(',')
-		if k == 2 {
-			want = ']'
+		page, q, ok := smallDecimal(d, q+1)
+		if !ok || q >= len(d) || d[q] != ']' {
+			break
 		}
-		if d[p] != want {
-			return RawEdge{}, false
+		e := RawEdge{U: int32(u), V: int32(v), Page: int32(page)}
+		if ls := &s.labels; ls.b == nil && u < len(ls.seen) && v < len(ls.seen) {
+			ls.seen[u], ls.seen[v] = true, true // labelSet.number, inlined
+		} else {
+			e.U, e.V = ls.number(u), ls.number(v)
 		}
-		p++
-		nums[k] = n
+		edges = append(edges, e)
+		found = true
+		s.pos = q + 1 // the records up to here are consumed
+		if len(d)-s.pos < 64 {
+			s.fill()
+			d = s.data
+		}
+		q = s.pos
+		if q >= len(d) || d[q] != ',' {
+			break
+		}
+		for q++; q < len(d) && (d[q] == '\n' || d[q] == ' ' || d[q] == '\r' || d[q] == '\t'); q++ {
+		}
+		if q >= len(d) || d[q] != '[' {
+			break
+		}
+		p = q + 1
 	}
-	s.pos = p
-	return RawEdge{U: s.b.VertexNumber(nums[0]), V: s.b.VertexNumber(nums[1]), Page: int32(nums[2])}, true
+	raw.Edges = edges
+	return found
 }
 
 // WriteLayoutJSON writes l (a layout of g) in spinecert's JSON layout format:

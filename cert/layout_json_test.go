@@ -5,6 +5,7 @@ import (
 	"math/rand/v2"
 	"os"
 	"path/filepath"
+	"strconv"
 	"strings"
 	"testing"
 
@@ -139,12 +140,12 @@ func FuzzLayoutJSON(f *testing.F) {
 		// Build the graph the layout names and check the layout against it:
 		// nothing may panic, and a layout that resolves must write and read back.
 		b := graph.NewBuilder()
-		for _, lab := range raw.Labels {
-			b.Vertex(lab)
+		for i := range raw.NumLabels() {
+			b.Vertex(raw.Label(int32(i)))
 		}
 		for _, e := range raw.Edges {
 			if e.U != e.V {
-				_ = b.AddEdge(b.Vertex(raw.Labels[e.U]), b.Vertex(raw.Labels[e.V]))
+				_ = b.AddEdge(b.Vertex(raw.Label(e.U)), b.Vertex(raw.Label(e.V)))
 			}
 		}
 		g, _ := b.Build()
@@ -191,6 +192,83 @@ func TestLayoutJSONColumnAfterRefill(t *testing.T) {
 		}
 		if line := strings.Count(in, "\n") + 1; pe.Line != line || pe.Col != col {
 			t.Errorf("error %v, want it at %d:%d", err, line, col)
+		}
+	}
+}
+
+// TestLabelVertices compares the lookup of a layout's labels, which takes
+// runs of consecutive numbers without parsing them, with Index on every
+// label, for graphs and label lists with and without gaps.
+func TestLabelVertices(t *testing.T) {
+	r := rand.New(rand.NewPCG(5, 6))
+	for trial := 0; trial < 3000; trial++ {
+		b := graph.NewBuilder()
+		for k := r.IntN(30); k < 60; k++ {
+			if r.IntN(8) > 0 || trial%2 == 0 {
+				b.Vertex(strconv.Itoa(k))
+			}
+		}
+		if trial%5 == 0 {
+			b.Vertex("x")
+			b.Vertex("007")
+		}
+		g, _ := b.Build()
+		var labels []string
+		for k := r.IntN(40); k < 40+r.IntN(40); k++ {
+			if r.IntN(10) > 0 || trial%3 == 0 {
+				labels = append(labels, strconv.Itoa(k))
+			}
+		}
+		if trial%7 == 0 {
+			labels = append(labels, "x", "y", "007", "7")
+		}
+		got := labelVertices(g, labels)
+		for i, lab := range labels {
+			want, ok := g.Index(lab)
+			if !ok {
+				want = -1
+			}
+			if got[i] != want {
+				t.Fatalf("trial %d: label %q: vertex %d, want %d (labels %q, graph %q)", trial, lab, got[i], want, labels, g.Labels())
+			}
+		}
+	}
+}
+
+// TestRawLabels reads layouts whose labels are consecutive numbers (kept as
+// numbers), other numbers, and strings (some met only after numbers), and
+// checks that the spine and the edges name the labels of the file.
+func TestRawLabels(t *testing.T) {
+	for _, c := range []struct {
+		spine, edges string
+		want         []string // the spine's labels, then each edge's two
+	}{
+		{`0,1,2`, `[0,1,1],[1,2,1]`, []string{"0", "1", "2", "0", "1", "1", "2"}},
+		{`5,7,6`, `[5,6,1],[7,6,1]`, []string{"5", "7", "6", "5", "6", "7", "6"}},
+		{`9,3,30`, `[3,9,1],[30,9,1]`, []string{"9", "3", "30", "3", "9", "30", "9"}},
+		{`1,2,"a"`, `[1,"a",1],[2,1,1]`, []string{"1", "2", "a", "1", "a", "2", "1"}},
+		{`1,2,3`, `[1,2,1],[3,"x",1],["2",3,1]`, []string{"1", "2", "3", "1", "2", "3", "x", "2", "3"}},
+		{`"1","02",1`, `[1,"02",1]`, []string{"1", "02", "1", "1", "02"}},
+		{``, `[4,2,1]`, []string{"4", "2"}},
+	} {
+		in := `{"kind":"stack","pages":1,"spine":[` + c.spine + `],"edges":[` + c.edges + `]}`
+		raw, err := ReadLayoutJSON(strings.NewReader(in), "l.json")
+		if err != nil {
+			t.Fatal(err)
+		}
+		var got []string
+		for _, v := range raw.Spine {
+			got = append(got, raw.Label(v))
+		}
+		for _, e := range raw.Edges {
+			got = append(got, raw.Label(e.U), raw.Label(e.V))
+		}
+		distinct := map[string]bool{}
+		for i := range raw.NumLabels() {
+			distinct[raw.Label(int32(i))] = true
+		}
+		if strings.Join(got, " ") != strings.Join(c.want, " ") || len(distinct) != raw.NumLabels() {
+			t.Errorf("%s: labels %q of %d (%d distinct), want %q", in, got, raw.NumLabels(), len(distinct), c.want)
 		}
 	}
 }

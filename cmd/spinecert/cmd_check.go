@@ -62,6 +62,12 @@ func runCheck(cmd *cobra.Command, o *checkOptions) error {
 		ch <- rawResult{raw, err}
 	}()
 	g, gerr := o.graph.load(cmd, o.graphArg)
+	// The identity depends on the graph alone: it is hashed while the layout
+	// is still being read, and then while it is checked.
+	idc := make(chan string, 1)
+	if gerr == nil {
+		go func() { idc <- g.ID() }()
+	}
 	lr := <-ch
 	if gerr != nil {
 		return gerr
@@ -70,8 +76,6 @@ func runCheck(cmd *cobra.Command, o *checkOptions) error {
 		return usageErr(lr.err)
 	}
 	raw := lr.raw
-	idc := make(chan string, 1)
-	go func() { idc <- g.ID() }() // hashed while the layout is checked
 	rep := cert.Check(g, raw, cert.CheckOptions{MaxPages: o.pages})
 	id := <-idc
 	idNote := ""

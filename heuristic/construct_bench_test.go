@@ -20,8 +20,8 @@ func limitMemory(b *testing.B, limit int64) {
 }
 
 // benchConstruct times build on graphs of about 10^4, 10^5 and 10^6 edges
-// and checks every layout (cert.Validate, outside the timing) against the
-// class bound.
+// with the commands' time limit (DefaultTimeLimit) and checks every layout
+// (cert.Validate, outside the timing) against the class bound.
 func benchConstruct(b *testing.B, class string, bound int, gen func(rng *rand.Rand, n int) *graph.Graph) {
 	limitMemory(b, 4<<30)
 	for _, m := range []int{10_000, 100_000, 1_000_000} {
@@ -32,7 +32,7 @@ func benchConstruct(b *testing.B, class string, bound int, gen func(rng *rand.Ra
 			var rep Report
 			for b.Loop() {
 				var err error
-				if l, rep, err = FindReport(g, cert.Stack, Options{Seed: 1}); err != nil {
+				if l, rep, err = FindReport(g, cert.Stack, Options{Seed: 1, TimeLimit: DefaultTimeLimit}); err != nil {
 					b.Fatal(err)
 				}
 			}

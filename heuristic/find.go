@@ -24,6 +24,14 @@ type Options struct {
 	Method Method
 }
 
+// deadline is start plus the time limit, or the zero time (no limit).
+func (o Options) deadline(start time.Time) time.Time {
+	if o.TimeLimit <= 0 {
+		return time.Time{}
+	}
+	return start.Add(o.TimeLimit)
+}
+
 // DefaultTimeLimit is the time limit of the layout search that the
 // commands use unless told otherwise (layout --time-limit) and that
 // package pagenumber puts in place of no limit.
@@ -83,11 +91,7 @@ func Queue(g *graph.Graph, opts Options) *cert.Layout {
 
 // search tries spine candidates and keeps the layout with the fewest pages.
 func search(g *graph.Graph, kind cert.Kind, opts Options) *cert.Layout {
-	start := time.Now()
-	var deadline time.Time
-	if opts.TimeLimit > 0 {
-		deadline = start.Add(opts.TimeLimit)
-	}
+	deadline := opts.deadline(time.Now())
 	sp := newSpines(g, kind, opts.Seed)
 	var best []int32
 	var bestOrder []int32

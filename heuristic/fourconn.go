@@ -27,10 +27,7 @@ import (
 // opts.Seed and stops, giving none, once opts.TimeLimit (when not zero)
 // has passed: on large inputs the rotation search can take very long.
 func FourConnectedTwoPage(g *graph.Graph, opts Options) (*cert.Layout, string) {
-	var deadline time.Time
-	if opts.TimeLimit > 0 {
-		deadline = time.Now().Add(opts.TimeLimit)
-	}
+	deadline := opts.deadline(time.Now())
 	seed := opts.Seed
 	n := g.N()
 	if n < 4 || int64(g.M()) != 3*int64(n)-6 {
@@ -56,7 +53,7 @@ func FourConnectedTwoPage(g *graph.Graph, opts Options) (*cert.Layout, string) {
 			cyc, ok = posaCycle(g, int32(rng.IntN(n)), rng, posaRotationsPerVertex*n, deadline)
 		}
 		if !ok {
-			if !deadline.IsZero() && time.Now().After(deadline) {
+			if past(deadline) {
 				return nil, "no Hamiltonian cycle found within the time limit"
 			}
 			continue

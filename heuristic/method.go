@@ -155,10 +155,7 @@ func construct(g *graph.Graph, m Method, opts Options) (*cert.Layout, Report, st
 		}
 		return l, Report{Method: m, Bound: 2, Theorem: theoremFour}, ""
 	case MethodHamiltonSearch:
-		var deadline time.Time
-		if opts.TimeLimit > 0 {
-			deadline = time.Now().Add(opts.TimeLimit)
-		}
+		deadline := opts.deadline(time.Now())
 		if g.N() >= 3 && g.M() <= 3*g.N()-6 && g.M() <= hamiltonMaxEdges {
 			if emb, ok := planar.Embed(g); ok {
 				if h, ok := HamiltonianTwoPage(g, emb, hamiltonBudget(g)); ok {

@@ -24,18 +24,8 @@ func (ks *kurSearch) reorder() {
 	if len(ks.required) == 0 || len(ks.work) == 0 {
 		return
 	}
-	all := append(append(ks.cur[:0], ks.required...), ks.work...)
-	ks.cur = all
-	nv := ks.localize(all)
+	all, nv, off := ks.incidences()
 	lid := ks.vmap
-	off := make([]int32, nv+1)
-	for _, s := range all {
-		off[lid[ks.ea[s]]+1]++
-		off[lid[ks.eb[s]]+1]++
-	}
-	for i := 0; i < nv; i++ {
-		off[i+1] += off[i]
-	}
 	adj := make([]int32, off[nv])
 	iter := make([]int32, nv+1)
 	copy(iter, off)

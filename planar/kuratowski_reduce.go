@@ -15,18 +15,8 @@ package planar
 // new super-edge takes over the slots of the two it merges at the far ends,
 // so the lists never grow.
 func (ks *kurSearch) reduce() {
-	cur := append(append(ks.cur[:0], ks.required...), ks.work...)
-	ks.cur = cur
-	nv := ks.localize(cur)
+	cur, nv, off := ks.incidences()
 	lid := ks.vmap
-	off := make([]int32, nv+1)
-	for _, s := range cur {
-		off[lid[ks.ea[s]]+1]++
-		off[lid[ks.eb[s]]+1]++
-	}
-	for i := 0; i < nv; i++ {
-		off[i+1] += off[i]
-	}
 	slot := make([]int32, off[nv])
 	deg := make([]int32, nv)
 	fill := make([]int32, nv)
@@ -207,6 +197,26 @@ func (ks *kurSearch) localize(list []int32) int {
 		}
 	}
 	return n
+}
+
+// incidences gathers the required and the candidate super-edges into
+// ks.cur, numbers their ends locally (ks.vmap, localize) and returns them,
+// the number of local vertices and the offsets of one incidence list per
+// local vertex: vertex v's are off[v]..off[v+1] (a loop counts twice).
+func (ks *kurSearch) incidences() (cur []int32, nv int, off []int32) {
+	cur = append(append(ks.cur[:0], ks.required...), ks.work...)
+	ks.cur = cur
+	nv = ks.localize(cur)
+	lid := ks.vmap
+	off = make([]int32, nv+1)
+	for _, s := range cur {
+		off[lid[ks.ea[s]]+1]++
+		off[lid[ks.eb[s]]+1]++
+	}
+	for i := 0; i < nv; i++ {
+		off[i+1] += off[i]
+	}
+	return cur, nv, off
 }
 
 func btoi(b bool) int {

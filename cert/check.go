@@ -361,14 +361,20 @@ func recordEdge(g *graph.Graph, l *Layout, x uint64) int {
 	return g.EdgeIndex(l.Order[x>>32], l.Order[uint32(x)])
 }
 
+// groupEnd returns the end of the run of sorted records from page[i] that
+// share its left end.
+func groupEnd(page []uint64, i int) int {
+	j := i + 1
+	for j < len(page) && page[j]>>32 == page[i]>>32 {
+		j++
+	}
+	return j
+}
+
 // scanStackPage scans the sorted records of stack page p.
 func scanStackPage(g *graph.Graph, l *Layout, pos []int32, p int32, page []uint64, r *Report, stack []uint64) []uint64 {
 	for i := 0; i < len(page); {
-		le := page[i] >> 32
-		j := i + 1
-		for j < len(page) && page[j]>>32 == le {
-			j++
-		}
+		le, j := page[i]>>32, groupEnd(page, i)
 		for h := j - 1; h >= i; h-- { // longest first
 			x := page[h]
 			for len(stack) > 0 && uint32(stack[len(stack)-1]) <= uint32(le) {
@@ -396,11 +402,7 @@ func scanStackPage(g *graph.Graph, l *Layout, pos []int32, p int32, page []uint6
 func scanQueuePage(g *graph.Graph, l *Layout, pos []int32, p int32, page []uint64, r *Report) {
 	best, found := uint64(0), false // the record with the largest right end among strictly smaller left ends
 	for i := 0; i < len(page); {
-		le := page[i] >> 32
-		j := i + 1
-		for j < len(page) && page[j]>>32 == le {
-			j++
-		}
+		le, j := page[i]>>32, groupEnd(page, i)
 		for h := j - 1; h >= i; h-- { // longest first
 			x := page[h]
 			if found && uint32(best) > uint32(x) {

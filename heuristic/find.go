@@ -17,7 +17,9 @@ type Options struct {
 	Candidates int
 	// TimeLimit stops trying further candidates, and the Hamiltonian cycle
 	// searches, once it has passed (0 = no limit). The best layout found so
-	// far is returned. The command's default is DefaultTimeLimit.
+	// far is returned. The command's default is DefaultTimeLimit. In the
+	// automatic choice (FindReport) the constructions get half of it and
+	// the sweep the rest, at least the other half.
 	TimeLimit time.Duration
 	// Method chooses the construction ("" or MethodAuto: the first that
 	// applies; see FindReport).

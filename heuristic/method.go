@@ -105,10 +105,16 @@ func FindReport(g *graph.Graph, kind cert.Kind, opts Options) (*cert.Layout, Rep
 	if l, rep, _ := construct(g, MethodComplete, opts); l != nil {
 		return l, rep, nil // optimal (Bernhart and Kainen 1979)
 	}
+	// The constructions get half of the time limit, so that when the
+	// Hamiltonian search runs out of time the sweep still has the other
+	// half for its improvement passes.
+	start := time.Now()
+	half := opts
+	half.TimeLimit = opts.TimeLimit / 2
 	var best *cert.Layout
 	var bestRep Report
 	for _, m := range []Method{MethodFourConnected, MethodStacked} {
-		if l, rep, _ := construct(g, m, opts); l != nil {
+		if l, rep, _ := construct(g, m, half); l != nil {
 			best, bestRep = l, rep
 			break
 		}
@@ -118,7 +124,11 @@ func FindReport(g *graph.Graph, kind cert.Kind, opts Options) (*cert.Layout, Rep
 	}
 	// On graphs of moderate size, the sweep and the Hamiltonian search may
 	// beat a 3-page construction (K4 is a planar 3-tree with 2 pages).
-	l := search(g, cert.Stack, opts)
+	rest := opts
+	if opts.TimeLimit > 0 {
+		rest.TimeLimit = max(opts.TimeLimit-time.Since(start), opts.TimeLimit/2)
+	}
+	l := search(g, cert.Stack, rest)
 	if best == nil || l.Pages() < best.Pages() {
 		best, bestRep = l, Report{Method: MethodSweep}
 	}

@@ -15,7 +15,7 @@ type spines struct {
 	rng  *rand.Rand
 	off  []int32 // CSR offsets of the adjacency (neighbours of v: adj[off[v]:off[v+1]])
 	adj  []int32
-	rot  *rotation // planar embedding for queue layouts, or nil
+	rot  *rotation // planar embedding, or nil
 }
 
 func newSpines(g *graph.Graph, kind cert.Kind, seed int64) *spines {
@@ -39,20 +39,29 @@ func newSpines(g *graph.Graph, kind cert.Kind, seed int64) *spines {
 // ties. For queue layouts 0 is a BFS in input order from vertex 0, 1 the
 // input order, 2 a BFS with neighbours by ascending degree from a far
 // vertex, and the rest BFS with shuffled neighbours from random roots. For
-// queue layouts of planar graphs an embedding-guided BFS (leftBFS) from a
-// vertex far from vertex 0 comes second and the others follow.
+// planar graphs an order guided by the embedding is put in and the others
+// move up by one: for queue layouts second, a BFS (leftBFS) from a vertex
+// far from vertex 0; for stack layouts third, the ring-by-ring order of
+// peelOrder from a vertex of least degree.
 func (s *spines) candidate(i int) []int32 {
 	n := s.g.N()
 	if n == 0 {
 		return nil
 	}
-	if s.kind == cert.Queue && i >= 1 {
-		if i == 1 {
+	at := 1 // where the embedding-guided order goes
+	if s.kind == cert.Stack {
+		at = 2
+	}
+	if i >= at {
+		if i == at {
 			s.rot = planarEmbedding(s.g)
 		}
 		if s.rot != nil {
-			if i == 1 {
-				return s.planarQueue()
+			if i == at {
+				if s.kind == cert.Queue {
+					return s.planarQueue()
+				}
+				return s.rot.peelOrder(s.minDegree())
 			}
 			i--
 		}

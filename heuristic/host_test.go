@@ -54,7 +54,9 @@ func TestFindReportHost(t *testing.T) {
 			if vr := cert.Validate(g, l); !vr.OK() {
 				t.Fatalf("host n=%d keep=%v: layout rejected: %v", c.host.N(), keep, vr.Err())
 			}
-			if !rep.OnHost || rep.Bound < 1 || rep.Bound > c.bound || l.Pages() > rep.Bound {
+			// On small hosts the sweep may beat the construction (then
+			// the report names no bound); the class bound holds either way.
+			if !rep.OnHost || rep.Bound > c.bound || l.Pages() > c.bound || rep.Bound > 0 && l.Pages() > rep.Bound || rep.Bound == 0 && rep.Method != MethodSweep {
 				t.Errorf("host n=%d keep=%v: %d pages by %s (bound %d, on host %v), want at most %d", c.host.N(), keep, l.Pages(), rep.Method, rep.Bound, rep.OnHost, c.bound)
 			}
 			if l.Pages() != l.UsedPages() {

@@ -42,7 +42,8 @@ func newSpines(g *graph.Graph, kind cert.Kind, seed int64) *spines {
 // planar graphs an order guided by the embedding is put in and the others
 // move up by one: for queue layouts second, a BFS (leftBFS) from a vertex
 // far from vertex 0; for stack layouts third, the ring-by-ring order of
-// peelOrder from a vertex of least degree.
+// peelOrder from a vertex of least degree, and from then on every other
+// candidate is a peelOrder from a random root.
 func (s *spines) candidate(i int) []int32 {
 	n := s.g.N()
 	if n == 0 {
@@ -62,6 +63,9 @@ func (s *spines) candidate(i int) []int32 {
 					return s.planarQueue()
 				}
 				return s.rot.peelOrder(s.minDegree())
+			}
+			if s.kind == cert.Stack && (i-at)%2 == 1 {
+				return s.rot.peelOrder(int32(s.rng.IntN(n)))
 			}
 			i--
 		}

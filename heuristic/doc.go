@@ -23,6 +23,14 @@
 //     and the sweep assigns every edge 1 + the highest page of an edge
 //     nesting over it, with a Fenwick tree over right ends (O(m log n)).
 //
+// On planar graphs the candidates include orders taken from the embedding:
+// for queue layouts a breadth-first order that runs each layer around the
+// one before, for stack layouts a ring-by-ring order (peelOrder): the
+// breadth-first layers from a root, each vertex placed below its neighbour
+// in the layer before that comes first on the spine, siblings in rotation
+// order, the whole in preorder, so that the tree edges nest and the edges
+// between two rings mostly run side by side. Neither carries a page bound.
+//
 // Complete graphs get the classical ⌈n/2⌉-page stack layout (Bernhart and
 // Kainen, "The book thickness of a graph", J. Combin. Theory Ser. B 27, 1979).
 //

@@ -78,8 +78,12 @@ func TestRefinePublished(t *testing.T) {
 func TestRefineRandom(t *testing.T) {
 	cad := cadicalForTest(t)
 	r := rand.New(rand.NewPCG(21, 22))
+	sizes := 6 // 4 to 9 vertices
+	if testing.Short() {
+		sizes = 5 // up to 8: the race run (-short) took over a minute on a dense 9-vertex graph
+	}
 	for trial := 0; trial < 60; trial++ {
-		g := fixture.RandomGNP(r, 4+r.IntN(6), 0.3+0.6*r.Float64())
+		g := fixture.RandomGNP(r, 4+r.IntN(sizes), 0.3+0.6*r.Float64())
 		o := dimacs.Options{Kind: []cert.Kind{cert.Stack, cert.Queue}[r.IntN(2)], Pages: 1 + r.IntN(3)}
 		e, err := dimacs.Encode(g, o)
 		if err != nil {

@@ -1,6 +1,9 @@
 package heuristic
 
-import "slices"
+import (
+	"cmp"
+	"slices"
+)
 
 // peelOrder returns a spine order for stack layouts of a plane graph
 // (rotation r), from root. The layers are the BFS layers from root, which
@@ -20,7 +23,11 @@ func (r *rotation) peelOrder(root int32) []int32 {
 	parent := make([]int32, n)
 	up := make([]int32, n)   // slot of the dart to the parent, in v's rotation; -1 at a root
 	rank := make([]int32, n) // position within its layer
-	var keys []uint64
+	type placed struct {
+		key uint64 // parent's rank, then rotation position around it: unique within a layer
+		w   int32
+	}
+	var keys []placed
 	order := make([]int32, 0, n) // the layers, one after the other
 	for c := -1; c < n; c++ {
 		v := root
@@ -46,7 +53,7 @@ func (r *rotation) peelOrder(root int32) []int32 {
 			}
 			next := order[end:]
 			keys = keys[:0]
-			for j, w := range next {
+			for _, w := range next {
 				best, slot := int32(-1), int32(-1)
 				for i := r.off[w]; i < r.off[w+1]; i++ {
 					if u := r.nb[i]; level[u] == level[w]-1 && (best < 0 || rank[u] < rank[best]) {
@@ -61,16 +68,12 @@ func (r *rotation) peelOrder(root int32) []int32 {
 					base = up[best] - r.off[best]
 				}
 				k := (d - (r.twin[slot]-r.off[best]-base+d)%d) % d
-				keys = append(keys, uint64(rank[best])<<40|uint64(k)<<20|uint64(j))
+				keys = append(keys, placed{uint64(rank[best])<<32 | uint64(k), w})
 			}
-			slices.Sort(keys)
-			sorted := make([]int32, len(next))
-			for i, key := range keys {
-				sorted[i] = next[key&(1<<20-1)]
-			}
-			copy(next, sorted)
-			for i, w := range next {
-				rank[w] = int32(i)
+			slices.SortFunc(keys, func(a, b placed) int { return cmp.Compare(a.key, b.key) })
+			for i, p := range keys {
+				next[i] = p.w
+				rank[p.w] = int32(i)
 			}
 			layer = end
 		}
@@ -102,7 +105,7 @@ func (r *rotation) peelOrder(root int32) []int32 {
 			u := stack[len(stack)-1]
 			stack = stack[:len(stack)-1]
 			out = append(out, u)
-			for i := first[u] + count[u] - 1; i >= first[u] && first[u] >= 0; i-- {
+			for i := first[u] + count[u] - 1; count[u] > 0 && i >= first[u]; i-- {
 				stack = append(stack, order[i])
 			}
 		}

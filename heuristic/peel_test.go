@@ -63,3 +63,33 @@ func TestPeelOrderBeatsDFSOnTriangulations(t *testing.T) {
 		t.Errorf("peel order %d pages, Warnsdorff DFS %d: the peel order should need fewer", peel, dfs)
 	}
 }
+
+// A layer of more than 2^20 vertices around a vertex of that degree: the
+// sort keys of peelOrder once packed the index within the layer and the
+// rotation position into 20 bits each, and lost vertices past that.
+func TestPeelOrderWideLayer(t *testing.T) {
+	if testing.Short() {
+		t.Skip("builds a star with 2^20+3 leaves")
+	}
+	const leaves = 1<<20 + 3
+	edges := make([][2]int, leaves)
+	for i := range edges {
+		edges[i] = [2]int{0, i + 1}
+	}
+	g := fixture.Numbered(leaves+1, edges)
+	r := planarEmbedding(g)
+	if r == nil {
+		t.Fatal("no embedding of a star")
+	}
+	order := r.peelOrder(0)
+	seen := make([]bool, g.N())
+	for _, v := range order {
+		if seen[v] {
+			t.Fatalf("vertex %d twice in the peel order", v)
+		}
+		seen[v] = true
+	}
+	if len(order) != g.N() {
+		t.Fatalf("peel order has %d of %d vertices", len(order), g.N())
+	}
+}
